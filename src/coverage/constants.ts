@@ -1,0 +1,28 @@
+/**
+ * Physical constants and model defaults, one value each, with its source.
+ * No other file in the project writes these numbers.
+ */
+
+/** Speed of light in vacuum, m/s. Exact by definition of the metre (SI Brochure, 9th ed., 2019). */
+export const SPEED_OF_LIGHT_M_PER_S = 299_792_458;
+
+/** Boltzmann constant, J/K. Exact since the 2019 SI redefinition (SI Brochure, 9th ed.). */
+export const BOLTZMANN_J_PER_K = 1.380649e-23;
+
+/** Standard reference noise temperature T0, K. IEEE Std 145 / IRE noise-figure definition (common practice). */
+export const REFERENCE_TEMPERATURE_K = 290;
+
+/**
+ * Mean Earth radius, m. ITU-R P.834 / P.452 use 6371 km for the actual Earth radius
+ * (effective radius a_e = k · 6371 km, ITU-R P.452-17 eq. 6a).
+ */
+export const EARTH_RADIUS_M = 6_371_000;
+
+/** Default effective-Earth-radius factor k for radio paths in a standard atmosphere (ITU-R P.453; common practice 4/3). */
+export const DEFAULT_EFFECTIVE_EARTH_FACTOR = 4 / 3;
+
+/** Metres per building level when only `building:levels` is known (common practice, from memory: 3 m). */
+export const DEFAULT_METRES_PER_LEVEL = 3;
+
+/** Height given to a building footprint with no height tag at all, m (common practice for low-rise: two levels). */
+export const DEFAULT_BUILDING_HEIGHT_M = 6;
