@@ -26,7 +26,9 @@ function sourceFiles(dir: string): string[] {
 
 function importsOf(text: string): string[] {
   const specs: string[] = [];
-  for (const m of text.matchAll(/(?:import|export)[^'"]*?from\s*["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g)) {
+  for (const m of text.matchAll(
+    /(?:import|export)[^'"]*?from\s*["']([^"']+)["']|import\(\s*["']([^"']+)["']\s*\)/g,
+  )) {
     specs.push(m[1] ?? m[2]);
   }
   return specs;

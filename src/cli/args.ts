@@ -1,0 +1,58 @@
+/**
+ * Command-line value parsing shared by the `calc` and `plan` commands. Every error names the flag,
+ * so the user knows which value to fix.
+ */
+
+/** A bad command-line value; `flag` is the option as typed (e.g. "--pfa"). */
+export class UsageError extends Error {
+  override name = "UsageError";
+  constructor(
+    readonly flag: string,
+    message: string,
+  ) {
+    super(`${flag}: ${message}`);
+  }
+}
+
+export interface NumberRule {
+  /** Smallest allowed value (inclusive unless `minExclusive`). */
+  min?: number;
+  minExclusive?: boolean;
+  /** Largest allowed value (inclusive unless `maxExclusive`). */
+  max?: number;
+  maxExclusive?: boolean;
+  integer?: boolean;
+  /** Unit shown in messages, e.g. "m". */
+  unit?: string;
+}
+
+/**
+ * Parse a number given to `flag`. Accepts plain decimals, exponents (1e-6) and simple fractions (4/3).
+ * Throws UsageError naming the flag when it is missing, not a finite number, or out of range.
+ */
+export function parseNumber(flag: string, raw: unknown, rule: NumberRule = {}): number {
+  if (raw === undefined || raw === null || raw === "") throw new UsageError(flag, "a value is required");
+  const text = String(raw).trim();
+  const fraction = /^([-+]?[\d.]+(?:e[-+]?\d+)?)\/([\d.]+(?:e[-+]?\d+)?)$/i.exec(text);
+  const value = fraction ? Number(fraction[1]) / Number(fraction[2]) : Number(text);
+  const unit = rule.unit ? (rule.unit === "°" ? "°" : ` ${rule.unit}`) : "";
+  if (!Number.isFinite(value)) throw new UsageError(flag, `"${text}" is not a finite number`);
+  if (rule.integer && !Number.isInteger(value)) throw new UsageError(flag, `${text} must be a whole number`);
+  if (rule.min !== undefined && (rule.minExclusive ? value <= rule.min : value < rule.min)) {
+    throw new UsageError(flag, `${text}${unit} must be ${rule.minExclusive ? ">" : "≥"} ${rule.min}${unit}`);
+  }
+  if (rule.max !== undefined && (rule.maxExclusive ? value >= rule.max : value > rule.max)) {
+    throw new UsageError(flag, `${text}${unit} must be ${rule.maxExclusive ? "<" : "≤"} ${rule.max}${unit}`);
+  }
+  return value;
+}
+
+/** Parse "LAT,LON" in decimal degrees; names the flag on error. */
+export function parseLatLon(flag: string, raw: unknown): { lat: number; lon: number } {
+  const parts = String(raw ?? "").split(",");
+  if (parts.length !== 2)
+    throw new UsageError(flag, `expected LAT,LON in decimal degrees, got "${raw ?? ""}"`);
+  const lat = parseNumber(flag, parts[0], { min: -90, max: 90, unit: "°" });
+  const lon = parseNumber(flag, parts[1], { min: -180, max: 180, unit: "°" });
+  return { lat, lon };
+}
