@@ -14,6 +14,16 @@ export function linearToDb(ratio: number): number {
   return 10 * Math.log10(ratio);
 }
 
+/** Field (amplitude) ratio to decibels: 20·log10 (IEEE Std 100). 0 → -Infinity; negative → NaN. */
+export function fieldRatioToDb(ratio: number): number {
+  return 20 * Math.log10(ratio);
+}
+
+/** Decibels to a field (amplitude) ratio: 10^(dB/20). */
+export function dbToFieldRatio(db: number): number {
+  return 10 ** (db / 20);
+}
+
 /** dBm (decibels relative to 1 mW) to watts. */
 export function dbmToW(dbm: number): number {
   return 10 ** ((dbm - 30) / 10);
