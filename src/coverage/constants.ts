@@ -26,3 +26,12 @@ export const DEFAULT_METRES_PER_LEVEL = 3;
 
 /** Height given to a building footprint with no height tag at all, m (common practice for low-rise: two levels). */
 export const DEFAULT_BUILDING_HEIGHT_M = 6;
+
+/** Standard sea-level total pressure, hPa (ITU-R P.835-6 reference standard atmosphere; ISO 2533:1975). */
+export const STANDARD_PRESSURE_HPA = 1013.25;
+
+/** Standard sea-level temperature, K, i.e. 15 °C (ITU-R P.835-6 reference standard atmosphere; ISO 2533:1975). */
+export const STANDARD_TEMPERATURE_K = 288.15;
+
+/** Standard sea-level water-vapour density, g/m³ (ITU-R P.835-6 §1; the conditions of ITU-R P.676 Figure 1). */
+export const STANDARD_WATER_VAPOUR_DENSITY_G_PER_M3 = 7.5;
