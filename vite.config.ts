@@ -1,8 +1,10 @@
+/// <reference types="vitest/config" />
 import react from "@vitejs/plugin-react";
 import { defineConfig } from "vite";
+import { cspPlugin } from "./src/ui/csp.ts";
 
 export default defineConfig({
-  plugins: [react()],
+  plugins: [react(), cspPlugin()],
   worker: { format: "es" },
   build: { target: "es2022", sourcemap: true },
   server: { host: "127.0.0.1", port: 5173 },

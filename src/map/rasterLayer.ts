@@ -1,0 +1,131 @@
+/**
+ * A Leaflet GridLayer that draws a raster of the site grid: every tile pixel is mapped back to the grid
+ * cell under it (pixelToGrid.ts), the cell's value is turned into a byte once per cell, and the byte picks
+ * a colour from a 256-entry table. Nearest-cell sampling keeps cells crisp at any zoom. The layer computes
+ * nothing about the site: it takes finished values and exposes setters.
+ */
+
+import type { GridFrame } from "../coverage/grid";
+import { type ColourTable, TABLE_SIZE } from "./colourTable";
+import L from "./leaflet";
+import { type Forward, tileCellIndices } from "./pixelToGrid";
+
+/** Finished raster to draw: per cell a table index 0…255, or -1 for transparent. */
+export interface RasterPaint {
+  frame: GridFrame;
+  forward: Forward;
+  /** Per cell, row-major: colour table index, or -1 (transparent). */
+  indices: Int16Array;
+  table: ColourTable;
+  /** "fill" paints every pixel; "hatch" paints diagonal stripes only (reads without colour). */
+  pattern: "fill" | "hatch";
+}
+
+/** Quantises values to table indices with a function (NaN → -1 by convention of `toIndex`). */
+export function quantise(values: ArrayLike<number>, toIndex: (v: number) => number): Int16Array {
+  const out = new Int16Array(values.length);
+  for (let i = 0; i < values.length; i++) out[i] = toIndex(values[i]);
+  return out;
+}
+
+const HATCH_PERIOD_PX = 8;
+const HATCH_WIDTH_PX = 2;
+const INDEX_CACHE_TILES = 96;
+
+interface TileRecord {
+  el: HTMLCanvasElement;
+  coords: L.Coords;
+  current: boolean;
+}
+
+export class RasterLayer extends L.GridLayer {
+  private paint: RasterPaint | null = null;
+  private indexCache = new Map<string, Int32Array>();
+  private cacheFrameKey = "";
+
+  constructor(options?: L.GridLayerOptions) {
+    super({ tileSize: 256, updateWhenZooming: false, keepBuffer: 1, ...options });
+  }
+
+  /** Replaces the raster and repaints the visible tiles in place (no flicker). */
+  setPaint(paint: RasterPaint | null): void {
+    this.paint = paint;
+    const key = paint ? frameKey(paint.frame) : "";
+    if (key !== this.cacheFrameKey) {
+      this.indexCache.clear();
+      this.cacheFrameKey = key;
+    }
+    const tiles = (this as unknown as { _tiles?: Record<string, TileRecord> })._tiles;
+    if (!tiles) return;
+    for (const rec of Object.values(tiles)) this.drawTile(rec.el, rec.coords);
+  }
+
+  override createTile(coords: L.Coords): HTMLElement {
+    const canvas = document.createElement("canvas");
+    const size = this.getTileSize();
+    canvas.width = size.x;
+    canvas.height = size.y;
+    this.drawTile(canvas, coords);
+    return canvas;
+  }
+
+  private cellIndices(coords: L.Coords, paint: RasterPaint, sizePx: number): Int32Array {
+    const key = `${coords.z}/${coords.x}/${coords.y}`;
+    let idx = this.indexCache.get(key);
+    if (!idx) {
+      idx = tileCellIndices(paint.frame, paint.forward, coords, sizePx);
+      if (this.indexCache.size >= INDEX_CACHE_TILES) {
+        const first = this.indexCache.keys().next().value;
+        if (first !== undefined) this.indexCache.delete(first);
+      }
+      this.indexCache.set(key, idx);
+    }
+    return idx;
+  }
+
+  private drawTile(canvas: HTMLCanvasElement, coords: L.Coords): void {
+    const ctx = canvas.getContext("2d");
+    if (!ctx) return;
+    const n = canvas.width;
+    ctx.clearRect(0, 0, n, n);
+    const paint = this.paint;
+    if (!paint) return;
+    const cells = this.cellIndices(coords, paint, n);
+    const image = ctx.createImageData(n, n);
+    renderTilePixels(image.data, cells, paint, coords.x * n, coords.y * n, n);
+    ctx.putImageData(image, 0, 0);
+  }
+}
+
+/** Fills RGBA `out` for one tile from its cell indices; exported for tests. */
+export function renderTilePixels(
+  out: Uint8ClampedArray,
+  cells: Int32Array,
+  paint: RasterPaint,
+  originPx: number,
+  originPy: number,
+  sizePx: number,
+): void {
+  const { indices, table } = paint;
+  const hatch = paint.pattern === "hatch";
+  for (let py = 0; py < sizePx; py++) {
+    for (let px = 0; px < sizePx; px++) {
+      const p = py * sizePx + px;
+      const cell = cells[p];
+      if (cell < 0) continue;
+      const k = indices[cell];
+      if (k < 0 || k >= TABLE_SIZE) continue;
+      if (hatch && (originPx + px + originPy + py) % HATCH_PERIOD_PX >= HATCH_WIDTH_PX) continue;
+      const o = p * 4;
+      const t = k * 4;
+      out[o] = table[t];
+      out[o + 1] = table[t + 1];
+      out[o + 2] = table[t + 2];
+      out[o + 3] = table[t + 3];
+    }
+  }
+}
+
+function frameKey(f: GridFrame): string {
+  return `${f.crs}|${f.originX}|${f.originY}|${f.cellSizeM}|${f.width}|${f.height}`;
+}

@@ -1,0 +1,49 @@
+/**
+ * Our own React hook around one Leaflet map: creates it on a container element once, removes it on
+ * unmount. Layers are added by other hooks that receive the map; React owns their life.
+ */
+import { type RefObject, useEffect, useRef, useState } from "react";
+import L from "./leaflet";
+
+export interface MapInit {
+  centerLatLon: [number, number];
+  zoom: number;
+}
+
+/** Returns the map once it exists (null before the first effect). */
+export function useLeafletMap(container: RefObject<HTMLDivElement | null>, init: MapInit): L.Map | null {
+  const [map, setMap] = useState<L.Map | null>(null);
+  const initRef = useRef(init);
+  useEffect(() => {
+    const el = container.current;
+    if (!el) return;
+    const m = L.map(el, {
+      center: initRef.current.centerLatLon,
+      zoom: initRef.current.zoom,
+      zoomControl: true,
+      attributionControl: true,
+      keyboard: true,
+      maxZoom: 21,
+      minZoom: 3,
+      preferCanvas: false,
+    });
+    m.attributionControl.setPrefix(false);
+    setMap(m);
+    return () => {
+      m.remove();
+      setMap(null);
+    };
+  }, [container]);
+  return map;
+}
+
+/** Adds `layer` to `map` while both exist; removes exactly that layer on change or unmount. */
+export function useMapLayer(map: L.Map | null, layer: L.Layer | null): void {
+  useEffect(() => {
+    if (!map || !layer) return;
+    layer.addTo(map);
+    return () => {
+      layer.remove();
+    };
+  }, [map, layer]);
+}
