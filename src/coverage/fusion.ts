@@ -1,0 +1,111 @@
+/**
+ * Fusion of several radars at one target height: combined detection probability, overlap count,
+ * best radar, and the gap mask over the protected area and approach ring.
+ *
+ * Combined Pd = 1 − Π(1 − Pd_i): the radars decide independently and a detection by any one counts
+ * (the OR rule for independent sensors; common practice, e.g. Skolnik, Radar Handbook 3rd ed., on
+ * netted radars). Overlap = the number of radars that alone meet the required Pd.
+ */
+import type { RegionMasks } from "./regionMask.ts";
+
+/** "No radar" in a best-radar raster. */
+export const NO_RADAR = 255;
+
+/** State of a cell in a fused raster (one height), for the gap mask and the metrics. */
+export const CellState = {
+  /** A valid target position: the requirement applies. */
+  valid: 0,
+  /** The target height is below a roof or canopy here: no valid position, left out of fractions. */
+  insideObstruction: 1,
+  /** No ground elevation here: never covered, never counted. */
+  nodata: 2,
+} as const;
+export type CellState = (typeof CellState)[keyof typeof CellState];
+
+export interface FusionInput {
+  /** Per radar, Pd per cell at this height (NaN counts as 0). All the same length. */
+  pdPerRadar: ReadonlyArray<Float32Array>;
+  /** Required Pd in (0, 1). */
+  requiredPd: number;
+  /** Per cell state at this height (see CellState). */
+  cellState: Uint8Array;
+  /** Region masks; gaps are only marked inside them. */
+  regions: RegionMasks;
+}
+
+export interface FusedHeight {
+  /** Combined Pd, 0 where the cell is not valid. */
+  combinedPd: Float32Array;
+  /** Radars meeting the required Pd on their own (0 where not valid). */
+  overlapCount: Uint8Array;
+  /** Index of the radar with the highest Pd (NO_RADAR where none has Pd > 0 or not valid). */
+  bestRadar: Uint8Array;
+  /** 1 where a valid cell of the protected area or approach ring has combined Pd below the requirement. */
+  gap: Uint8Array;
+}
+
+/**
+ * Fuse the radars' Pd rasters of one height. At most 254 radars (best-radar indices are bytes).
+ * A cell that is not valid (inside an obstruction, nodata) gets combined Pd 0, overlap 0 and no gap.
+ */
+export function fuseHeight(input: FusionInput): FusedHeight {
+  const { pdPerRadar, requiredPd, cellState, regions } = input;
+  const n = cellState.length;
+  const radarCount = pdPerRadar.length;
+  if (radarCount >= NO_RADAR)
+    throw new RangeError(`fusion takes at most ${NO_RADAR - 1} radars, got ${radarCount}`);
+  const combinedPd = new Float32Array(n);
+  const overlapCount = new Uint8Array(n);
+  const bestRadar = new Uint8Array(n).fill(NO_RADAR);
+  const gap = new Uint8Array(n);
+  // Product of misses, accumulated radar by radar for memory locality.
+  const miss = new Float32Array(n).fill(1);
+  const bestPd = new Float32Array(n);
+  for (let r = 0; r < radarCount; r++) {
+    const pd = pdPerRadar[r];
+    for (let i = 0; i < n; i++) {
+      const p = pd[i];
+      if (!(p > 0)) continue;
+      miss[i] *= 1 - p;
+      if (p >= requiredPd) overlapCount[i]++;
+      if (p > bestPd[i]) {
+        bestPd[i] = p;
+        bestRadar[i] = r;
+      }
+    }
+  }
+  const protectedArea = regions.protectedArea;
+  const ring = regions.approachRing;
+  for (let i = 0; i < n; i++) {
+    if (cellState[i] !== CellState.valid) {
+      overlapCount[i] = 0;
+      bestRadar[i] = NO_RADAR;
+      continue;
+    }
+    const pdc = 1 - miss[i];
+    combinedPd[i] = pdc;
+    if ((protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd) gap[i] = 1;
+  }
+  return { combinedPd, overlapCount, bestRadar, gap };
+}
+
+/**
+ * The state of every cell at one target height: nodata where the ground is NaN, inside an obstruction
+ * where the target height AGL is below the roof or canopy top (obstructionTopAglM > heightAglM), else valid.
+ */
+export function cellStatesAtHeight(
+  ground: Float32Array,
+  obstructionTopAglM: Float32Array,
+  heightAglM: number,
+  out?: Uint8Array,
+): Uint8Array {
+  const n = ground.length;
+  const state = out ?? new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    const g = ground[i];
+    if (Number.isNaN(g)) state[i] = CellState.nodata;
+    else if (obstructionTopAglM[i] > heightAglM) state[i] = CellState.insideObstruction;
+    else state[i] = CellState.valid;
+  }
+  return state;
+}
