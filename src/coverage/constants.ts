@@ -27,6 +27,39 @@ export const DEFAULT_METRES_PER_LEVEL = 3;
 /** Height given to a building footprint with no height tag at all, m (common practice for low-rise: two levels). */
 export const DEFAULT_BUILDING_HEIGHT_M = 6;
 
+/** One international foot, m. Exact by definition (International Yard and Pound Agreement, 1959). */
+export const FOOT_M = 0.3048;
+
+/** One US survey foot, m: 1200/3937 exactly (NIST Handbook 44, App. C; EPSG unit 9003). */
+export const US_SURVEY_FOOT_M = 1200 / 3937;
+
+/**
+ * Canopy height given to a tree stand with no height attribute, m.
+ * Typical mature temperate forest stands are 15–30 m tall (from memory); the low end is used.
+ */
+export const DEFAULT_CANOPY_HEIGHT_M = 15;
+
+/**
+ * Tallest obstruction height accepted from a footprint attribute, m. The tallest building stands
+ * at 828 m (common knowledge); anything above 1000 m is taken as a unit or typing error.
+ */
+export const MAX_OBSTRUCTION_HEIGHT_M = 1000;
+
+/**
+ * Largest raster side (columns or rows) accepted from a DEM file header: 2^17 = 131 072.
+ * A 1″ DEM of 36° × 36° fits; a header beyond it is refused before anything is allocated (project limit).
+ */
+export const MAX_DEM_HEADER_SIDE_CELLS = 131_072;
+
+/**
+ * Largest DEM window read into memory, cells: 2^25 = 33 554 432 (128 MiB as Float32).
+ * Only the part of a DEM that covers the site grid is read; a larger window is refused (project limit).
+ */
+export const MAX_DEM_WINDOW_CELLS = 33_554_432;
+
+/** Largest decompressed entry accepted from a KMZ/zip archive, bytes: 256 MiB (project limit against zip bombs). */
+export const MAX_ARCHIVE_ENTRY_BYTES = 268_435_456;
+
 /** Standard sea-level total pressure, hPa (ITU-R P.835-6 reference standard atmosphere; ISO 2533:1975). */
 export const STANDARD_PRESSURE_HPA = 1013.25;
 

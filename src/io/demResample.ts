@@ -1,0 +1,193 @@
+/**
+ * Resampling of a source elevation raster (any CRS proj4 handles) onto the site grid.
+ *
+ * For each target cell centre: transform (x, y) of the site frame to the source CRS with proj4,
+ * then sample the source bilinearly at that point (pixel centres as nodes). A target centre that
+ * falls outside the source's pixel-centre lattice but still within its outer half-pixel rim takes
+ * the value at the nearest lattice edge, as a raster covers its full pixel extent. NaN where the
+ * point lies outside the source or any of the four neighbouring samples is nodata.
+ * A geographic (degrees) source is thus used only through its coordinates: values land on the
+ * metric grid, never on degrees.
+ */
+import proj4 from "proj4";
+import { createGrid, type Grid, type GridFrame, sampleBilinear } from "../coverage/grid.ts";
+import { ImportError } from "./importErrors.ts";
+
+/** A north-up source raster in its own CRS (degrees or metres), NaN as nodata. */
+export interface SourceRaster {
+  /** Elevations, m, row-major from the northern row, length width·height; NaN = nodata. */
+  data: Float32Array;
+  width: number;
+  height: number;
+  /** x (easting or longitude) of the western edge of column 0, in source CRS units. */
+  originX: number;
+  /** y (northing or latitude) of the northern edge of row 0, in source CRS units. */
+  originY: number;
+  /** Pixel width in source CRS units (> 0). */
+  pixelSizeX: number;
+  /** Pixel height in source CRS units (> 0; rows go south). */
+  pixelSizeY: number;
+  /** The source CRS as a proj4 string or a registered proj4 name ("EPSG:4326"). */
+  crs: string;
+}
+
+/** True when a proj4 CRS is geographic (longitude/latitude in degrees). */
+export function isGeographicCrs(crs: string): boolean {
+  const p = proj4.Proj(crs) as unknown as { projName?: string };
+  return p.projName === "longlat";
+}
+
+/** Same CRS written the same way: no transform is needed. */
+function sameCrs(a: string, b: string): boolean {
+  return a.trim() === b.trim();
+}
+
+/**
+ * Transformer from site-frame x/y (metres) to source CRS coordinates; identity for the same CRS.
+ * Throws (from proj4) when either CRS cannot be parsed; callers catch and name the file.
+ */
+export function frameToSourceTransform(
+  frameCrs: string,
+  sourceCrs: string,
+): (x: number, y: number) => [number, number] {
+  if (sameCrs(frameCrs, sourceCrs)) return (x, y) => [x, y];
+  const converter = proj4(frameCrs, sourceCrs);
+  return (x, y) => {
+    const p = converter.forward([x, y]);
+    return [p[0], p[1]];
+  };
+}
+
+/**
+ * Resample `source` onto `frame` bilinearly (see the file comment).
+ * Output: a new Grid of the frame, m; NaN outside the source and next to nodata.
+ * The fraction of target cells that received a value is returned beside it.
+ */
+export function resampleToFrame(
+  source: SourceRaster,
+  frame: GridFrame,
+): { grid: Grid; coveredFraction: number } {
+  const grid = createGrid(frame);
+  const toSource = frameToSourceTransform(frame.crs, source.crs);
+  const geographic = isGeographicCrs(source.crs);
+  // sampleBilinear reads only width, height and data: the source lattice in its own pixel units.
+  const lattice: Grid = {
+    data: source.data,
+    width: source.width,
+    height: source.height,
+    originX: 0,
+    originY: 0,
+    cellSizeM: 1,
+    crs: source.crs,
+  };
+  const colMax = source.width - 1;
+  const rowMax = source.height - 1;
+  const out = grid.data;
+  let covered = 0;
+  for (let row = 0; row < frame.height; row++) {
+    const y = frame.originY - (row + 0.5) * frame.cellSizeM;
+    for (let col = 0; col < frame.width; col++) {
+      const x = frame.originX + (col + 0.5) * frame.cellSizeM;
+      let [sx, sy] = toSource(x, y);
+      if (geographic) sx = wrapLongitude(sx, source.originX);
+      const c0 = (sx - source.originX) / source.pixelSizeX - 0.5;
+      const r0 = (source.originY - sy) / source.pixelSizeY - 0.5;
+      // Inside the raster's full extent (pixel edges) but beyond the centre lattice: clamp to the edge.
+      if (!(c0 >= -0.5 && c0 <= colMax + 0.5 && r0 >= -0.5 && r0 <= rowMax + 0.5)) continue;
+      const v = sampleBilinear(lattice, Math.min(colMax, Math.max(0, c0)), Math.min(rowMax, Math.max(0, r0)));
+      if (!Number.isNaN(v)) {
+        out[row * frame.width + col] = v;
+        covered++;
+      }
+    }
+  }
+  const total = frame.width * frame.height;
+  return { grid, coveredFraction: total > 0 ? covered / total : 0 };
+}
+
+/** Longitude shifted by whole turns to lie at or east of the raster's western edge (within one turn). */
+function wrapLongitude(lonDeg: number, westEdgeDeg: number): number {
+  const turnDeg = 360;
+  let lon = lonDeg;
+  while (lon < westEdgeDeg) lon += turnDeg;
+  while (lon >= westEdgeDeg + turnDeg) lon -= turnDeg;
+  return lon;
+}
+
+/**
+ * The bounding box, in source CRS units, of the site frame: its edges densified (the transform
+ * bends straight lines), plus the frame's corners. Used to read only the covering DEM window.
+ */
+export function frameBoundsInCrs(
+  frame: GridFrame,
+  sourceCrs: string,
+): { minX: number; minY: number; maxX: number; maxY: number } {
+  const toSource = frameToSourceTransform(frame.crs, sourceCrs);
+  const x0 = frame.originX;
+  const y0 = frame.originY;
+  const x1 = frame.originX + frame.width * frame.cellSizeM;
+  const y1 = frame.originY - frame.height * frame.cellSizeM;
+  const stepsPerEdge = 32;
+  let minX = Number.POSITIVE_INFINITY;
+  let minY = Number.POSITIVE_INFINITY;
+  let maxX = Number.NEGATIVE_INFINITY;
+  let maxY = Number.NEGATIVE_INFINITY;
+  const add = (x: number, y: number) => {
+    const [sx, sy] = toSource(x, y);
+    if (!Number.isFinite(sx) || !Number.isFinite(sy)) return;
+    if (sx < minX) minX = sx;
+    if (sx > maxX) maxX = sx;
+    if (sy < minY) minY = sy;
+    if (sy > maxY) maxY = sy;
+  };
+  for (let i = 0; i <= stepsPerEdge; i++) {
+    const t = i / stepsPerEdge;
+    add(x0 + (x1 - x0) * t, y0);
+    add(x0 + (x1 - x0) * t, y1);
+    add(x0, y0 + (y1 - y0) * t);
+    add(x1, y0 + (y1 - y0) * t);
+  }
+  return { minX, minY, maxX, maxY };
+}
+
+/** What a DEM import hands to the engine: ground on the site grid, warnings to show, and provenance. */
+export interface DemResult {
+  /** Ground elevation on the site grid, m; NaN where the DEM has no data or does not reach. */
+  ground: Grid;
+  /** Plain-language notes for the user (partial coverage, assumed CRS, reprojection…). */
+  warnings: string[];
+  source: {
+    kind: "geotiff" | "hgt" | "asc" | "flat";
+    /** The source CRS as given to proj4 (or the site grid's for flat ground). */
+    crs: string;
+    /** Bare earth (DTM) or surface (DSM), when known. */
+    surfaceKind?: "dtm" | "dsm" | "unknown";
+  };
+}
+
+/**
+ * Resample a decoded source raster to the site frame and state its coverage: a DEM that covers
+ * no cell at all is refused (ImportError naming the file), partial coverage is a warning.
+ */
+export function demResultFromSource(
+  source: SourceRaster,
+  frame: GridFrame,
+  file: string,
+  meta: DemResult["source"],
+  warnings: string[],
+): DemResult {
+  const { grid, coveredFraction } = resampleToFrame(source, frame);
+  if (coveredFraction === 0) {
+    throw new ImportError(
+      file,
+      "the DEM does not cover any cell of the site grid (check the file's area and its CRS)",
+    );
+  }
+  if (coveredFraction < 1) {
+    const percent = Math.floor(coveredFraction * 1000) / 10;
+    warnings.push(
+      `${file}: the DEM covers ${percent} % of the site grid; cells outside it have no ground (nodata, never visible).`,
+    );
+  }
+  return { ground: grid, warnings, source: meta };
+}
