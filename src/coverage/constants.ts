@@ -68,3 +68,30 @@ export const STANDARD_TEMPERATURE_K = 288.15;
 
 /** Standard sea-level water-vapour density, g/m³ (ITU-R P.835-6 §1; the conditions of ITU-R P.676 Figure 1). */
 export const STANDARD_WATER_VAPOUR_DENSITY_G_PER_M3 = 7.5;
+
+/**
+ * Argument x at which the uniform-aperture pattern (sin x / x)² falls to one half (the −3.01 dB point):
+ * the root of sin x / x = 1/√2, x = 1.39156 (Balanis, Antenna Theory, 3rd ed., uniform line source;
+ * common practice). Value solved to double precision with scipy.optimize.brentq (scipy 1.10.1).
+ */
+export const SINC2_HALF_POWER_ARGUMENT = 1.3915573782515096;
+
+/**
+ * Practical gain rule of thumb from the two half-power beamwidths in degrees: G ≈ 26 000 / (θaz·θel),
+ * which folds a typical aperture efficiency (≈ 0.63 of the lossless 41 253 / (θaz·θel)) into the constant
+ * (common practice, from memory; e.g. Stutzman & Thiele, Antenna Theory and Design).
+ */
+export const PRACTICAL_BEAMWIDTH_GAIN_DEG2 = 26_000;
+
+/**
+ * Gain of a single rectangular microstrip patch element on a low-cost laminate, dBi (common practice:
+ * 5–7 dBi; the low end is used). With DEFAULT_PATCH_FEED_LOSS_DB_PER_LEVEL it reproduces the trade
+ * figures ≈ 10.6 dBi for a 2 × 2 and ≈ 16 dBi for a 4 × 4 array at 5.8 GHz.
+ */
+export const DEFAULT_PATCH_ELEMENT_GAIN_DBI = 5.2;
+
+/**
+ * Corporate-feed loss per level of power division (per doubling of the element count) of a microstrip
+ * patch array, dB (common practice, from memory: a few tenths of a dB per level on low-cost laminate).
+ */
+export const DEFAULT_PATCH_FEED_LOSS_DB_PER_LEVEL = 0.3;
