@@ -1,0 +1,316 @@
+/**
+ * The site grid frame: the local metric frame every raster of a run shares.
+ *
+ * - Projection: the UTM zone (WGS84) of the site centre (centre of the lon/lat bounding box of the
+ *   protected areas), via proj4. Southern sites use the false northing of 10 000 km (+south).
+ *   The exceptions of the UTM system are handled: zone 32V widened over south-west Norway
+ *   (56°–64° N, 3°–12° E) and zones 31X/33X/35X/37X over Svalbard (72°–84° N); the zones 32X,
+ *   34X and 36X do not exist. UTM is defined from 80° S to 84° N; polar sites (UPS) are refused.
+ *   Sites across the antimeridian are refused.
+ * - Extent: the protected areas expanded by the approach-ring depth (the bounding box of a polygon
+ *   buffered by d is its bounding box grown by d on every side), joined with every post, grown by
+ *   a margin; snapped outward to whole cells so that the origin is a multiple of the cell size.
+ * - Cells: square; with cellSizeM "auto" the smallest of AUTO_CELL_SIZES_M that keeps the count
+ *   at or below MAX_AUTO_CELLS.
+ * - Memory: estimateRunMemoryBytes gives what a run stores (formula below); checkRunMemory refuses
+ *   a run above RUN_MEMORY_BUDGET_BYTES with a message that says what to change.
+ */
+import proj4 from "proj4";
+import type { GridFrame } from "../coverage/grid.ts";
+import type { Plan } from "./planSchema.ts";
+
+/**
+ * Cap on the cell count of an automatic grid: 4 M cells (e.g. 2000 × 2000, 10 km × 10 km at 5 m).
+ * The engine's interactive target is a full 10-radar, 3-height evaluation of 4 M cells in 1.5 s
+ * on two cores, and such a run (about 1.7 GiB by estimateRunMemoryBytes) stays inside RUN_MEMORY_BUDGET_BYTES.
+ */
+export const MAX_AUTO_CELLS = 4_000_000;
+
+/** Cell sizes tried in order when cellSizeM is "auto", m; 5 m is the default of the design. */
+export const AUTO_CELL_SIZES_M: readonly number[] = [5, 10, 20, 25, 50, 100, 200, 250, 500, 1000];
+
+/** Margin of the grid beyond the approach ring and the posts, m, when the plan states none. */
+export const DEFAULT_GRID_MARGIN_M = 200;
+
+/** Southern limit of the UTM system, degrees (NGA standard; UPS covers the pole). */
+export const UTM_MIN_LAT_DEG = -80;
+/** Northern limit of the UTM system, degrees (NGA standard; UPS covers the pole). */
+export const UTM_MAX_LAT_DEG = 84;
+
+/**
+ * Largest side of a site grid, m. A site centred on a zone edge then reaches 100 km into the
+ * neighbouring zone, about 430 km from the central meridian at the equator, where the UTM point
+ * scale is about 1.002 (grid areas 0.4 % too large); beyond that a single UTM frame is no longer fit.
+ */
+export const MAX_GRID_SIDE_M = 200_000;
+
+/**
+ * Memory budget of one run, bytes: 2 GiB, about half of what a 64-bit browser tab can hold
+ * (Chromium caps a renderer process near 4 GiB), leaving room for the map, the page and the
+ * copies in flight to and from workers.
+ */
+export const RUN_MEMORY_BUDGET_BYTES = 2 * 1024 ** 3;
+
+/** The most radars one run can fuse (best-radar rasters hold a byte index; 255 means none). */
+export const MAX_RADARS_PER_RUN = 254;
+
+// Bytes per cell as the engine stores its rasters (Float32 = 4 bytes, Uint8 = 1 byte).
+/** Per grid: ground elevation f32 + obstruction top f32 + protected-area and ring masks 2 × u8. */
+export const GRID_BYTES_PER_CELL = 4 + 4 + 1 + 1;
+/** Per radar: horizon slope f32 + obstruction distance f32 + lowest visible height f32. */
+export const RADAR_BYTES_PER_CELL = 4 + 4 + 4;
+/** Per radar and height: Pd f32 + SNR dB f32 + not-covered reason u8. */
+export const RADAR_HEIGHT_BYTES_PER_CELL = 4 + 4 + 1;
+/**
+ * Per height, fused: combined Pd f32 + overlap u8 + best radar u8 + gap u8 + cell state u8,
+ * plus fusion scratch (product of misses f32, best Pd f32).
+ */
+export const FUSED_HEIGHT_BYTES_PER_CELL = 4 + 1 + 1 + 1 + 1 + 4 + 4;
+
+/** Thrown by siteGridFrame for a site the grid cannot hold; `name` is stable for the worker boundary. */
+export class SiteGridError extends Error {
+  override readonly name = "SiteGridError";
+}
+
+export interface UtmZone {
+  /** Zone number 1–60. */
+  zone: number;
+  /** True south of the equator (false northing 10 000 km). */
+  south: boolean;
+}
+
+/**
+ * The UTM zone of a point, with the Norway (32V) and Svalbard (31X–37X) exceptions.
+ * lonDeg in [-180, 180] (180 belongs to zone 60), latDeg in [-80, 84]; NaN or outside → null.
+ */
+export function utmZoneOf(lonDeg: number, latDeg: number): UtmZone | null {
+  if (!(lonDeg >= -180 && lonDeg <= 180 && latDeg >= UTM_MIN_LAT_DEG && latDeg <= UTM_MAX_LAT_DEG))
+    return null;
+  let zone = Math.min(60, Math.floor((lonDeg + 180) / 6) + 1);
+  if (latDeg >= 56 && latDeg < 64 && lonDeg >= 3 && lonDeg < 12) zone = 32;
+  if (latDeg >= 72) {
+    if (lonDeg >= 0 && lonDeg < 9) zone = 31;
+    else if (lonDeg >= 9 && lonDeg < 21) zone = 33;
+    else if (lonDeg >= 21 && lonDeg < 33) zone = 35;
+    else if (lonDeg >= 33 && lonDeg < 42) zone = 37;
+  }
+  return { zone, south: latDeg < 0 };
+}
+
+/** The proj4 definition of a UTM zone on WGS84. */
+export function utmProj4(z: UtmZone): string {
+  return `+proj=utm +zone=${z.zone}${z.south ? " +south" : ""} +datum=WGS84 +units=m +no_defs`;
+}
+
+/** The EPSG code of a WGS84 UTM zone (326zz north, 327zz south). */
+export function utmEpsg(z: UtmZone): number {
+  return (z.south ? 32700 : 32600) + z.zone;
+}
+
+const WGS84_LONLAT = "+proj=longlat +datum=WGS84 +no_defs";
+
+export interface SiteGrid {
+  frame: GridFrame;
+  /** WGS84 lon/lat (degrees) to grid-frame x/y (m); NaN for points the projection cannot take. */
+  toGrid(lonDeg: number, latDeg: number): [number, number];
+  /** Grid-frame x/y (m) to WGS84 lon/lat (degrees). */
+  toLonLat(x: number, y: number): [number, number];
+  zone: UtmZone;
+  epsg: number;
+  /** width × height. */
+  cellCount: number;
+  /** True when the cell size was chosen automatically. */
+  autoCellSize: boolean;
+}
+
+function positionsOfPlanAreas(plan: Plan): number[][] {
+  const out: number[][] = [];
+  for (const area of plan.protectedAreas) {
+    const g = area.geometry;
+    const polygons = g.type === "Polygon" ? [g.coordinates] : g.coordinates;
+    for (const rings of polygons) for (const ring of rings) for (const p of ring) out.push(p);
+  }
+  return out;
+}
+
+/** The cell size an automatic grid takes for an extent of widthM × heightM, m. */
+export function autoCellSizeM(widthM: number, heightM: number): number {
+  for (const s of AUTO_CELL_SIZES_M) {
+    if (Math.ceil(widthM / s) * Math.ceil(heightM / s) <= MAX_AUTO_CELLS) return s;
+  }
+  return AUTO_CELL_SIZES_M[AUTO_CELL_SIZES_M.length - 1];
+}
+
+/**
+ * The site grid frame of a validated plan. Throws SiteGridError (with a message for the user)
+ * for a site without protected areas, a polar site, one across the antimeridian, or one larger
+ * than MAX_GRID_SIDE_M.
+ */
+export function siteGridFrame(plan: Plan): SiteGrid {
+  const areaPositions = positionsOfPlanAreas(plan);
+  if (areaPositions.length === 0)
+    throw new SiteGridError("protectedAreas: the site grid needs a protected area");
+  let minLon = Number.POSITIVE_INFINITY;
+  let maxLon = Number.NEGATIVE_INFINITY;
+  let minLat = Number.POSITIVE_INFINITY;
+  let maxLat = Number.NEGATIVE_INFINITY;
+  const all = [...areaPositions, ...plan.posts.map((p) => [p.position.lonDeg, p.position.latDeg])];
+  for (const p of all) {
+    minLon = Math.min(minLon, p[0]);
+    maxLon = Math.max(maxLon, p[0]);
+    minLat = Math.min(minLat, p[1]);
+    maxLat = Math.max(maxLat, p[1]);
+  }
+  if (maxLon - minLon > 180) {
+    throw new SiteGridError(
+      "the site crosses the antimeridian (±180° longitude), which the site grid does not support",
+    );
+  }
+  if (minLat < UTM_MIN_LAT_DEG || maxLat > UTM_MAX_LAT_DEG) {
+    throw new SiteGridError(
+      `the site reaches latitude ${(minLat < UTM_MIN_LAT_DEG ? minLat : maxLat).toFixed(4)}°, outside the UTM range ${UTM_MIN_LAT_DEG}° to ${UTM_MAX_LAT_DEG}° (polar sites are not supported)`,
+    );
+  }
+  // Centre: of the protected areas only, so that adding a far post never changes the zone.
+  let aMinLon = Number.POSITIVE_INFINITY;
+  let aMaxLon = Number.NEGATIVE_INFINITY;
+  let aMinLat = Number.POSITIVE_INFINITY;
+  let aMaxLat = Number.NEGATIVE_INFINITY;
+  for (const p of areaPositions) {
+    aMinLon = Math.min(aMinLon, p[0]);
+    aMaxLon = Math.max(aMaxLon, p[0]);
+    aMinLat = Math.min(aMinLat, p[1]);
+    aMaxLat = Math.max(aMaxLat, p[1]);
+  }
+  const zone = utmZoneOf((aMinLon + aMaxLon) / 2, (aMinLat + aMaxLat) / 2);
+  if (!zone) throw new SiteGridError("the site centre lies outside the UTM system");
+  const crs = utmProj4(zone);
+  const conv = proj4(WGS84_LONLAT, crs);
+
+  const toGrid = (lonDeg: number, latDeg: number): [number, number] => {
+    if (!Number.isFinite(lonDeg) || !Number.isFinite(latDeg)) return [Number.NaN, Number.NaN];
+    try {
+      const [x, y] = conv.forward([lonDeg, latDeg]);
+      return Number.isFinite(x) && Number.isFinite(y) ? [x, y] : [Number.NaN, Number.NaN];
+    } catch {
+      return [Number.NaN, Number.NaN];
+    }
+  };
+  const toLonLat = (x: number, y: number): [number, number] => {
+    if (!Number.isFinite(x) || !Number.isFinite(y)) return [Number.NaN, Number.NaN];
+    try {
+      const [lon, lat] = conv.inverse([x, y]);
+      return Number.isFinite(lon) && Number.isFinite(lat) ? [lon, lat] : [Number.NaN, Number.NaN];
+    } catch {
+      return [Number.NaN, Number.NaN];
+    }
+  };
+
+  let minX = Number.POSITIVE_INFINITY;
+  let maxX = Number.NEGATIVE_INFINITY;
+  let minY = Number.POSITIVE_INFINITY;
+  let maxY = Number.NEGATIVE_INFINITY;
+  const grow = (x: number, y: number, by: number) => {
+    minX = Math.min(minX, x - by);
+    maxX = Math.max(maxX, x + by);
+    minY = Math.min(minY, y - by);
+    maxY = Math.max(maxY, y + by);
+  };
+  for (const p of areaPositions) {
+    const [x, y] = toGrid(p[0], p[1]);
+    grow(x, y, plan.approachRingDepthM);
+  }
+  for (const post of plan.posts) {
+    const [x, y] = toGrid(post.position.lonDeg, post.position.latDeg);
+    grow(x, y, 0);
+  }
+  if (!(Number.isFinite(minX) && Number.isFinite(maxX) && Number.isFinite(minY) && Number.isFinite(maxY))) {
+    throw new SiteGridError("the site could not be projected to its UTM zone");
+  }
+  const marginM = plan.analysis.marginM ?? DEFAULT_GRID_MARGIN_M;
+  minX -= marginM;
+  maxX += marginM;
+  minY -= marginM;
+  maxY += marginM;
+  const sideM = Math.max(maxX - minX, maxY - minY);
+  if (sideM > MAX_GRID_SIDE_M) {
+    throw new SiteGridError(
+      `the site grid would be ${(sideM / 1000).toFixed(1)} km across (protected areas, approach ring, posts and margin), above the ${MAX_GRID_SIDE_M / 1000} km limit of one UTM frame; check for a post or vertex far from the site`,
+    );
+  }
+  const autoCellSize = plan.analysis.cellSizeM === "auto";
+  const cellSizeM = autoCellSize
+    ? autoCellSizeM(maxX - minX, maxY - minY)
+    : (plan.analysis.cellSizeM as number);
+  const originX = Math.floor(minX / cellSizeM) * cellSizeM;
+  const originY = Math.ceil(maxY / cellSizeM) * cellSizeM;
+  const width = Math.max(1, Math.ceil((maxX - originX) / cellSizeM));
+  const height = Math.max(1, Math.ceil((originY - minY) / cellSizeM));
+  const frame: GridFrame = { width, height, originX, originY, cellSizeM, crs };
+  return { frame, toGrid, toLonLat, zone, epsg: utmEpsg(zone), cellCount: width * height, autoCellSize };
+}
+
+/** The size of a run: grid cells, radars taking part, target heights. */
+export interface RunSize {
+  cells: number;
+  radars: number;
+  heights: number;
+}
+
+/**
+ * Memory a run stores, bytes:
+ *   cells × ( GRID_BYTES_PER_CELL
+ *           + radars × (RADAR_BYTES_PER_CELL + heights × RADAR_HEIGHT_BYTES_PER_CELL)
+ *           + heights × FUSED_HEIGHT_BYTES_PER_CELL )
+ * = cells × (10 + radars × (12 + 9 · heights) + 16 · heights).
+ * Negative or non-finite counts give NaN.
+ */
+export function estimateRunMemoryBytes(size: RunSize): number {
+  const { cells, radars, heights } = size;
+  if (!(cells >= 0 && radars >= 0 && heights >= 0) || !Number.isFinite(cells + radars + heights))
+    return Number.NaN;
+  return (
+    cells *
+    (GRID_BYTES_PER_CELL +
+      radars * (RADAR_BYTES_PER_CELL + heights * RADAR_HEIGHT_BYTES_PER_CELL) +
+      heights * FUSED_HEIGHT_BYTES_PER_CELL)
+  );
+}
+
+/** The run size of a plan on its grid: enabled posts and analysis heights. */
+export function runSizeOf(plan: Plan, grid: Pick<SiteGrid, "cellCount">): RunSize {
+  return {
+    cells: grid.cellCount,
+    radars: plan.posts.filter((p) => p.enabled).length,
+    heights: plan.analysis.targetHeightsM.length,
+  };
+}
+
+function gib(bytes: number): string {
+  return `${(bytes / 1024 ** 3).toFixed(2)} GiB`;
+}
+
+export type RunMemoryCheck = { ok: true; bytes: number } | { ok: false; bytes: number; message: string };
+
+/** Whether a run fits the memory budget; a refusal says how much it needs and what to change. */
+export function checkRunMemory(size: RunSize, budgetBytes: number = RUN_MEMORY_BUDGET_BYTES): RunMemoryCheck {
+  const bytes = estimateRunMemoryBytes(size);
+  if (!Number.isFinite(bytes)) {
+    return { ok: false, bytes, message: "the size of this run cannot be estimated (invalid counts)" };
+  }
+  if (size.radars > MAX_RADARS_PER_RUN) {
+    return {
+      ok: false,
+      bytes,
+      message: `this run has ${size.radars} enabled posts; at most ${MAX_RADARS_PER_RUN} can take part in one run`,
+    };
+  }
+  if (bytes > budgetBytes) {
+    return {
+      ok: false,
+      bytes,
+      message: `this run needs about ${gib(bytes)} (${size.cells.toLocaleString("en-US")} cells, ${size.radars} radars, ${size.heights} heights), above the ${gib(budgetBytes)} budget; use a larger analysis.cellSizeM, fewer target heights or fewer enabled posts`,
+    };
+  }
+  return { ok: true, bytes };
+}
