@@ -1,0 +1,206 @@
+/**
+ * The radar equation in its energy form, one formula for pulsed and FMCW radars (DESIGN.md model step 4):
+ *
+ *   SNR = E · G_t · G_r · λ² · σ · F⁴ / ((4π)³ · R⁴ · k_B · T0 · F_n · L),   E = P_peak · τ · N = P_avg · T_int
+ *
+ * with τ the pulse width (pulsed) or chirp ramp duration (FMCW) and N the pulses or chirps integrated
+ * coherently in one look. This is the matched-filter SNR after coherent integration: the single-pulse
+ * radar equation (Skolnik, Introduction to Radar Systems, 3rd ed., 2001, ch. 2; Richards, Fundamentals of
+ * Radar Signal Processing, 2nd ed., 2014, ch. 2; chapter references from memory) with P_t·τ replaced by the
+ * energy of N coherently integrated pulses. Term-by-term checks: tests/reference/radarEquation.test.ts.
+ *
+ * All functions are total: NaN in gives NaN out, inputs out of domain give NaN, never a throw.
+ * Rules RE1–RE6 in docs/model-spec.md.
+ */
+
+import { BOLTZMANN_J_PER_K, REFERENCE_TEMPERATURE_K } from "./constants.ts";
+import type { RadarModel } from "./radarModel.ts";
+import { dbToLinear, linearToDb } from "./units.ts";
+import { coherentPulseCount, noiseBandwidthHz, pulseDurationS, wavelengthM } from "./waveform.ts";
+
+/**
+ * Everything the radar equation needs, in one object so that no two numbers can be swapped.
+ * Losses are two-way and positive (a loss of 3 dB halves the SNR).
+ */
+export interface RadarEquationParams {
+  /** Peak transmitted power at the antenna port, W ≥ 0 (CW power for FMCW). */
+  peakPowerW: number;
+  /** Transmitter-on time of one pulse (pulse width) or one chirp ramp, s > 0. */
+  pulseDurationS: number;
+  /** Pulses or chirps integrated coherently in one look, ≥ 1. */
+  pulsesIntegrated: number;
+  /** Carrier frequency, Hz > 0. */
+  frequencyHz: number;
+  /** Transmit antenna gain, dBi: towards the target for snrAtRange, the peak gain for snrConstant. */
+  txGainDbi: number;
+  /** Receive antenna gain, dBi: towards the target for snrAtRange, the peak gain for snrConstant. */
+  rxGainDbi: number;
+  /** Target radar cross-section, m² ≥ 0. */
+  rcsM2: number;
+  /** Receiver noise figure F_n, dB (T_s = T0 · F_n). */
+  noiseFigureDb: number;
+  /** Two-way system losses (RF, processing, beam shape), dB. */
+  systemLossDb: number;
+  /** Two-way gaseous (atmospheric) loss at this range, dB; default 0. */
+  atmosphericLossDb?: number;
+  /** Two-way rain loss at this range, dB; default 0. */
+  rainLossDb?: number;
+  /**
+   * Two-way pattern propagation factor F⁴ in dB, 40·log10(F); default 0 (free space). Negative for a loss:
+   * a one-way diffraction loss J dB gives −2·J (see twoWayFactorFromOneWayLossDb).
+   */
+  propagationFactorDb?: number;
+  /**
+   * Receiver noise bandwidth, Hz > 0, used only to present the link budget in bandwidth form
+   * (it cancels in the SNR); default 1/pulseDurationS.
+   */
+  noiseBandwidthHz?: number;
+}
+
+const FOUR_PI_CUBED = (4 * Math.PI) ** 3;
+
+function finiteOr(x: number | undefined, fallback: number): number {
+  return x === undefined ? fallback : x;
+}
+
+/** Sum of the two-way losses in p, dB (system + atmospheric + rain). NaN when any is NaN. */
+export function totalLossDb(p: RadarEquationParams): number {
+  return p.systemLossDb + finiteOr(p.atmosphericLossDb, 0) + finiteOr(p.rainLossDb, 0);
+}
+
+/** True when the parameters lie in the domain of the radar equation. */
+function inDomain(p: RadarEquationParams): boolean {
+  return (
+    p.peakPowerW >= 0 &&
+    Number.isFinite(p.peakPowerW) &&
+    p.pulseDurationS > 0 &&
+    Number.isFinite(p.pulseDurationS) &&
+    p.pulsesIntegrated >= 1 &&
+    Number.isFinite(p.pulsesIntegrated) &&
+    p.frequencyHz > 0 &&
+    Number.isFinite(p.frequencyHz) &&
+    p.rcsM2 >= 0 &&
+    Number.isFinite(p.rcsM2) &&
+    Number.isFinite(p.txGainDbi) &&
+    Number.isFinite(p.rxGainDbi) &&
+    Number.isFinite(p.noiseFigureDb) &&
+    Number.isFinite(totalLossDb(p)) &&
+    !Number.isNaN(finiteOr(p.propagationFactorDb, 0))
+  );
+}
+
+/**
+ * Per-radar (per-target) constant C of the radar equation, in m⁴ (SNR · m⁴):
+ *
+ *   C = P_peak · τ · N · G_t · G_r · λ² · σ / ((4π)³ · k_B · T0 · F_n · L)
+ *
+ * It includes: the transmitted energy per look (peak power × pulse/chirp duration × count), the two
+ * gains as given in p (pass the PEAK gains), λ², the RCS, (4π)³, the noise density k_B·T0·F_n, and all
+ * two-way losses in p (system, atmospheric, rain). It excludes the propagation factor F⁴ and R⁴.
+ * A per-cell kernel then computes, with one multiply chain,
+ *
+ *   SNR = C · g_t · g_r · F⁴ / R⁴
+ *
+ * where g_t, g_r are the linear gains relative to peak towards the cell (antennaPattern.ts,
+ * makeTwoWayRelativeGain) and F⁴ is linear. Range-dependent attenuation should then be left out of p
+ * (0 dB) and multiplied per cell as a linear factor.
+ * @returns m⁴; 0 for zero power or zero RCS; NaN when any input is NaN or out of domain.
+ */
+export function snrConstant(p: RadarEquationParams): number {
+  if (!inDomain(p)) return Number.NaN;
+  const lambdaM = wavelengthM(p.frequencyHz);
+  const energyJ = p.peakPowerW * p.pulseDurationS * p.pulsesIntegrated;
+  const gains = dbToLinear(p.txGainDbi + p.rxGainDbi - p.noiseFigureDb - totalLossDb(p));
+  return (
+    (energyJ * gains * lambdaM * lambdaM * p.rcsM2) /
+    (FOUR_PI_CUBED * BOLTZMANN_J_PER_K * REFERENCE_TEMPERATURE_K)
+  );
+}
+
+/**
+ * Linear SNR of one look at a range: SNR = C · F⁴ / R⁴ (energy form, module header), with the gains of p
+ * taken as the gains towards the target.
+ * @param p radar-equation parameters (see RadarEquationParams for units and ranges).
+ * @param rangeM slant range, m ≥ 0.
+ * @returns linear SNR ≥ 0; +Infinity at R = 0 (C > 0); 0 at R = +Infinity or for C·F⁴ = 0; NaN for R < 0, NaN, or p out of domain.
+ */
+export function snrAtRange(p: RadarEquationParams, rangeM: number): number {
+  if (!(rangeM >= 0)) return Number.NaN;
+  const c = snrConstant(p) * dbToLinear(finiteOr(p.propagationFactorDb, 0));
+  if (c === 0) return 0;
+  const r2 = rangeM * rangeM;
+  return c / (r2 * r2);
+}
+
+/**
+ * SNR of one look at a range in dB: 10·log10(snrAtRange(p, rangeM)).
+ * @returns dB; +Infinity at R = 0; -Infinity for zero power or RCS; NaN as snrAtRange.
+ */
+export function snrAtRangeDb(p: RadarEquationParams, rangeM: number): number {
+  return linearToDb(snrAtRange(p, rangeM));
+}
+
+/**
+ * Free-space range at which a required SNR is reached, m: R = (C · F⁴ / SNR_req)^(1/4), the inverse of
+ * snrAtRange with every term of p held fixed (losses and F⁴ as given, not re-evaluated at the new range).
+ * @param requiredSnrDb required SNR, dB (any real).
+ * @returns metres ≥ 0; +Infinity for requiredSnrDb = −Infinity; 0 for zero power or RCS; NaN for NaN or p out of domain.
+ */
+export function rangeForSnr(p: RadarEquationParams, requiredSnrDb: number): number {
+  if (Number.isNaN(requiredSnrDb)) return Number.NaN;
+  const c = snrConstant(p) * dbToLinear(finiteOr(p.propagationFactorDb, 0));
+  return Math.sqrt(Math.sqrt(c / dbToLinear(requiredSnrDb)));
+}
+
+/**
+ * Two-way propagation factor F⁴ (linear) from a one-way excess loss J in dB (e.g. knife-edge
+ * diffraction, ITU-R P.526): F² = 10^(−J/10) one way, so F⁴ = 10^(−2J/10).
+ * @param oneWayLossDb one-way loss, dB (≥ 0 for a loss; negative for a gain such as multipath reinforcement).
+ * @returns linear factor > 0; NaN for NaN.
+ */
+export function twoWayFactorFromOneWayLossDb(oneWayLossDb: number): number {
+  return dbToLinear(-2 * oneWayLossDb);
+}
+
+/** Target- and path-dependent terms that complete a radar's parameters. */
+export interface RadarEquationTarget {
+  /** Target radar cross-section, m² ≥ 0. */
+  rcsM2: number;
+  /** Transmit gain towards the target, dBi; default the transmit antenna's peak gain. */
+  txGainDbi?: number;
+  /** Receive gain towards the target, dBi; default the receive antenna's peak gain. */
+  rxGainDbi?: number;
+  /** Two-way atmospheric loss, dB; default 0. */
+  atmosphericLossDb?: number;
+  /** Two-way rain loss, dB; default 0. */
+  rainLossDb?: number;
+  /** Two-way propagation factor 40·log10(F), dB; default 0 (free space). */
+  propagationFactorDb?: number;
+}
+
+/**
+ * Radar-equation parameters of a radar model against a target: peak power, pulse or chirp duration and
+ * count from the waveform, peak gains of the transmit and receive antennas (receive falls back to
+ * transmit), noise figure, system loss, and the waveform's noise bandwidth for the link budget.
+ * @param model a validated radar model (src/io); values out of domain propagate as NaN results.
+ * @param target RCS and optional gains towards the target, losses and propagation factor.
+ * @returns a RadarEquationParams object (no validation here: see the functions that consume it).
+ */
+export function radarEquationParams(model: RadarModel, target: RadarEquationTarget): RadarEquationParams {
+  const rxAntenna = model.rxAntenna ?? model.txAntenna;
+  return {
+    peakPowerW: model.transmitter.peakPowerW,
+    pulseDurationS: pulseDurationS(model.waveform),
+    pulsesIntegrated: coherentPulseCount(model.waveform),
+    frequencyHz: model.frequencyHz,
+    txGainDbi: target.txGainDbi ?? model.txAntenna.peakGainDbi,
+    rxGainDbi: target.rxGainDbi ?? rxAntenna.peakGainDbi,
+    rcsM2: target.rcsM2,
+    noiseFigureDb: model.receiver.noiseFigureDb,
+    systemLossDb: model.receiver.systemLossDb,
+    atmosphericLossDb: target.atmosphericLossDb ?? 0,
+    rainLossDb: target.rainLossDb ?? 0,
+    propagationFactorDb: target.propagationFactorDb ?? 0,
+    noiseBandwidthHz: noiseBandwidthHz(model.waveform),
+  };
+}

@@ -1,0 +1,311 @@
+/**
+ * Reference checks of the radar equation, the link budget and the derived waveform figures against
+ * sources outside the project. Each case names its source beside it.
+ */
+import { readFileSync } from "node:fs";
+import { describe, expect, it } from "vitest";
+import {
+  BOLTZMANN_J_PER_K,
+  REFERENCE_TEMPERATURE_K,
+  SPEED_OF_LIGHT_M_PER_S,
+} from "../../src/coverage/constants.ts";
+import { type LinkBudgetRowId, linkBudget, sumOfTermsDb } from "../../src/coverage/linkBudget.ts";
+import {
+  type RadarEquationParams,
+  radarEquationParams,
+  rangeForSnr,
+  snrAtRange,
+  snrAtRangeDb,
+  snrConstant,
+} from "../../src/coverage/radarEquation.ts";
+import type { FmcwWaveform, PulsedWaveform, RadarModel } from "../../src/coverage/radarModel.ts";
+import { dbToLinear, linearToDb, wToDbm } from "../../src/coverage/units.ts";
+import {
+  averagePowerW,
+  blindZoneM,
+  coherentIntegrationTimeS,
+  dutyCycle,
+  energyPerLookJ,
+  fmcwMaxRangeM,
+  instrumentedRangeM,
+  maxUnambiguousVelocityMPerS,
+  noiseBandwidthHz,
+  rangeResolutionM,
+  unambiguousRangeM,
+  velocityResolutionMPerS,
+  wavelengthM,
+} from "../../src/coverage/waveform.ts";
+
+/** A monostatic radar-equation case with a noise temperature T_s instead of a noise figure. */
+function withSystemTemperature(p: Omit<RadarEquationParams, "noiseFigureDb">, systemTemperatureK: number) {
+  return { ...p, noiseFigureDb: linearToDb(systemTemperatureK / REFERENCE_TEMPERATURE_K) };
+}
+
+describe("[RE2] noise density k·T0", () => {
+  it("[RE2] k·T0 = −174 dBm/Hz (common practice)", () => {
+    // −173.98 dBm/Hz; the trade quotes it rounded to the dB, so 0.05 dB covers the rounding.
+    expect(Math.abs(wToDbm(BOLTZMANN_J_PER_K * REFERENCE_TEMPERATURE_K) - -174)).toBeLessThan(0.05);
+  });
+});
+
+describe("[RE3] published worked examples of the radar equation", () => {
+  // MathWorks Radar Toolbox documentation, radareqsnr, "Compute SNR Using Radar Equation"
+  // (https://www.mathworks.com/help/radar/ref/radareqsnr.html): 1 GHz, Pt 1 MW, τ 0.2 µs, G 20 dB,
+  // σ 1 m², Ts 290 K, R 50 km → SNR 5.5868 dB. Printed to 4 decimals: 1e-3 dB covers the rounding and
+  // the older CODATA Boltzmann constant of that tool (a 4e-7 relative difference, 2e-6 dB).
+  const basic: RadarEquationParams = withSystemTemperature(
+    {
+      peakPowerW: 1e6,
+      pulseDurationS: 0.2e-6,
+      pulsesIntegrated: 1,
+      frequencyHz: 1e9,
+      txGainDbi: 20,
+      rxGainDbi: 20,
+      rcsM2: 1,
+      systemLossDb: 0,
+    },
+    290,
+  );
+
+  it("[RE3] radareqsnr example 1: 5.5868 dB at 50 km (MathWorks documentation)", () => {
+    expect(Math.abs(snrAtRangeDb(basic, 50e3) - 5.5868)).toBeLessThan(1e-3);
+  });
+
+  it("[RE3] radareqsnr example 2: 14.3778 dB at 100 km with Ts 300 K and 3 dB loss (MathWorks documentation)", () => {
+    // 10 GHz, Pt 1 MW, τ 1 µs, G 40 dB, σ 0.5 m², Ts 300 K, L 3 dB, R 100 km → 14.3778 dB.
+    const p = withSystemTemperature(
+      {
+        ...basic,
+        frequencyHz: 10e9,
+        pulseDurationS: 1e-6,
+        txGainDbi: 40,
+        rxGainDbi: 40,
+        rcsM2: 0.5,
+        systemLossDb: 3,
+      },
+      300,
+    );
+    expect(Math.abs(snrAtRangeDb(p, 100e3) - 14.3778)).toBeLessThan(1e-3);
+  });
+
+  it("[RE3][RE4] radareqpow example 1: 2.1996e5 W reach 6 dB at 50 km (MathWorks documentation)", () => {
+    // radareqpow, "Compute Required Transmit Power": 1 GHz, τ 1 µs, G 20 dB, σ 1 m², SNR 6 dB, 50 km
+    // → Pt = 2.1996e5 W. Five significant digits (±0.5e-4 relative) move the range by at most 1.3e-5·R.
+    const p = { ...basic, peakPowerW: 2.1996e5, pulseDurationS: 1e-6 };
+    expect(Math.abs(rangeForSnr(p, 6) - 50e3)).toBeLessThan(1);
+  });
+
+  it("[RE3][RE4] radareqpow example 2: 2.2809e6 W reach 10 dB at 50 km, Ts 300 K, L 3 dB (MathWorks documentation)", () => {
+    // 10 GHz, τ 1 µs, G 30 dB, σ 0.5 m², Ts 300 K, L 3 dB, SNR 10 dB, 50 km → Pt = 2.2809e6 W.
+    const p = withSystemTemperature(
+      {
+        ...basic,
+        peakPowerW: 2.2809e6,
+        frequencyHz: 10e9,
+        pulseDurationS: 1e-6,
+        txGainDbi: 30,
+        rxGainDbi: 30,
+        rcsM2: 0.5,
+        systemLossDb: 3,
+      },
+      300,
+    );
+    expect(Math.abs(rangeForSnr(p, 10) - 50e3)).toBeLessThan(1);
+  });
+
+  it("[RE3] Skolnik's simple form R⁴ = Pt·G·Ae·σ / ((4π)²·S_min) gives the same range", () => {
+    // Skolnik, Introduction to Radar Systems, 3rd ed. (2001), ch. 2: R_max⁴ = Pt G Ae σ / ((4π)² S_min),
+    // Ae = G λ² / (4π), S_min = k T0 B F_n (S/N)_min with B = 1/τ (matched filter). Equation numbers not quoted.
+    const p: RadarEquationParams = { ...basic, noiseFigureDb: 4, systemLossDb: 0 };
+    const g = dbToLinear(p.txGainDbi);
+    const lambdaM = SPEED_OF_LIGHT_M_PER_S / p.frequencyHz;
+    const apertureM2 = (g * lambdaM * lambdaM) / (4 * Math.PI);
+    const sMinW =
+      BOLTZMANN_J_PER_K * REFERENCE_TEMPERATURE_K * (1 / p.pulseDurationS) * dbToLinear(4) * dbToLinear(13);
+    const rSkolnikM = ((p.peakPowerW * g * apertureM2 * p.rcsM2) / ((4 * Math.PI) ** 2 * sMinW)) ** 0.25;
+    // Both are exact algebra of the same equation: agreement to rounding (1e-9 relative).
+    expect(Math.abs(rangeForSnr(p, 13) / rSkolnikM - 1)).toBeLessThan(1e-9);
+  });
+});
+
+interface FixtureCase {
+  name: string;
+  source: string;
+  inputs: RadarEquationParams & { noiseBandwidthHz: number };
+  points: { rangeM: number; terms: Partial<Record<LinkBudgetRowId, number>>; snrDb: number }[];
+}
+const fixture = JSON.parse(
+  readFileSync(new URL("../fixtures/radarEquation/budgets.json", import.meta.url), "utf8"),
+) as { cases: FixtureCase[] };
+
+describe("[RE5] link budget term by term against an independent implementation (scipy.constants)", () => {
+  for (const c of fixture.cases) {
+    for (const pt of c.points) {
+      it(`[RE5] ${c.name} at ${pt.rangeM / 1000} km (${c.source})`, () => {
+        const b = linkBudget(c.inputs, pt.rangeM);
+        for (const [id, valueDb] of Object.entries(pt.terms)) {
+          const row = b.rows.find((r) => r.id === id);
+          // Same formula, same exact constants, independent code: agreement to 1e-9 dB (rounding is 1e-13).
+          expect(row, id).toBeDefined();
+          expect(Math.abs((row?.contributionDb ?? Number.NaN) - valueDb), id).toBeLessThan(1e-9);
+        }
+        expect(Math.abs(b.snrDb - pt.snrDb)).toBeLessThan(1e-9);
+        expect(Math.abs(sumOfTermsDb(b) - pt.snrDb)).toBeLessThan(1e-9);
+      });
+    }
+  }
+
+  it("[RE5] the C-band case at 100 km by hand, to 0.01 dB (Mahafza & Elsherbeni inputs)", () => {
+    // Hand arithmetic: Pt 1.5 MW = 61.76 dBW; G·G = 90 dB; λ = c/5.6 GHz = 0.05353 m, λ² = −25.43 dB;
+    // σ = −10 dBsm; (4π)³ = 32.98 dB; R⁴ = 200 dB; kT0·B·F = −203.98 + 66.99 + 3 = −133.99 dBW; L = 6 dB.
+    // 61.76 + 90 − 25.43 − 10 − 32.98 − 200 + 133.99 − 6 = 11.34 dB.
+    const c = fixture.cases[0];
+    const b = linkBudget(c.inputs, 100e3);
+    const byId = Object.fromEntries(b.rows.map((r) => [r.id, r.valueDb]));
+    expect(byId.peakPower).toBeCloseTo(61.76, 2);
+    expect(byId.wavelengthSquared).toBeCloseTo(-25.43, 2);
+    expect(byId.fourPiCubed).toBeCloseTo(32.98, 2);
+    expect(byId.rangeFourth).toBeCloseTo(200, 6);
+    expect(byId.noisePower).toBeCloseTo(-133.99, 2);
+    // The hand sum rounds eight terms to 0.01 dB each: 0.03 dB covers it.
+    expect(Math.abs(b.snrDb - 11.34)).toBeLessThan(0.03);
+  });
+});
+
+describe("[RE8] derived waveform figures", () => {
+  const pulsed: PulsedWaveform = { kind: "pulsed", pulseWidthS: 1.2e-6, prfHz: 800, pulsesIntegrated: 16 };
+
+  it("[RE8] range resolution c/(2B): 0.15 m for 1 GHz, 3.75 cm for 4 GHz (common practice)", () => {
+    const fmcw: FmcwWaveform = {
+      kind: "fmcw",
+      chirpBandwidthHz: 1e9,
+      chirpDurationS: 50e-6,
+      chirpPeriodS: 60e-6,
+      chirpsPerFrame: 64,
+      ifSampleRateHz: 10e6,
+      ifSampling: "complex",
+    };
+    // The trade quotes c ≈ 3e8 m/s: 0.15 m and 3.75 cm are rounded; exact c gives 0.1499 m (1e-4 m off).
+    expect(Math.abs(rangeResolutionM(fmcw) - 0.15)).toBeLessThan(1e-3);
+    expect(Math.abs(rangeResolutionM({ ...fmcw, chirpBandwidthHz: 4e9 }) - 0.0375)).toBeLessThan(1e-4);
+    // An uncompressed 1 µs pulse: B = 1/τ = 1 MHz, ΔR = c·τ/2 = 150 m with c ≈ 3e8 (common practice);
+    // exact c gives 149.90 m, so 0.2 m covers the rounded c.
+    expect(Math.abs(rangeResolutionM({ ...pulsed, pulseWidthS: 1e-6 }) - 150)).toBeLessThan(0.2);
+  });
+
+  it("[RE8] FMCW maximum range, velocity limits: TI mmWave FAQ worked example", () => {
+    // TI E2E FAQ "Computing maximum range, velocity and resolution, mmWave system"
+    // (https://e2e.ti.com/support/sensors-group/sensors/f/sensors-forum/1050220): slope 50 MHz/µs,
+    // effective complex sample rate 0.9 × 3.6 Msps → R_max = 9.72 m; λ at 77 GHz, effective chirp period
+    // 3 × 46 µs = 138 µs → v_max = 7.05 m/s; frame 3 × 128 chirps of 51 µs (19.584 ms) → Δv = 0.1 m/s.
+    // The FAQ uses c = 3e8 m/s and prints 3 significant digits: tolerances cover both (≤ 0.1 %).
+    const rampS = 39e-6;
+    const tiChirp: FmcwWaveform = {
+      kind: "fmcw",
+      chirpBandwidthHz: 50e12 * rampS,
+      chirpDurationS: rampS,
+      chirpPeriodS: 138e-6,
+      chirpsPerFrame: 128,
+      ifSampleRateHz: 0.9 * 3.6e6,
+      ifSampling: "complex",
+    };
+    expect(Math.abs(fmcwMaxRangeM(tiChirp) - 9.72)).toBeLessThan(0.015);
+    expect(Math.abs(maxUnambiguousVelocityMPerS(tiChirp, 77e9) - 7.05)).toBeLessThan(0.01);
+    const tiFrame: FmcwWaveform = { ...tiChirp, chirpPeriodS: 3 * 51e-6 };
+    expect(Math.abs(coherentIntegrationTimeS(tiFrame) - 19.584e-3)).toBeLessThan(1e-9);
+    expect(Math.abs(velocityResolutionMPerS(tiFrame, 77e9) - 0.1)).toBeLessThan(0.005);
+    // Real sampling resolves half the beat band, so half the range (Nyquist; common practice).
+    expect(fmcwMaxRangeM({ ...tiChirp, ifSampling: "real" })).toBeCloseTo(fmcwMaxRangeM(tiChirp) / 2, 12);
+  });
+
+  it("[RE8] pulsed: unambiguous range 187.5 km at 800 Hz, blind zone 180 m for 1.2 µs (common practice)", () => {
+    // Textbook exercises with c = 3e8: R_u = c/(2·PRF) = 187.5 km, R_min = c·τ/2 = 180 m; exact c is 0.07 % lower.
+    expect(Math.abs(unambiguousRangeM(pulsed) - 187.5e3)).toBeLessThan(150);
+    expect(Math.abs(blindZoneM(pulsed, 0) - 180)).toBeLessThan(0.2);
+    expect(blindZoneM(pulsed, 500)).toBe(500);
+  });
+
+  it("[RE8] duty cycle 0.003 at 1.5 µs and 2 kHz; average power 2 kW for 1 MW, 2 µs, 1 kHz (common practice)", () => {
+    expect(dutyCycle({ ...pulsed, pulseWidthS: 1.5e-6, prfHz: 2000 })).toBeCloseTo(0.003, 12);
+    expect(averagePowerW(1e6, { ...pulsed, pulseWidthS: 2e-6, prfHz: 1000 })).toBeCloseTo(2000, 6);
+  });
+
+  it("[RE3] energy per look = P_avg · T_int for both waveforms (DESIGN.md step 4)", () => {
+    const fmcw: FmcwWaveform = {
+      kind: "fmcw",
+      chirpBandwidthHz: 250e6,
+      chirpDurationS: 200e-6,
+      chirpPeriodS: 250e-6,
+      chirpsPerFrame: 128,
+      ifSampleRateHz: 2e6,
+      ifSampling: "complex",
+    };
+    for (const w of [pulsed, fmcw]) {
+      const e = energyPerLookJ(5, w);
+      expect(Math.abs(e / (averagePowerW(5, w) * coherentIntegrationTimeS(w)) - 1)).toBeLessThan(1e-12);
+    }
+    expect(energyPerLookJ(5, fmcw)).toBeCloseTo(5 * 200e-6 * 128, 12);
+    expect(noiseBandwidthHz(fmcw)).toBe(2e6);
+    expect(noiseBandwidthHz({ ...fmcw, ifSampling: "real" })).toBe(1e6);
+    expect(wavelengthM(10e9)).toBeCloseTo(0.0299792458, 12);
+  });
+});
+
+describe("[RE3] a radar model to radar-equation parameters", () => {
+  const model: RadarModel = {
+    id: "test-fmcw",
+    name: "Invented 5.8 GHz FMCW test radar",
+    invented: true,
+    frequencyHz: 5.8e9,
+    transmitter: { peakPowerW: 1 },
+    receiver: { noiseFigureDb: 8, systemLossDb: 4 },
+    waveform: {
+      kind: "fmcw",
+      chirpBandwidthHz: 150e6,
+      chirpDurationS: 200e-6,
+      chirpPeriodS: 250e-6,
+      chirpsPerFrame: 128,
+      ifSampleRateHz: 2e6,
+      ifSampling: "complex",
+    },
+    txAntenna: {
+      peakGainDbi: 16,
+      azBeamwidthDeg: 25,
+      elBeamwidthDeg: 25,
+      sidelobeFloorDb: -25,
+      mainBeam: "sinc2",
+    },
+    rxAntenna: {
+      peakGainDbi: 10.6,
+      azBeamwidthDeg: 50,
+      elBeamwidthDeg: 50,
+      sidelobeFloorDb: -20,
+      mainBeam: "sinc2",
+    },
+    scan: { kind: "staring", fovAzDeg: 90, fovElDeg: 40 },
+    updateIntervalS: 0.1,
+    blindZoneM: 20,
+    maxInstrumentedRangeM: 3000,
+  };
+
+  it("[RE3] the model's FMCW case equals the committed generator's invented 5.8 GHz case", () => {
+    const p = radarEquationParams(model, { rcsM2: 0.01 });
+    const c = fixture.cases[1];
+    expect(p.pulseDurationS).toBe(c.inputs.pulseDurationS);
+    expect(p.pulsesIntegrated).toBe(c.inputs.pulsesIntegrated);
+    expect(p.noiseBandwidthHz).toBe(c.inputs.noiseBandwidthHz);
+    for (const pt of c.points) expect(Math.abs(snrAtRangeDb(p, pt.rangeM) - pt.snrDb)).toBeLessThan(1e-9);
+    // The instrumented window: blind zone 20 m; IF limit 2 MHz·c/(2·0.75 THz/s) = 399.7 m < 3 km.
+    const window = instrumentedRangeM(model);
+    expect(window.minM).toBe(20);
+    expect(Math.abs(window.maxM - 399.723)).toBeLessThan(1e-3);
+  });
+
+  it("[RE3] receive gain falls back to the transmit antenna", () => {
+    const { rxAntenna: _unused, ...txOnly } = model;
+    const p = radarEquationParams(txOnly, { rcsM2: 1 });
+    expect(p.rxGainDbi).toBe(16);
+    expect(snrConstant(p)).toBeCloseTo(snrConstant({ ...p, rxGainDbi: 16 }), 12);
+    expect(snrAtRange(p, 1000)).toBeGreaterThan(0);
+  });
+});
