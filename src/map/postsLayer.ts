@@ -1,0 +1,199 @@
+/**
+ * Candidate posts: a draggable marker per post, a boresight handle (drag it to turn the radar), the
+ * scan sector and maximum instrumented range as outlines, and the RF-exposure distance as a circle.
+ * The layer reports drags through callbacks; the plan is changed by the caller.
+ */
+import L from "./leaflet";
+import { arcLatLngs, azimuthAndDistance, destinationLatLng } from "./localGeo";
+
+export interface PostView {
+  id: string;
+  name: string;
+  lonDeg: number;
+  latDeg: number;
+  boresightAzDeg: number;
+  enabled: boolean;
+  /** Width of the covered azimuth sector, degrees (360 for a rotating radar). */
+  sectorWidthDeg: number;
+  /** Centre of the sector, degrees clockwise from true north. */
+  sectorCentreAzDeg: number;
+  /** Maximum instrumented range, m. */
+  maxRangeM: number;
+  /** RF-exposure compliance distance for the general public, m (NaN when unknown). */
+  exposureDistanceM: number;
+}
+
+export interface PostsCallbacks {
+  onSelect: (id: string) => void;
+  onDrag: (id: string, lonDeg: number, latDeg: number) => void;
+  onDragEnd: (id: string, lonDeg: number, latDeg: number) => void;
+  onBoresight: (id: string, azDeg: number, done: boolean) => void;
+}
+
+export interface PostsDisplay {
+  showSectors: boolean;
+  showExposure: boolean;
+}
+
+/** Screen distance of the boresight handle from the post, px. */
+const HANDLE_PX = 56;
+
+function postIcon(p: PostView, selected: boolean): L.DivIcon {
+  const el = document.createElement("div");
+  el.className = `post-mark${selected ? " post-selected" : ""}${p.enabled ? "" : " post-disabled"}`;
+  const label = document.createElement("span");
+  label.className = "post-label";
+  label.textContent = p.name;
+  el.appendChild(label);
+  return L.divIcon({ className: "post-icon", html: el, iconSize: [18, 18], iconAnchor: [9, 9] });
+}
+
+function handleIcon(): L.DivIcon {
+  const el = document.createElement("div");
+  el.className = "boresight-handle";
+  el.title = "Drag to turn the boresight";
+  return L.divIcon({ className: "boresight-icon", html: el, iconSize: [14, 14], iconAnchor: [7, 7] });
+}
+
+export class PostsLayer extends L.LayerGroup {
+  private readonly cb: PostsCallbacks;
+  private posts: PostView[] = [];
+  private selectedId: string | null = null;
+  private display: PostsDisplay = { showSectors: true, showExposure: false };
+  private readonly outlines = L.layerGroup();
+  private readonly marks = L.layerGroup();
+  private mapRef: L.Map | null = null;
+  private dragging = false;
+  private readonly onZoom = () => this.rebuild();
+
+  constructor(cb: PostsCallbacks) {
+    super();
+    this.cb = cb;
+    this.addLayer(this.outlines);
+    this.addLayer(this.marks);
+  }
+
+  override onAdd(map: L.Map): this {
+    super.onAdd(map);
+    this.mapRef = map;
+    map.on("zoomend", this.onZoom);
+    this.rebuild();
+    return this;
+  }
+
+  override onRemove(map: L.Map): this {
+    map.off("zoomend", this.onZoom);
+    this.mapRef = null;
+    return super.onRemove(map);
+  }
+
+  setPosts(posts: PostView[], selectedId: string | null, display: PostsDisplay): void {
+    this.posts = posts;
+    this.selectedId = selectedId;
+    this.display = display;
+    if (!this.dragging) this.rebuild();
+    else this.rebuildOutlines();
+  }
+
+  private handleDistanceM(p: PostView): number {
+    const map = this.mapRef;
+    if (!map) return 100;
+    const c = map.latLngToContainerPoint([p.latDeg, p.lonDeg]);
+    const other = map.containerPointToLatLng([c.x, c.y - HANDLE_PX]);
+    return azimuthAndDistance(p.lonDeg, p.latDeg, other.lng, other.lat).distanceM;
+  }
+
+  private rebuildOutlines(): void {
+    this.outlines.clearLayers();
+    for (const p of this.posts) {
+      if (!p.enabled) continue;
+      if (this.display.showSectors && p.maxRangeM > 0) {
+        const arc = arcLatLngs(p.lonDeg, p.latDeg, p.sectorCentreAzDeg, p.sectorWidthDeg, p.maxRangeM);
+        const pts: [number, number][] =
+          p.sectorWidthDeg >= 360 ? arc : [[p.latDeg, p.lonDeg], ...arc, [p.latDeg, p.lonDeg]];
+        this.outlines.addLayer(
+          L.polyline(pts, {
+            color: "#1d3557",
+            weight: 1.2,
+            dashArray: "4 4",
+            interactive: false,
+            opacity: 0.9,
+          }),
+        );
+      }
+      if (this.display.showExposure && p.exposureDistanceM > 0) {
+        this.outlines.addLayer(
+          L.polygon(arcLatLngs(p.lonDeg, p.latDeg, 0, 360, p.exposureDistanceM, 6), {
+            color: "#8b1e3f",
+            weight: 1.5,
+            fillColor: "#8b1e3f",
+            fillOpacity: 0.15,
+            interactive: false,
+          }),
+        );
+      }
+    }
+  }
+
+  private rebuild(): void {
+    this.rebuildOutlines();
+    this.marks.clearLayers();
+    for (const p of this.posts) {
+      const selected = p.id === this.selectedId;
+      const marker = L.marker([p.latDeg, p.lonDeg], {
+        icon: postIcon(p, selected),
+        draggable: true,
+        keyboard: true,
+        title: `${p.name}: drag to move`,
+        alt: p.name,
+        zIndexOffset: selected ? 1000 : 0,
+      });
+      marker.on("click", () => this.cb.onSelect(p.id));
+      marker.on("dragstart", () => {
+        this.dragging = true;
+        this.cb.onSelect(p.id);
+      });
+      marker.on("drag", () => {
+        const ll = marker.getLatLng();
+        this.cb.onDrag(p.id, ll.lng, ll.lat);
+      });
+      marker.on("dragend", () => {
+        this.dragging = false;
+        const ll = marker.getLatLng();
+        this.cb.onDragEnd(p.id, ll.lng, ll.lat);
+      });
+      this.marks.addLayer(marker);
+      if (!selected) continue;
+      const d = this.handleDistanceM(p);
+      const tip = destinationLatLng(p.lonDeg, p.latDeg, p.boresightAzDeg, d);
+      const line = L.polyline([[p.latDeg, p.lonDeg], tip], {
+        color: "#e07a00",
+        weight: 3,
+        interactive: false,
+      });
+      const handle = L.marker(tip, {
+        icon: handleIcon(),
+        draggable: true,
+        keyboard: false,
+        zIndexOffset: 2000,
+      });
+      const az = () => {
+        const ll = handle.getLatLng();
+        return azimuthAndDistance(p.lonDeg, p.latDeg, ll.lng, ll.lat).azDeg;
+      };
+      handle.on("dragstart", () => {
+        this.dragging = true;
+      });
+      handle.on("drag", () => {
+        line.setLatLngs([[p.latDeg, p.lonDeg], handle.getLatLng()]);
+        this.cb.onBoresight(p.id, az(), false);
+      });
+      handle.on("dragend", () => {
+        this.dragging = false;
+        this.cb.onBoresight(p.id, az(), true);
+      });
+      this.marks.addLayer(line);
+      this.marks.addLayer(handle);
+    }
+  }
+}

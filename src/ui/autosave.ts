@@ -1,0 +1,121 @@
+/**
+ * Autosave to IndexedDB (idb-keyval): every plan change is written at once (coalesced to one write per
+ * task), the DEM bytes are written when they change, and the last plan is restored on reload. A recent-
+ * plans list keeps the last few plans the user opened or saved. A stored plan that no longer reads is
+ * moved aside (never deleted) and the user is told.
+ */
+import { createStore, del, get, set, type UseStore } from "idb-keyval";
+import type { Plan } from "../io/planSchema";
+import { type DemAsset, useAssets } from "./assets";
+import { planToText, readPlanText } from "./planText";
+import { usePlanStore } from "./store";
+
+const KEY_CURRENT = "current-plan";
+const KEY_REJECTED = "rejected-plan";
+const KEY_RECENT = "recent-plans";
+const DEM_PREFIX = "dem:";
+/** Recent plans remembered. */
+export const RECENT_LIMIT = 8;
+
+export interface RecentPlan {
+  key: string;
+  name: string;
+  savedAtIso: string;
+}
+
+let store: UseStore | null = null;
+function db(): UseStore {
+  if (!store) store = createStore("picket", "plans");
+  return store;
+}
+
+export interface Restored {
+  plan: Plan;
+  dem: DemAsset | null;
+}
+
+/** The autosaved plan, or null when none; `problem` when one was stored but does not read any more. */
+export async function restoreAutosave(): Promise<{ restored: Restored | null; problem?: string }> {
+  const text = await get<string>(KEY_CURRENT, db());
+  if (typeof text !== "string") return { restored: null };
+  const r = readPlanText(text, "the autosaved plan");
+  if (!r.ok) {
+    await set(KEY_REJECTED, text, db());
+    await del(KEY_CURRENT, db());
+    return { restored: null, problem: [r.message, ...r.details].join("; ") };
+  }
+  let dem: DemAsset | null = null;
+  const g = r.plan.terrain.ground;
+  if (g.type === "dem") {
+    const bytes = await get<ArrayBuffer>(DEM_PREFIX + g.file, db());
+    if (bytes instanceof ArrayBuffer) dem = { fileName: g.file, bytes };
+  }
+  return { restored: { plan: r.plan, dem } };
+}
+
+/** Writes the plan now. */
+export async function savePlanNow(plan: Plan): Promise<void> {
+  await set(KEY_CURRENT, planToText(plan), db());
+}
+
+/** Stores DEM bytes under their file name. */
+export async function saveDem(dem: DemAsset): Promise<void> {
+  await set(DEM_PREFIX + dem.fileName, dem.bytes, db());
+}
+
+/** Starts autosaving every plan change and DEM change; returns the unsubscribe function. */
+export function startAutosave(onError: (message: string) => void): () => void {
+  let pending: Plan | null = null;
+  let scheduled = false;
+  const flush = () => {
+    scheduled = false;
+    const p = pending;
+    pending = null;
+    if (p) savePlanNow(p).catch((e) => onError(`Autosave failed: ${String(e)}`));
+  };
+  const offPlan = usePlanStore.subscribe((s, prev) => {
+    if (!s.plan || s.plan === prev.plan) return;
+    pending = s.plan;
+    if (!scheduled) {
+      scheduled = true;
+      queueMicrotask(flush);
+    }
+  });
+  const offDem = useAssets.subscribe((s, prev) => {
+    if (s.dem && s.dem !== prev.dem)
+      saveDem(s.dem).catch((e) => onError(`Saving the DEM failed: ${String(e)}`));
+  });
+  return () => {
+    offPlan();
+    offDem();
+  };
+}
+
+/** The recent plans, newest first. */
+export async function recentPlans(): Promise<RecentPlan[]> {
+  const list = await get<RecentPlan[]>(KEY_RECENT, db());
+  return Array.isArray(list) ? list : [];
+}
+
+/** Remembers a plan in the recent list (same site name replaces its older entry). */
+export async function rememberRecent(plan: Plan): Promise<void> {
+  const key = `recent:${plan.site.name}`;
+  const list = (await recentPlans()).filter((r) => r.key !== key);
+  list.unshift({ key, name: plan.site.name, savedAtIso: new Date().toISOString() });
+  const keep = list.slice(0, RECENT_LIMIT);
+  for (const dropped of list.slice(RECENT_LIMIT)) await del(dropped.key, db());
+  await set(key, planToText(plan), db());
+  await set(KEY_RECENT, keep, db());
+}
+
+/** The text of a recent plan, or null when it is gone. */
+export async function recentPlanText(key: string): Promise<string | null> {
+  const t = await get<string>(key, db());
+  return typeof t === "string" ? t : null;
+}
+
+/** DEM bytes stored under a file name, or null. */
+export async function storedDem(fileName: string): Promise<ArrayBuffer | null> {
+  const b = await get<ArrayBuffer>(DEM_PREFIX + fileName, db());
+  return b instanceof ArrayBuffer ? b : null;
+}

@@ -1,0 +1,77 @@
+/**
+ * View and session state that is not part of the plan (never undone, never saved in the plan file):
+ * what is shown, what is selected, the active tool, messages, and the drag preview.
+ */
+import { create } from "zustand";
+
+export type LayerKind = "combined" | "single" | "overlap" | "lowest";
+export type Tool = "select" | "post" | "area" | "hole" | "building" | "tree" | "inspect";
+
+export interface Message {
+  id: number;
+  kind: "info" | "warning" | "error";
+  text: string;
+  /** Further lines (e.g. one per bad field). */
+  details?: string[];
+}
+
+export interface InspectPoint {
+  lonDeg: number;
+  latDeg: number;
+}
+
+export interface DragPreview {
+  postId: string;
+  lonDeg: number;
+  latDeg: number;
+}
+
+export interface SessionState {
+  heightM: number | null;
+  classId: string | null;
+  layer: LayerKind;
+  singlePostId: string | null;
+  selectedPostId: string | null;
+  tool: Tool;
+  inspect: InspectPoint | null;
+  dragPreview: DragPreview | null;
+  messages: Message[];
+  showGaps: boolean;
+  showSectors: boolean;
+  showExposure: boolean;
+  showBuildings: boolean;
+  set: (patch: Partial<Omit<SessionState, "set" | "say" | "dismiss">>) => void;
+  say: (kind: Message["kind"], text: string, details?: string[]) => void;
+  dismiss: (id: number) => void;
+}
+
+let nextMessageId = 1;
+/** Messages kept on screen at once (older ones drop off). */
+const MESSAGE_LIMIT = 5;
+
+export const useSession = create<SessionState>()((set) => ({
+  heightM: null,
+  classId: null,
+  layer: "combined",
+  singlePostId: null,
+  selectedPostId: null,
+  tool: "select",
+  inspect: null,
+  dragPreview: null,
+  messages: [],
+  showGaps: true,
+  showSectors: true,
+  showExposure: false,
+  showBuildings: true,
+  set: (patch) => set(patch),
+  say: (kind, text, details) =>
+    set((s) => ({
+      messages: [...s.messages, { id: nextMessageId++, kind, text, details }].slice(-MESSAGE_LIMIT),
+    })),
+  dismiss: (id) => set((s) => ({ messages: s.messages.filter((m) => m.id !== id) })),
+}));
+
+/** Shortcut for code outside components. */
+export function say(kind: Message["kind"], text: string, details?: string[]): void {
+  useSession.getState().say(kind, text, details);
+}

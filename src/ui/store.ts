@@ -1,0 +1,77 @@
+/**
+ * The plan store: the plan document being edited, with undo/redo (zundo) for every plan change.
+ * Only the plan is tracked by the history; view state lives in session.ts. The model never imports this.
+ * A change is a function from the old plan to the new one, so components never mutate the plan.
+ */
+import { temporal } from "zundo";
+import { create } from "zustand";
+import type { Plan } from "../io/planSchema";
+
+export interface PlanStore {
+  plan: Plan | null;
+  /** Applies one undoable change. `label` says what changed (shown after undo/redo). */
+  change: (update: (plan: Plan) => Plan, label?: string) => void;
+  /** Replaces the plan (open, new, restore) and clears the history. */
+  load: (plan: Plan) => void;
+  /** What the last change was, for the status line. */
+  lastChangeLabel: string;
+}
+
+/** How many changes can be undone. */
+export const UNDO_LIMIT = 200;
+
+export const usePlanStore = create<PlanStore>()(
+  temporal(
+    (set) => ({
+      plan: null,
+      lastChangeLabel: "",
+      change: (update, label = "edit") =>
+        set((s) => {
+          if (!s.plan) return s;
+          const next = update(s.plan);
+          return next === s.plan ? s : { plan: next, lastChangeLabel: label };
+        }),
+      load: (plan) => {
+        set({ plan, lastChangeLabel: "opened" });
+        usePlanStore.temporal.getState().clear();
+      },
+    }),
+    {
+      partialize: (s) => ({ plan: s.plan }),
+      equality: (a, b) => a.plan === b.plan,
+      limit: UNDO_LIMIT,
+    },
+  ),
+);
+
+/** Undo the last plan change; false when there is nothing to undo. */
+export function undo(): boolean {
+  const t = usePlanStore.temporal.getState();
+  if (t.pastStates.length === 0) return false;
+  t.undo();
+  return true;
+}
+
+/** Redo the last undone change; false when there is nothing to redo. */
+export function redo(): boolean {
+  const t = usePlanStore.temporal.getState();
+  if (t.futureStates.length === 0) return false;
+  t.redo();
+  return true;
+}
+
+/** Current plan (throws before a plan is loaded: the app always loads one at start). */
+export function currentPlan(): Plan {
+  const p = usePlanStore.getState().plan;
+  if (!p) throw new Error("no plan loaded");
+  return p;
+}
+
+/** A new identifier not used by any of `existing`, as prefix-1, prefix-2, … */
+export function freshId(prefix: string, existing: ReadonlyArray<{ id: string }>): string {
+  const used = new Set(existing.map((e) => e.id));
+  for (let i = 1; ; i++) {
+    const id = `${prefix}-${i}`;
+    if (!used.has(id)) return id;
+  }
+}
