@@ -205,7 +205,7 @@ const positionSchema = z
   .min(2, { error: "must be a position [lon, lat] (too few numbers)" })
   .max(3, { error: "must be a position [lon, lat] or [lon, lat, altitude] (too many numbers)" })
   .superRefine((p, ctx) => {
-    if (p.length < 2) return;
+    if (!Array.isArray(p) || p.length < 2) return;
     if (!(p[0] >= -180 && p[0] <= 180)) {
       ctx.addIssue({ code: "custom", path: [0], message: `longitude ${p[0]} is outside [-180, 180] deg` });
     }
@@ -228,6 +228,7 @@ const ringSchema = z
     if (ring.length < 4) return;
     const a = ring[0];
     const b = ring[ring.length - 1];
+    if (!Array.isArray(a) || !Array.isArray(b)) return;
     if (a[0] !== b[0] || a[1] !== b[1]) {
       ctx.addIssue({
         code: "custom",
@@ -338,7 +339,7 @@ const targetClassSchema = record(
     name: displayName("Display name"),
     rcsDbsm: quantity({ unit: "dBsm", min: -60, max: 60, description: "Mean radar cross-section, dBsm" }),
     swerling: z
-      .union([z.literal(0), z.literal(1), z.literal(2), z.literal(3), z.literal(4)], {
+      .literal([0, 1, 2, 3, 4], {
         error: (iss) => `must be a Swerling case 0, 1, 2, 3 or 4 (got ${describeValue(iss.input)})`,
       })
       .meta({ description: "Swerling fluctuation case, 0 (steady) to 4" }),

@@ -22,28 +22,53 @@ function dedupe(ring: Position[]): Position[] {
   return out;
 }
 
-/** Twice the signed area of a closed ring in degree² (shoelace); only its sign and zero matter here. */
-function twiceSignedAreaDeg2(ring: Position[]): number {
-  let s = 0;
-  for (let i = 0; i + 1 < ring.length; i++) s += ring[i][0] * ring[i + 1][1] - ring[i + 1][0] * ring[i][1];
-  return s;
-}
-
 function near(p: number[]): string {
   return `near lon ${p[0].toFixed(6)}, lat ${p[1].toFixed(6)}`;
 }
 
-/** Problems of one polygon (outer ring then holes); `base` is the path of its coordinates array. */
-export function polygonProblems(rings: Position[][], base: (string | number)[]): PolygonProblem[] {
+/** A ring the schema accepted: closed, at least 4 positions, finite lon/lat in range. */
+function wellFormed(ring: unknown): ring is Position[] {
+  if (!Array.isArray(ring) || ring.length < 4) return false;
+  for (const p of ring) {
+    if (!Array.isArray(p) || p.length < 2) return false;
+    if (!(Math.abs(p[0]) <= 180 && Math.abs(p[1]) <= 90)) return false;
+  }
+  const a = ring[0];
+  const b = ring[ring.length - 1];
+  return a[0] === b[0] && a[1] === b[1];
+}
+
+/** True when every corner lies on the line through the first two distinct ones. */
+function collinear(ring: Position[]): boolean {
+  const a = ring[0];
+  const b = ring[1];
+  for (let i = 2; i < ring.length; i++) {
+    const c = ring[i];
+    if ((b[0] - a[0]) * (c[1] - a[1]) - (b[1] - a[1]) * (c[0] - a[0]) !== 0) return false;
+  }
+  return true;
+}
+
+/**
+ * Problems of one polygon (outer ring then holes); `base` is the path of its coordinates array.
+ * Rings that fail the schema's own checks (open, too short, bad numbers) are left to the schema.
+ */
+export function polygonProblems(rings: unknown, base: (string | number)[]): PolygonProblem[] {
+  if (!Array.isArray(rings)) return [];
   const problems: PolygonProblem[] = [];
   const clean: Position[][] = [];
-  rings.forEach((ring, r) => {
+  let skipped = false;
+  rings.forEach((ring: unknown, r: number) => {
+    if (!wellFormed(ring)) {
+      skipped = true;
+      return;
+    }
     const d = dedupe(ring);
     if (d.length < 4) {
       problems.push({ path: [...base, r], message: "the ring has fewer than 3 distinct corners" });
       return;
     }
-    if (twiceSignedAreaDeg2(d) === 0) {
+    if (collinear(d)) {
       problems.push({ path: [...base, r], message: "the ring encloses no area (all corners on one line)" });
       return;
     }
@@ -57,7 +82,7 @@ export function polygonProblems(rings: Position[][], base: (string | number)[]):
     }
     clean.push(d);
   });
-  if (problems.length > 0 || clean.length < 2) return problems;
+  if (skipped || problems.length > 0 || clean.length < 2) return problems;
   const k = kinks({ type: "Polygon", coordinates: clean });
   if (k.features.length > 0) {
     return [

@@ -22,6 +22,11 @@ const MIN_FREQUENCY_HZ = 3e6;
 /** Highest carrier accepted, Hz (upper end of the millimetre-wave band, 300 GHz). */
 const MAX_FREQUENCY_HZ = 3e11;
 
+/** Cross-field rules run even when a field failed its own check; they only compare real numbers. */
+function bothFinite(a: unknown, b: unknown): boolean {
+  return typeof a === "number" && typeof b === "number" && Number.isFinite(a) && Number.isFinite(b);
+}
+
 const patternCutSchema = record(
   {
     angleDeg: z
@@ -34,6 +39,7 @@ const patternCutSchema = record(
   },
   "A measured pattern cut: angle off boresight (deg) and gain relative to peak (dB)",
 ).superRefine((cut, ctx) => {
+  if (!Array.isArray(cut.angleDeg) || !Array.isArray(cut.relativeGainDb)) return;
   if (cut.relativeGainDb.length !== cut.angleDeg.length) {
     ctx.addIssue({
       code: "custom",
@@ -42,7 +48,7 @@ const patternCutSchema = record(
     });
   }
   for (let i = 1; i < cut.angleDeg.length; i++) {
-    if (!(cut.angleDeg[i] > cut.angleDeg[i - 1])) {
+    if (bothFinite(cut.angleDeg[i], cut.angleDeg[i - 1]) && !(cut.angleDeg[i] > cut.angleDeg[i - 1])) {
       ctx.addIssue({
         code: "custom",
         path: ["angleDeg", i],
@@ -104,6 +110,7 @@ const pulsedSchema = record(
   },
   "Pulsed waveform",
 ).superRefine((w, ctx) => {
+  if (!bothFinite(w.pulseWidthS, w.prfHz)) return;
   const duty = w.pulseWidthS * w.prfHz;
   if (duty > 1) {
     ctx.addIssue({
@@ -155,7 +162,7 @@ const fmcwSchema = record(
   },
   "FMCW waveform (linear chirps)",
 ).superRefine((w, ctx) => {
-  if (w.chirpPeriodS < w.chirpDurationS) {
+  if (bothFinite(w.chirpPeriodS, w.chirpDurationS) && w.chirpPeriodS < w.chirpDurationS) {
     ctx.addIssue({
       code: "custom",
       path: ["chirpPeriodS"],
@@ -290,7 +297,7 @@ export const radarModelSchema = record(
   },
   "A radar model: one radar type with its transmitter, receiver, waveform, antennas and scan",
 ).superRefine((m, ctx) => {
-  if (m.maxInstrumentedRangeM <= m.blindZoneM) {
+  if (bothFinite(m.maxInstrumentedRangeM, m.blindZoneM) && m.maxInstrumentedRangeM <= m.blindZoneM) {
     ctx.addIssue({
       code: "custom",
       path: ["maxInstrumentedRangeM"],
