@@ -82,19 +82,17 @@ function crsOfImage(image: GeoTIFFImage, file: string): string {
   const geographic = Number(keys.GeographicTypeGeoKey);
   let key: string;
   let code: number;
-  if (
-    modelType === MODEL_TYPE_PROJECTED ||
-    (Number.isFinite(projected) && modelType !== MODEL_TYPE_GEOGRAPHIC)
-  ) {
+  const modelStated = keys.GTModelTypeGeoKey !== undefined;
+  if (modelType === MODEL_TYPE_PROJECTED || (!modelStated && Number.isFinite(projected))) {
     key = "ProjectedCSTypeGeoKey";
     code = projected;
-  } else if (modelType === MODEL_TYPE_GEOGRAPHIC || Number.isFinite(geographic)) {
+  } else if (modelType === MODEL_TYPE_GEOGRAPHIC || (!modelStated && Number.isFinite(geographic))) {
     key = "GeographicTypeGeoKey";
     code = geographic;
   } else {
     throw new ImportError(
       file,
-      `model type ${keys.GTModelTypeGeoKey ?? "missing"} is neither projected nor geographic`,
+      `model type ${keys.GTModelTypeGeoKey ?? "missing"} is neither projected (1) nor geographic (2)`,
       "GTModelTypeGeoKey",
     );
   }

@@ -1,0 +1,365 @@
+/**
+ * DEM readers: georeferencing rules and hostile inputs. Small GeoTIFFs are written here with
+ * geotiff's writeArrayBuffer (and patched by hand for hostile headers); the agreement with GDAL
+ * is checked in tests/reference/demResample.test.ts.
+ */
+import { readFileSync } from "node:fs";
+import { fileURLToPath } from "node:url";
+import { writeArrayBuffer } from "geotiff";
+import { describe, expect, it } from "vitest";
+import { FOOT_M, MAX_DEM_HEADER_SIDE_CELLS, MAX_DEM_WINDOW_CELLS } from "../../src/coverage/constants.ts";
+import type { GridFrame } from "../../src/coverage/grid.ts";
+import { flatGround } from "../../src/coverage/surfaces.ts";
+import { readAscDem } from "../../src/io/demAsc.ts";
+import { crsFromEpsg, readGeoTiffDem } from "../../src/io/demGeotiff.ts";
+import { hgtTileOrigin, readHgtDem } from "../../src/io/demHgt.ts";
+import { ImportError, isImportError } from "../../src/io/importErrors.ts";
+
+const UTM33 = "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs";
+
+/** A 10 × 8 site grid of 10 m cells at (500 000, 5 200 000) in UTM 33N. */
+const frame: GridFrame = {
+  width: 10,
+  height: 8,
+  originX: 500_000,
+  originY: 5_200_000,
+  cellSizeM: 10,
+  crs: UTM33,
+};
+
+interface TiffSpec {
+  width: number;
+  height: number;
+  values: (col: number, row: number) => number;
+  pixelM: number;
+  originX: number;
+  originY: number;
+  keys?: Record<string, number | number[]>;
+  nodata?: string;
+}
+
+/** A Float32 GeoTIFF (big-endian, one strip) written with geotiff's writer. */
+function makeTiff(spec: TiffSpec): ArrayBuffer {
+  const v = new Float32Array(spec.width * spec.height);
+  for (let r = 0; r < spec.height; r++)
+    for (let c = 0; c < spec.width; c++) v[r * spec.width + c] = spec.values(c, r);
+  const meta: Record<string, unknown> = {
+    width: spec.width,
+    height: spec.height,
+    SampleFormat: [3],
+    BitsPerSample: [32],
+    ModelPixelScale: [spec.pixelM, spec.pixelM, 0],
+    ModelTiepoint: [0, 0, 0, spec.originX, spec.originY, 0],
+    ...(spec.keys ?? { GTModelTypeGeoKey: 1, GTRasterTypeGeoKey: 1, ProjectedCSTypeGeoKey: 32633 }),
+  };
+  if (spec.nodata !== undefined) meta.GDAL_NODATA = spec.nodata;
+  return writeArrayBuffer(v, meta);
+}
+
+/** A DEM of 5 m pixels over the site and beyond: elevation = 100 + x/10 − y/20 in grid metres. */
+const planeSpec: TiffSpec = {
+  width: 40,
+  height: 30,
+  pixelM: 5,
+  originX: 499_950,
+  originY: 5_200_050,
+  values: (c, r) =>
+    100 + (499_950 + (c + 0.5) * 5 - 500_000) / 10 - (5_200_050 - (r + 0.5) * 5 - 5_200_000) / 20,
+};
+
+/** Rewrite ImageWidth (256) and ImageLength (257) in the first IFD of a big-endian TIFF. */
+function patchSize(buffer: ArrayBuffer, width: number, height: number): ArrayBuffer {
+  const out = buffer.slice(0);
+  const dv = new DataView(out);
+  const ifd = dv.getUint32(4, false);
+  const n = dv.getUint16(ifd, false);
+  for (let i = 0; i < n; i++) {
+    const e = ifd + 2 + i * 12;
+    const tag = dv.getUint16(e, false);
+    if (tag === 256 || tag === 257) {
+      dv.setUint16(e + 2, 4, false); // LONG
+      dv.setUint32(e + 4, 1, false);
+      dv.setUint32(e + 8, tag === 256 ? width : height, false);
+    }
+  }
+  return out;
+}
+
+async function importError(p: Promise<unknown> | (() => unknown)): Promise<ImportError> {
+  try {
+    if (typeof p === "function") p();
+    else await p;
+  } catch (e) {
+    expect(e).toBeInstanceOf(ImportError);
+    expect((e as Error).name).toBe("ImportError");
+    expect(isImportError(e)).toBe(true);
+    return e as ImportError;
+  }
+  throw new Error("expected an ImportError");
+}
+
+describe("GeoTIFF DEM", () => {
+  it("[DM5] a metric DEM in the grid's CRS is sampled bilinearly at cell centres (a plane is exact)", async () => {
+    const r = await readGeoTiffDem(makeTiff(planeSpec), frame, { fileName: "plane.tif" });
+    for (let row = 0; row < frame.height; row++) {
+      for (let col = 0; col < frame.width; col++) {
+        const x = (col + 0.5) * 10;
+        const y = -(row + 0.5) * 10;
+        // Bilinear interpolation reproduces a plane exactly; Float32 storage bounds the error.
+        expect(r.ground.data[row * frame.width + col]).toBeCloseTo(100 + x / 10 - y / 20, 3);
+      }
+    }
+    expect(r.warnings).toEqual([]);
+    expect(r.source).toEqual({ kind: "geotiff", crs: crsFromEpsg(32633), surfaceKind: "unknown" });
+  });
+
+  it("[DM6] GDAL_NODATA becomes NaN and nodata never gets a value from its neighbours", async () => {
+    const spec = {
+      ...planeSpec,
+      nodata: "-9999",
+      values: (c: number, r: number) => (c === 20 && r === 15 ? -9999 : 50),
+    };
+    const r = await readGeoTiffDem(makeTiff(spec), frame, { fileName: "hole.tif" });
+    // Pixel (20, 15) has its centre at (500 052.5, 5 199 972.5): cells around it are NaN.
+    const col = Math.floor(52.5 / 10);
+    const row = Math.floor(27.5 / 10);
+    expect(Number.isNaN(r.ground.data[row * frame.width + col])).toBe(true);
+    expect(r.ground.data[0]).toBe(50);
+    expect(r.warnings.some((w) => /covers .* % of the site grid/.test(w))).toBe(true);
+  });
+
+  it("[DM7] PixelIsPoint tie points name a pixel centre (shifted half a pixel, as GDAL reads them)", async () => {
+    const asPoint = makeTiff({
+      ...planeSpec,
+      originX: planeSpec.originX + 2.5,
+      originY: planeSpec.originY - 2.5,
+      keys: { GTModelTypeGeoKey: 1, GTRasterTypeGeoKey: 2, ProjectedCSTypeGeoKey: 32633 },
+    });
+    const a = await readGeoTiffDem(asPoint, frame);
+    const b = await readGeoTiffDem(makeTiff(planeSpec), frame);
+    for (let i = 0; i < a.ground.data.length; i++) expect(a.ground.data[i]).toBeCloseTo(b.ground.data[i], 4);
+  });
+
+  it("[DM8] elevations in feet (VerticalUnitsGeoKey 9002) are converted to metres", async () => {
+    const spec = {
+      ...planeSpec,
+      values: () => 100,
+      keys: {
+        GTModelTypeGeoKey: 1,
+        GTRasterTypeGeoKey: 1,
+        ProjectedCSTypeGeoKey: 32633,
+        VerticalUnitsGeoKey: 9002,
+      },
+    };
+    const r = await readGeoTiffDem(makeTiff(spec), frame);
+    expect(r.ground.data[0]).toBeCloseTo(100 * FOOT_M, 4);
+  });
+
+  it("[DM9] a truncated TIFF is refused with a message naming the file", async () => {
+    const full = makeTiff(planeSpec);
+    const cut = full.slice(0, Math.floor(full.byteLength * 0.6));
+    const e = await importError(readGeoTiffDem(cut, frame, { fileName: "cut.tif" }));
+    expect(e.message).toMatch(/^cut\.tif: /);
+    expect(e.message).toMatch(/truncated|damaged|not a readable TIFF/);
+    const stub = full.slice(0, 20);
+    const e2 = await importError(readGeoTiffDem(stub, frame, { fileName: "stub.tif" }));
+    expect(e2.message).toMatch(/^stub\.tif: /);
+    const notTiff = new TextEncoder().encode("this is not a TIFF at all").buffer as ArrayBuffer;
+    expect((await importError(readGeoTiffDem(notTiff, frame, { fileName: "x.tif" }))).message).toMatch(
+      /not a readable TIFF/,
+    );
+  });
+
+  it("[DM10] a 200 000 × 200 000 header is refused by size before anything is allocated", async () => {
+    const huge = patchSize(makeTiff(planeSpec), 200_000, 200_000);
+    const e = await importError(readGeoTiffDem(huge, frame, { fileName: "huge.tif" }));
+    expect(e.field).toBe("ImageWidth");
+    expect(e.message).toContain("200000 × 200000");
+    expect(e.message).toContain(String(MAX_DEM_HEADER_SIDE_CELLS));
+  });
+
+  it("[DM11] a window above the cap is refused (a very fine DEM over a large site)", async () => {
+    // 2^17 × 2^17 header of 1 mm pixels: within the side cap, but the site window would be 10^10 pixels.
+    const fine = patchSize(
+      makeTiff({ ...planeSpec, pixelM: 0.001, originX: 500_000, originY: 5_200_000 }),
+      131_072,
+      131_072,
+    );
+    const big: GridFrame = { ...frame, width: 1000, height: 1000, cellSizeM: 100 };
+    const e = await importError(readGeoTiffDem(fine, big, { fileName: "fine.tif" }));
+    expect(e.message).toContain(String(MAX_DEM_WINDOW_CELLS));
+  });
+
+  it("[DM12] an EPSG code that is not built in is refused, naming the code and the key", async () => {
+    const spec = {
+      ...planeSpec,
+      keys: { GTModelTypeGeoKey: 1, GTRasterTypeGeoKey: 1, ProjectedCSTypeGeoKey: 31468 },
+    };
+    const e = await importError(readGeoTiffDem(makeTiff(spec), frame, { fileName: "gk4.tif" }));
+    expect(e.field).toBe("ProjectedCSTypeGeoKey");
+    expect(e.message).toContain("EPSG:31468");
+    const user = {
+      ...planeSpec,
+      keys: { GTModelTypeGeoKey: 1, GTRasterTypeGeoKey: 1, ProjectedCSTypeGeoKey: 32767 },
+    };
+    expect((await importError(readGeoTiffDem(makeTiff(user), frame))).message).toContain("user-defined");
+    // A hand-made key directory (GeoTIFF 1.1 §7.1): version 1.1.0, one key, GTModelTypeGeoKey (1024) = 3,
+    // geocentric, which is no raster CRS.
+    const none = { ...planeSpec, keys: { GeoKeyDirectory: [1, 1, 0, 1, 1024, 0, 1, 3] } };
+    expect((await importError(readGeoTiffDem(makeTiff(none), frame))).field).toBe("GTModelTypeGeoKey");
+  });
+
+  it("[DM13] a DEM in the wrong CRS (elsewhere on Earth) is refused as not overlapping", async () => {
+    // Same numbers, but declared UTM 32N: 500 km west of the site in UTM 33N.
+    const spec = {
+      ...planeSpec,
+      keys: { GTModelTypeGeoKey: 1, GTRasterTypeGeoKey: 1, ProjectedCSTypeGeoKey: 32632 },
+    };
+    const e = await importError(readGeoTiffDem(makeTiff(spec), frame, { fileName: "zone32.tif" }));
+    expect(e.message).toMatch(/does not overlap the site grid/);
+  });
+
+  it("[DM14] a geographic DEM (EPSG:4326) is reprojected, never used in degrees", async () => {
+    // 0.001° pixels around the site's position (15° E, about 46.95° N).
+    const step = 0.001;
+    const spec: TiffSpec = {
+      width: 20,
+      height: 20,
+      pixelM: step,
+      originX: 14.995,
+      originY: 46.96,
+      values: () => 321,
+      keys: { GTModelTypeGeoKey: 2, GTRasterTypeGeoKey: 1, GeographicTypeGeoKey: 4326 },
+    };
+    const r = await readGeoTiffDem(makeTiff(spec), frame, { fileName: "geo.tif" });
+    expect(r.ground.cellSizeM).toBe(10);
+    expect(r.ground.crs).toBe(UTM33);
+    expect(Array.from(r.ground.data).every((v) => v === 321)).toBe(true);
+    expect(r.warnings.join(" ")).toMatch(/reprojected/);
+  });
+});
+
+describe("SRTM .hgt", () => {
+  it("[DM15] the tile corner comes from the file name", () => {
+    expect(hgtTileOrigin("N47E011.hgt")).toEqual({ latDeg: 47, lonDeg: 11 });
+    expect(hgtTileOrigin("dir/S09W078.SRTMGL1.hgt")).toEqual({ latDeg: -9, lonDeg: -78 });
+    expect(hgtTileOrigin("terrain.hgt")).toBeUndefined();
+  });
+
+  it("[DM16] 1″ and 3″ sizes are accepted, voids become NaN, other sizes are refused", async () => {
+    const side = 1201;
+    const buf = new ArrayBuffer(side * side * 2);
+    const dv = new DataView(buf);
+    for (let i = 0; i < side * side; i++) dv.setInt16(2 * i, 1234, false);
+    // A site near 46.5° N, 15.5° E in UTM 33N, inside tile N46E015.
+    const site: GridFrame = { ...frame, originX: 538_000, originY: 5_150_000 };
+    const ok = readHgtDem(buf, "N46E015.hgt", site);
+    expect(Array.from(ok.ground.data).every((v) => v === 1234)).toBe(true);
+    for (let i = 0; i < side * side; i++) dv.setInt16(2 * i, -32768, false);
+    const voids = await importError(() => readHgtDem(buf, "N46E015.hgt", site));
+    expect(voids.message).toMatch(/does not cover any cell/);
+    const wrong = await importError(() => readHgtDem(new ArrayBuffer(1000), "N46E015.hgt", site));
+    expect(wrong.message).toMatch(/^N46E015\.hgt: 1000 bytes is neither a 1″ tile/);
+    const unnamed = await importError(() => readHgtDem(buf, "tile.hgt", site));
+    expect(unnamed.field).toBe("fileName");
+  });
+
+  it("[DM17] a tile that does not reach the site is refused", async () => {
+    const buf = new ArrayBuffer(1201 * 1201 * 2);
+    const e = await importError(() => readHgtDem(buf, "N10E010.hgt", frame));
+    expect(e.message).toMatch(/^N10E010\.hgt: the DEM does not cover any cell/);
+  });
+});
+
+describe("Esri ASCII grid", () => {
+  const header = "ncols 4\nnrows 3\nxllcorner 499990\nyllcorner 5199900\ncellsize 40\nNODATA_value -9999\n";
+  const values = "1 2 3 4\n5 6 7 8\n9 10 11 12\n";
+
+  it("[DM18] without a .prj the site grid's CRS is assumed, and a warning says so", () => {
+    const r = readAscDem(header + values, frame, undefined, { fileName: "a.asc" });
+    expect(r.source.crs).toBe(UTM33);
+    expect(r.warnings[0]).toMatch(
+      /^a\.asc: no \.prj given; the grid is assumed to be in the site grid's CRS/,
+    );
+    // Cell (0, 0) centre (500 005, 5 199 995) lies at source column 15/40 − 0.5 = −0.125 (the outer
+    // half-pixel rim: clamped to column 0) and row 25/40 − 0.5 = 0.125: 1 + 0.125 · (5 − 1) = 1.5.
+    expect(r.ground.data[0]).toBeCloseTo(1.5, 5);
+  });
+
+  it("[DM19] xllcenter equals xllcorner + cellsize/2", () => {
+    const centred = header
+      .replace("xllcorner 499990", "xllcenter 500010")
+      .replace("yllcorner 5199900", "yllcenter 5199920");
+    const a = readAscDem(header + values, frame);
+    const b = readAscDem(centred + values, frame);
+    expect(Array.from(b.ground.data)).toEqual(Array.from(a.ground.data));
+  });
+
+  it("[DM20] missing header keys, bad numbers and short data name the file and the key", async () => {
+    const missing = await importError(() =>
+      readAscDem(header.replace("nrows 3\n", "") + values, frame, undefined, { fileName: "m.asc" }),
+    );
+    expect(missing.message).toBe("m.asc: nrows: missing header key");
+    expect(
+      (await importError(() => readAscDem(header.replace("cellsize 40\n", "") + values, frame))).field,
+    ).toBe("cellsize");
+    expect(
+      (await importError(() => readAscDem(header.replace("xllcorner 499990\n", "") + values, frame))).field,
+    ).toBe("xllcorner");
+    const bad = await importError(() =>
+      readAscDem(header.replace("cellsize 40", "cellsize forty") + values, frame),
+    );
+    expect(bad.field).toBe("cellsize");
+    const short = await importError(() =>
+      readAscDem(header + "1 2 3\n", frame, undefined, { fileName: "s.asc" }),
+    );
+    expect(short.message).toMatch(/promises 4 × 3 = 12 values but the file holds 3/);
+    const word = await importError(() => readAscDem(header + values.replace("7", "x7"), frame));
+    expect(word.field).toBe("row 2, column 3");
+  });
+
+  it("[DM21] a huge ncols × nrows is refused before any allocation", async () => {
+    const e = await importError(() =>
+      readAscDem(
+        header.replace("ncols 4", "ncols 100000").replace("nrows 3", "nrows 100000") + values,
+        frame,
+      ),
+    );
+    expect(e.message).toContain(String(MAX_DEM_WINDOW_CELLS));
+    expect(
+      (await importError(() => readAscDem(header.replace("ncols 4", "ncols 200000") + values, frame))).field,
+    ).toBe("ncols");
+    expect(
+      (await importError(() => readAscDem(header.replace("ncols 4", "ncols -3") + values, frame))).field,
+    ).toBe("ncols");
+  });
+
+  it("[DM22] an unreadable .prj is refused, naming it", async () => {
+    const e = await importError(() =>
+      readAscDem(header + values, frame, "PROJCS[garbage", { fileName: "p.asc" }),
+    );
+    expect(e.field).toBe("prj");
+  });
+});
+
+describe("flat ground", () => {
+  it("[DM23] flatGround fills the frame with one elevation", () => {
+    const g = flatGround(frame, 212.5);
+    expect(g.data.length).toBe(80);
+    expect(Array.from(g.data).every((v) => v === 212.5)).toBe(true);
+    expect(g.crs).toBe(UTM33);
+  });
+});
+
+describe("fixture files read by the unit readers", () => {
+  it("[DM24] the committed GDAL-made GeoTIFF declares EPSG:4326 and nodata −9999", async () => {
+    const b = readFileSync(fileURLToPath(new URL("../fixtures/dem/src_geo.tif", import.meta.url)));
+    const buf = b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer;
+    const site: GridFrame = JSON.parse(
+      readFileSync(fileURLToPath(new URL("../fixtures/dem/grid.json", import.meta.url)), "utf8"),
+    ).grid;
+    const r = await readGeoTiffDem(buf, site);
+    expect(r.source.crs).toBe(crsFromEpsg(4326));
+    expect(r.ground.data.some((v) => Number.isNaN(v))).toBe(true);
+  });
+});
