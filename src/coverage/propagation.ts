@@ -55,7 +55,8 @@ export function effectiveEarthRadiusM(k: number = DEFAULT_EFFECTIVE_EARTH_FACTOR
  * @param distanceM ground distance from the tangent point, m, ≥ 0.
  * @param k effective-Earth-radius factor, > 0 (see effectiveEarthRadiusM).
  * @returns metres, ≥ 0; 0 at d = 0 or k = Infinity; NaN for d < 0, k ≤ 0 or NaN.
- * Reference: ITU-R P.452-17 eq. (13) form (d²/2a_e terms; from memory), common practice.
+ * Reference: geometry of a sphere of radius k·a to second order in d/a_e (common practice; the d²/(2a_e)
+ * terms of ITU-R P.452 path profiles).
  */
 export function curvatureDropM(distanceM: number, k: number = DEFAULT_EFFECTIVE_EARTH_FACTOR): number {
   const aeM = effectiveEarthRadiusM(k);
@@ -69,7 +70,7 @@ export function curvatureDropM(distanceM: number, k: number = DEFAULT_EFFECTIVE_
  * @param p.d1M distance from one end, m, ≥ 0; p.d2M distance from the other end, m, ≥ 0.
  * @param p.k effective-Earth-radius factor, > 0 (default 4/3).
  * @returns metres, ≥ 0; 0 at either end; NaN for a negative distance, k ≤ 0 or NaN.
- * Reference: ITU-R P.530-18 §2.2 / P.526 path-profile geometry (common practice; eq. number not cited).
+ * Reference: path-profile formula h = d1·d2/(12.74·k) m with d in km (common practice, from memory).
  */
 export function earthBulgeM(p: { d1M: number; d2M: number; k?: number }): number {
   const aeM = effectiveEarthRadiusM(p.k ?? DEFAULT_EFFECTIVE_EARTH_FACTOR);
@@ -86,7 +87,7 @@ export function earthBulgeM(p: { d1M: number; d2M: number; k?: number }): number
  * @param p.k effective-Earth-radius factor, > 0 (default 4/3).
  * @returns metres; Infinity for k = Infinity; NaN for a negative height, k ≤ 0 or NaN.
  * Reference: handbook horizon formula d ≈ 4.12(√h1 + √h2) km with h in metres for k = 4/3, 3.57√h km
- * for k = 1 (common practice, e.g. Skolnik, Radar Handbook 3rd ed. ch. 26; from memory).
+ * for k = 1 (common practice in radar handbooks; from memory).
  */
 export function radarHorizonM(p: { antennaHeightM: number; targetHeightM: number; k?: number }): number {
   const aeM = effectiveEarthRadiusM(p.k ?? DEFAULT_EFFECTIVE_EARTH_FACTOR);
@@ -101,7 +102,8 @@ export function radarHorizonM(p: { antennaHeightM: number; targetHeightM: number
  * @param p.d1M, p.d2M distances from the point to the two ends, m, ≥ 0, not both 0.
  * @param p.zone zone number n, a positive integer (default 1).
  * @returns metres; 0 at either end; NaN for a negative distance, both 0, f ≤ 0, a bad zone or NaN.
- * Reference: ITU-R P.526-15 §3.1 eq. (2): R1 = 550·√(d1·d2/((d1 + d2)·f)) m, d in km, f in MHz
+ * Reference: ITU-R P.526-15 §3.1 eq. (2) (number from memory): R1 = 550·√(d1·d2/((d1 + d2)·f)) m,
+ * d in km, f in MHz
  * (550 is the rounded value of √(c·10⁻³)); here the exact form with λ = c/f.
  */
 export function fresnelZoneRadiusM(p: {
