@@ -1,11 +1,16 @@
 /**
  * Accurate masking sweep (R2 class, Franklin & Ray 1994): straight rays from the observer's cell centre
  * to every cell of the perimeter, split into four triangles (east, west: |dy| ≤ |dx|; north, south:
- * |dx| < |dy|). In each triangle all rays advance together one grid line at a time (memory order, not
- * one ray after another); a ray samples the surface where it crosses the grid line, by linear
- * interpolation between the two cell centres it passes between, and keeps its running horizon.
- * A cell takes the horizon of the two rays that bracket its centre, interpolated linearly, before the
- * rays sample the cell's own line (the cell never masks itself). Rules TM1–TM7 in docs/model-spec.md.
+ * |dx| < |dy|). A ray samples the surface wherever it crosses a grid line between cell centres — the
+ * major lines and the minor lines, as the exact ray march R3 does — by linear interpolation between the
+ * two centres it passes between, and keeps its running horizon. A cell takes the horizon of the two rays
+ * that bracket its centre, interpolated linearly, as it was before the rays reached the cell's own line
+ * (the cell never masks itself). Rules TM1–TM7 in docs/model-spec.md.
+ *
+ * Memory order: all rays advance together, a band of BAND major lines at a time. Inside a band each ray
+ * runs through the band's lines with its state in registers and leaves its horizon before every line in
+ * a small ray-major buffer; the band's cells are then written in the grid's own row order. Every pass
+ * reads and writes memory in order whichever way the triangle points, with no transposed copies.
  */
 
 import type { SweepSetup } from "./terrainMask.ts";
@@ -16,11 +21,14 @@ import type { SweepSetup } from "./terrainMask.ts";
  */
 const RAYS_PER_PERIMETER_CELL = 1;
 
+/** Major lines per band (the ray state stays in registers across a band). */
+const BAND = 16;
+
 /** One triangle of the sweep: which axis advances (major) and how indices move. */
 interface Triangle {
-  /** Index step for one major step outward (±1 or ±width). */
+  /** Grid index step for one major step outward (±1 or ±width). */
   majorStride: number;
-  /** Index step for one minor step (+1 or +width). */
+  /** Grid index step for one minor step (+width or +1). */
   minorStride: number;
   /** Major steps available from the observer to the grid edge. */
   majorSteps: number;
@@ -28,24 +36,29 @@ interface Triangle {
   minorObs: number;
   /** Cells on the minor axis. */
   minorLen: number;
-  /** East/west triangles include the diagonals |minor| = major; north/south stop one short. */
-  includeDiagonal: boolean;
+  /** East/west: true (the diagonals |minor| = major belong to them, cells written minor-outer). */
+  eastWest: boolean;
 }
 
 /** Working arrays reused by the four triangles (no allocation in the hot loops). */
 interface RayBuffers {
   horizon: Float64Array;
   obstacleM: Float64Array;
-  lengthPerStepM: Float64Array;
-  invLengthPerStepM: Float64Array;
+  /** Horizon of ray j before band line b, at [j·BAND + b]. */
+  bandHorizon: Float32Array;
+  bandObstacleM: Float32Array;
+  raysPerMinor: Float64Array;
+  invLine: Float64Array;
 }
 
 function buffers(maxRays: number): RayBuffers {
   return {
     horizon: new Float64Array(maxRays),
     obstacleM: new Float64Array(maxRays),
-    lengthPerStepM: new Float64Array(maxRays),
-    invLengthPerStepM: new Float64Array(maxRays),
+    bandHorizon: new Float32Array(maxRays * BAND),
+    bandObstacleM: new Float32Array(maxRays * BAND),
+    raysPerMinor: new Float64Array(BAND),
+    invLine: new Float64Array(BAND),
   };
 }
 
@@ -66,130 +79,188 @@ export function computeHorizonAccurate(
   if (!Number.isNaN(s.z[obsIdx])) outSlope[obsIdx] = Number.NEGATIVE_INFINITY;
   const rangeSteps = Math.floor(s.maxRangeM / s.cellSizeM);
   const triangles: Triangle[] = [
-    {
-      majorStride: 1,
-      minorStride: w,
-      majorSteps: w - 1 - oc,
-      minorObs: or,
-      minorLen: h,
-      includeDiagonal: true,
-    },
-    { majorStride: -1, minorStride: w, majorSteps: oc, minorObs: or, minorLen: h, includeDiagonal: true },
-    { majorStride: -w, minorStride: 1, majorSteps: or, minorObs: oc, minorLen: w, includeDiagonal: false },
-    {
-      majorStride: w,
-      minorStride: 1,
-      majorSteps: h - 1 - or,
-      minorObs: oc,
-      minorLen: w,
-      includeDiagonal: false,
-    },
+    { majorStride: 1, minorStride: w, majorSteps: w - 1 - oc, minorObs: or, minorLen: h, eastWest: true },
+    { majorStride: -1, minorStride: w, majorSteps: oc, minorObs: or, minorLen: h, eastWest: true },
+    { majorStride: -w, minorStride: 1, majorSteps: or, minorObs: oc, minorLen: w, eastWest: false },
+    { majorStride: w, minorStride: 1, majorSteps: h - 1 - or, minorObs: oc, minorLen: w, eastWest: false },
   ];
   let maxRays = 0;
   for (const t of triangles)
     maxRays = Math.max(maxRays, 2 * Math.min(t.majorSteps, rangeSteps) * RAYS_PER_PERIMETER_CELL + 1);
   const buf = buffers(maxRays);
-  for (const t of triangles)
-    sweepTriangle(s, t, Math.min(t.majorSteps, rangeSteps), obsIdx, buf, outSlope, outObstacleM);
+  for (const t of triangles) {
+    const steps = Math.min(t.majorSteps, rangeSteps);
+    if (steps < 1) continue;
+    for (let j = 0; j < 2 * steps * RAYS_PER_PERIMETER_CELL + 1; j++) {
+      buf.horizon[j] = Number.NEGATIVE_INFINITY;
+      buf.obstacleM[j] = Number.NaN;
+    }
+    for (let m0 = 1; m0 <= steps; m0 += BAND) {
+      const nb = Math.min(BAND, steps - m0 + 1);
+      advanceRays(s, t, steps, m0, nb, obsIdx, buf);
+      writeCells(s, t, steps, m0, nb, obsIdx, buf, outSlope, outObstacleM);
+    }
+  }
 }
 
-function sweepTriangle(
+/** Runs every ray through band lines m0..m0+nb−1, recording its horizon before each line. */
+function advanceRays(
   s: SweepSetup,
   t: Triangle,
   steps: number,
+  m0: number,
+  nb: number,
   obsIdx: number,
   buf: RayBuffers,
-  outSlope: Float32Array,
-  outObstacleM: Float32Array,
 ): void {
-  if (steps < 1) return;
   const z = s.z;
   const cell = s.cellSizeM;
   const antenna = s.antennaHeightAslM;
   const curv = s.curvaturePerM;
   const exclM = s.ownFootprintRadiusM;
-  const maxRange2 = (s.maxRangeM / cell) * (s.maxRangeM / cell);
-  const { majorStride, minorStride, minorObs, minorLen } = t;
-  const minorLast = minorLen - 1;
+  const { majorStride, minorStride, minorObs } = t;
+  const minorLast = t.minorLen - 1;
+  const lastLine = t.majorSteps;
   const span = steps * RAYS_PER_PERIMETER_CELL;
   const nRays = 2 * span + 1;
+  const invSpan = 1 / span;
   const hz = buf.horizon;
   const od = buf.obstacleM;
-  const len = buf.lengthPerStepM;
-  const invLen = buf.invLengthPerStepM;
-  // Ray j ends at minor offset (j − steps) on the last major line: slope per major step (j − steps)/steps.
+  const bh = buf.bandHorizon;
+  const bo = buf.bandObstacleM;
+  const base = obsIdx - minorObs * minorStride;
+  const invLine = buf.invLine;
+  for (let b = 0; b < nb; b++) invLine[b] = 1 / (m0 + b);
+  const mEnd = m0 + nb;
   for (let j = 0; j < nRays; j++) {
-    const slope = (j - span) / span;
-    len[j] = cell * Math.sqrt(1 + slope * slope);
-    invLen[j] = 1 / len[j];
-    hz[j] = Number.NEGATIVE_INFINITY;
-    od[j] = Number.NaN;
-  }
-  const invSpan = 1 / span;
-  for (let m = 1; m <= steps; m++) {
-    const lineBase = obsIdx + m * majorStride - minorObs * minorStride;
-    // 1. Cells of this line take the bracketing rays' horizons (samples of lines 1..m−1 only).
-    const reach = t.includeDiagonal ? m : m - 1;
-    const lo = Math.max(-reach, -minorObs);
-    const hi = Math.min(reach, minorLast - minorObs);
-    const raysPerMinor = span / m;
-    const m2 = m * m;
-    for (let q = lo; q <= hi; q++) {
-      const idx = lineBase + (minorObs + q) * minorStride;
-      if (Number.isNaN(z[idx]) || m2 + q * q > maxRange2) continue;
-      const u = q * raysPerMinor + span;
-      let j0 = Math.floor(u);
-      if (j0 >= nRays - 1) j0 = nRays - 2;
-      const f = u - j0;
-      const a = hz[j0];
-      const b = hz[j0 + 1];
-      let v = a + (b - a) * f;
-      const near = f < 0.5 ? j0 : j0 + 1;
-      if (!(v > Number.NEGATIVE_INFINITY)) v = hz[near];
-      outSlope[idx] = v;
-      outObstacleM[idx] = od[near];
-    }
-    // 2. Every ray inside the grid samples this line.
-    const perRay = m * invSpan;
-    let jLo = Math.ceil(span - minorObs / perRay);
-    let jHi = Math.floor(span + (minorLast - minorObs) / perRay);
-    if (jLo < 0) jLo = 0;
-    if (jHi > nRays - 1) jHi = nRays - 1;
-    const invM = 1 / m;
-    for (let j = jLo; j <= jHi; j++) {
-      const y = minorObs + (j - span) * perRay;
-      let r0 = Math.floor(y);
-      if (r0 >= minorLast) r0 = minorLast > 0 ? minorLast - 1 : 0;
+    const rayStep = (j - span) * invSpan;
+    const lenM = cell * Math.sqrt(1 + rayStep * rayStep);
+    const invLenM = 1 / lenM;
+    const invRayStep = 1 / rayStep;
+    let best = hz[j];
+    let bestM = od[j];
+    const k = j * BAND - m0;
+    for (let m = m0; m < mEnd; m++) {
+      bh[k + m] = best;
+      bo[k + m] = bestM;
+      if (m === steps) break;
+      const y = minorObs + rayStep * m;
+      if (!(y >= 0 && y <= minorLast)) continue;
+      const lineBase = base + m * majorStride;
+      // Sample where the ray crosses major line m (y ≥ 0, so truncation is the floor).
+      const k0 = y | 0;
+      const r0 = k0 < minorLast ? k0 : minorLast > 0 ? minorLast - 1 : 0;
       const f = y - r0;
       const i0 = lineBase + r0 * minorStride;
       const za = z[i0];
-      const zb = minorLast > 0 ? z[i0 + minorStride] : za;
-      const zz = za + (zb - za) * f;
-      const dist = m * len[j];
-      const slope = (zz - antenna) * invM * invLen[j] - dist * curv;
-      if (slope > hz[j] && dist > exclM) {
-        hz[j] = slope;
-        od[j] = dist;
+      const zz = minorLast > 0 ? za + (z[i0 + minorStride] - za) * f : za;
+      const dist = m * lenM;
+      const slope = (zz - antenna) * invLenM * invLine[m - m0] - dist * curv;
+      if (slope > best && dist > exclM) {
+        best = slope;
+        bestM = dist;
       }
-      // The ray also crosses a minor grid line between major lines m−1 and m: sample it too (as R3 does).
-      const rayStep = (j - span) * invSpan;
-      const yPrev = y - rayStep;
-      const kNow = Math.floor(y);
-      const kPrev = Math.floor(yPrev);
-      if (kNow !== kPrev) {
-        const k = Math.max(kNow, kPrev);
-        if (k >= 0 && k <= minorLast) {
-          const g = (k - yPrev) / rayStep;
-          const ik = lineBase + k * minorStride;
-          const zp = z[ik - majorStride];
-          const zk = zp + (z[ik] - zp) * g;
-          const dk = (m - 1 + g) * len[j];
+      // Sample where it crosses a minor line before major line m+1.
+      const k1 = ((y + rayStep + 1) | 0) - 1;
+      if (k1 !== k0 && m < lastLine) {
+        const kk = k1 > k0 ? k1 : k0;
+        if (kk >= 0 && kk <= minorLast) {
+          const g = (kk - y) * invRayStep;
+          const ik = lineBase + kk * minorStride;
+          const zp = z[ik];
+          const zk = zp + (z[ik + majorStride] - zp) * g;
+          const dk = (m + g) * lenM;
           const sk = (zk - antenna) / dk - dk * curv;
-          if (sk > hz[j] && dk > exclM) {
-            hz[j] = sk;
-            od[j] = dk;
+          if (sk > best && dk > exclM) {
+            best = sk;
+            bestM = dk;
           }
         }
+      }
+    }
+    hz[j] = best;
+    od[j] = bestM;
+  }
+}
+
+/** Writes the cells of band lines m0..m0+nb−1 from the two rays bracketing each cell centre. */
+function writeCells(
+  s: SweepSetup,
+  t: Triangle,
+  steps: number,
+  m0: number,
+  nb: number,
+  obsIdx: number,
+  buf: RayBuffers,
+  outSlope: Float32Array,
+  outObstacleM: Float32Array,
+): void {
+  const z = s.z;
+  const cell = s.cellSizeM;
+  const maxRange2 = (s.maxRangeM / cell) * (s.maxRangeM / cell);
+  const { majorStride, minorStride, minorObs } = t;
+  const minorLast = t.minorLen - 1;
+  const span = steps * RAYS_PER_PERIMETER_CELL;
+  const jMax = 2 * span - 1;
+  const bh = buf.bandHorizon;
+  const bo = buf.bandObstacleM;
+  const rpm = buf.raysPerMinor;
+  for (let b = 0; b < nb; b++) rpm[b] = span / (m0 + b);
+  const base = obsIdx - minorObs * minorStride;
+  const NEG = Number.NEGATIVE_INFINITY;
+  const mTop = m0 + nb - 1;
+  const reachTop = t.eastWest ? mTop : mTop - 1;
+  // Whole band within range (the common case): skip the per-cell range test.
+  const checkRange = mTop * mTop + reachTop * reachTop > maxRange2;
+  const qLo = Math.max(-reachTop, -minorObs);
+  const qHi = Math.min(reachTop, minorLast - minorObs);
+  if (t.eastWest) {
+    // Grid rows are the minor axis: write row by row, the band's columns contiguous.
+    for (let q = qLo; q <= qHi; q++) {
+      const aq = q < 0 ? -q : q;
+      const bStart = aq > m0 ? aq - m0 : 0;
+      const rowBase = base + (minorObs + q) * minorStride;
+      for (let b = bStart; b < nb; b++) {
+        const m = m0 + b;
+        const oi = rowBase + m * majorStride;
+        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) continue;
+        const u = q * rpm[b] + span;
+        let j0 = u | 0;
+        if (j0 > jMax) j0 = jMax;
+        const f = u - j0;
+        const ka = j0 * BAND + b;
+        const a = bh[ka];
+        const c = bh[ka + BAND];
+        let v = a + (c - a) * f;
+        const near = f < 0.5 ? ka : ka + BAND;
+        if (!(v > NEG)) v = bh[near];
+        outSlope[oi] = v;
+        outObstacleM[oi] = bo[near];
+      }
+    }
+  } else {
+    // Grid rows are the major axis: write line by line, the minor cells contiguous.
+    for (let b = 0; b < nb; b++) {
+      const m = m0 + b;
+      const lo = Math.max(-(m - 1), -minorObs);
+      const hi = Math.min(m - 1, minorLast - minorObs);
+      const lineBase = base + m * majorStride + minorObs * minorStride;
+      const r = rpm[b];
+      for (let q = lo; q <= hi; q++) {
+        const oi = lineBase + q;
+        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) continue;
+        const u = q * r + span;
+        let j0 = u | 0;
+        if (j0 > jMax) j0 = jMax;
+        const f = u - j0;
+        const ka = j0 * BAND + b;
+        const a = bh[ka];
+        const c = bh[ka + BAND];
+        let v = a + (c - a) * f;
+        const near = f < 0.5 ? ka : ka + BAND;
+        if (!(v > NEG)) v = bh[near];
+        outSlope[oi] = v;
+        outObstacleM[oi] = bo[near];
       }
     }
   }
