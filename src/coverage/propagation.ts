@@ -103,8 +103,7 @@ export function radarHorizonM(p: { antennaHeightM: number; targetHeightM: number
  * @param p.zone zone number n, a positive integer (default 1).
  * @returns metres; 0 at either end; NaN for a negative distance, both 0, f ≤ 0, a bad zone or NaN.
  * Reference: ITU-R P.526-15 §3.1 eq. (2) (number from memory): R1 = 550·√(d1·d2/((d1 + d2)·f)) m,
- * d in km, f in MHz
- * (550 is the rounded value of √(c·10⁻³)); here the exact form with λ = c/f.
+ * d in km, f in MHz (550 is the rounded value of √(c·10⁻³)); here the exact form with λ = c/f.
  */
 export function fresnelZoneRadiusM(p: {
   frequencyHz: number;
