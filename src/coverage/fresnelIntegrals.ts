@@ -61,7 +61,7 @@ function fresnelContinuedFraction(x: number): FresnelPair {
     bRe += 4;
     // D = 1 / (b + a·D)
     let denRe = bRe + a * dRe;
-    let denIm = bIm + a * dIm;
+    const denIm = bIm + a * dIm;
     if (denRe === 0 && denIm === 0) denRe = TINY;
     let mag = denRe * denRe + denIm * denIm;
     dRe = denRe / mag;
@@ -77,8 +77,7 @@ function fresnelContinuedFraction(x: number): FresnelPair {
     const nRe = fRe * delRe - fIm * delIm;
     fIm = fRe * delIm + fIm * delRe;
     fRe = nRe;
-    denIm = delIm;
-    if (Math.abs(delRe - 1) + Math.abs(denIm) < CONVERGED) break;
+    if (Math.abs(delRe - 1) + Math.abs(delIm) < CONVERGED) break;
   }
   // h = 1 / f
   const fMag = fRe * fRe + fIm * fIm;
