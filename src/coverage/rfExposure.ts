@@ -4,6 +4,8 @@
  * This is a planning estimate, not a compliance assessment: see RF_SAFETY_CAUTIONS.
  */
 import { SPEED_OF_LIGHT_M_PER_S } from "./constants.ts";
+import type { RadarModel } from "./radarModel.ts";
+import { dbToLinear } from "./units.ts";
 
 const HZ_PER_MHZ = 1e6;
 /** 1 mW/cm² = 10 W/m² (unit definition: 1e-3 W / 1e-4 m²). */
@@ -216,6 +218,61 @@ export function complianceTable(p: {
     row("FCC 47 CFR 1.1310", "general public", fcc.publicWPerM2, fcc.publicAveragingTimeS),
     row("FCC 47 CFR 1.1310", "occupational", fcc.occupationalWPerM2, fcc.occupationalAveragingTimeS),
   ];
+}
+
+/** RF exposure figures of one radar model, for the stopped (worst) and the scanning case. */
+export interface RadarExposure {
+  /** Carrier frequency, Hz. */
+  frequencyHz: number;
+  /** Peak EIRP on the transmit beam axis, W: peak power × peak transmit gain. */
+  peakEirpW: number;
+  /** Transmit duty cycle, in [0, 1]. */
+  dutyCycle: number;
+  /** Fraction of time the beam dwells on a fixed point while scanning, in (0, 1]. */
+  scanFraction: number;
+  /** Time-averaged EIRP with the antenna stopped (or staring), W. */
+  averageEirpStoppedW: number;
+  /** Time-averaged EIRP while scanning as specified, W (equal to the stopped value for a staring radar). */
+  averageEirpScanningW: number;
+  /** Compliance rows for the stopped antenna: the figures to plan with. */
+  stopped: ComplianceRow[];
+  /** Compliance rows while scanning normally. */
+  scanning: ComplianceRow[];
+}
+
+/**
+ * RF exposure of a radar model: peak EIRP, duty cycle, scan dwell fraction and the compliance distances.
+ * Duty cycle: pulse width × PRF for a pulsed waveform; ramp time / chirp period for FMCW (idle time
+ * between frames ignored: an upper bound). Scan fraction: azimuth beamwidth / 360° when rotating,
+ * azimuth beamwidth / sector width when sector-scanning, 1 when staring; each capped at 1.
+ * @param radar a validated radar model (frequency, transmitter, waveform, transmit antenna, scan).
+ * @returns powers in W, fractions in [0, 1], rows as complianceTable; NaN fields where an input is out
+ *   of range (the schema in src/io rejects such models first).
+ * Reference: timeAveragedEirpW, complianceTable (FCC OET Bulletin 65 §2, common practice).
+ */
+export function radarExposure(radar: RadarModel): RadarExposure {
+  const peakEirpW = radar.transmitter.peakPowerW * dbToLinear(radar.txAntenna.peakGainDbi);
+  const w = radar.waveform;
+  const rawDuty = w.kind === "pulsed" ? w.pulseWidthS * w.prfHz : w.chirpDurationS / w.chirpPeriodS;
+  const dutyCycle = Math.min(1, rawDuty);
+  const beamDeg = radar.txAntenna.azBeamwidthDeg;
+  const s = radar.scan;
+  const rawScan =
+    s.kind === "rotating" ? beamDeg / 360 : s.kind === "sector" ? beamDeg / s.sectorWidthDeg : 1;
+  const scanFraction = Math.min(1, rawScan);
+  const averageEirpStoppedW = timeAveragedEirpW({ peakEirpW, dutyCycle });
+  const averageEirpScanningW = timeAveragedEirpW({ peakEirpW, dutyCycle, scanFraction });
+  const frequencyHz = radar.frequencyHz;
+  return {
+    frequencyHz,
+    peakEirpW,
+    dutyCycle,
+    scanFraction,
+    averageEirpStoppedW,
+    averageEirpScanningW,
+    stopped: complianceTable({ frequencyHz, eirpAvgW: averageEirpStoppedW }),
+    scanning: complianceTable({ frequencyHz, eirpAvgW: averageEirpScanningW }),
+  };
 }
 
 /** The cautions printed with every exposure figure, in the report and on the command line. */

@@ -1,4 +1,5 @@
 import { describe, expect, it } from "vitest";
+import type { AntennaSpec, RadarModel } from "../../src/coverage/radarModel.ts";
 import {
   complianceDistanceM,
   complianceTable,
@@ -6,6 +7,7 @@ import {
   farFieldDistanceM,
   powerDensityWPerM2,
   RF_SAFETY_CAUTIONS,
+  radarExposure,
   timeAveragedEirpW,
 } from "../../src/coverage/rfExposure.ts";
 import { dbToLinear } from "../../src/coverage/units.ts";
@@ -163,5 +165,58 @@ describe("RF exposure: power density and compliance distance", () => {
     ]) {
       expect(text).toContain(must);
     }
+  });
+
+  it("[RF4] a radar model's exposure (invented rotating X-band radar, hand calculation): 25 kW peak EIRP, 1 % duty, 2°/360° dwell", () => {
+    const antenna: AntennaSpec = {
+      peakGainDbi: 30,
+      azBeamwidthDeg: 2,
+      elBeamwidthDeg: 20,
+      sidelobeFloorDb: -30,
+      mainBeam: "gaussian",
+    };
+    const radar: RadarModel = {
+      id: "invented-x",
+      name: "Invented rotating X-band",
+      invented: true,
+      frequencyHz: 9.4 * GHZ,
+      transmitter: { peakPowerW: 25 },
+      receiver: { noiseFigureDb: 3, systemLossDb: 4 },
+      waveform: { kind: "pulsed", pulseWidthS: 1e-6, prfHz: 10e3, pulsesIntegrated: 16 },
+      txAntenna: antenna,
+      scan: { kind: "rotating", fovElDeg: 20 },
+      updateIntervalS: 2,
+      blindZoneM: 150,
+      maxInstrumentedRangeM: 12_000,
+    };
+    const e = radarExposure(radar);
+    expect(e.peakEirpW).toBeCloseTo(25_000, 6);
+    expect(e.dutyCycle).toBeCloseTo(0.01, 12);
+    expect(e.scanFraction).toBeCloseTo(2 / 360, 12);
+    expect(e.averageEirpStoppedW).toBeCloseTo(250, 6);
+    expect(e.stopped[0].distanceM).toBeCloseTo(1.4105, 4);
+    expect(e.scanning[0].distanceM).toBeCloseTo(1.4105 * Math.sqrt(2 / 360), 4);
+    // An FMCW radar ramping 80 µs of every 100 µs, staring: duty 0.8, no scan reduction.
+    const fmcw = radarExposure({
+      ...radar,
+      frequencyHz: 24.125 * GHZ,
+      transmitter: { peakPowerW: 0.1 },
+      waveform: {
+        kind: "fmcw",
+        chirpBandwidthHz: 250e6,
+        chirpDurationS: 80e-6,
+        chirpPeriodS: 100e-6,
+        chirpsPerFrame: 128,
+        ifSampleRateHz: 10e6,
+        ifSampling: "complex",
+      },
+      txAntenna: { ...antenna, peakGainDbi: 20, azBeamwidthDeg: 15 },
+      scan: { kind: "staring", fovAzDeg: 90, fovElDeg: 20 },
+    });
+    expect(fmcw.dutyCycle).toBeCloseTo(0.8, 12);
+    expect(fmcw.scanFraction).toBe(1);
+    expect(fmcw.averageEirpScanningW).toBeCloseTo(8, 9);
+    // r = √(8 / (4π · 10)) = 0.2523 m.
+    expect(fmcw.stopped[0].distanceM).toBeCloseTo(0.2523, 4);
   });
 });
