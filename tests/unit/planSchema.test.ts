@@ -33,8 +33,11 @@ function deepFreeze<T>(v: T): T {
 /** Every path to a value inside a JSON document (objects and arrays included). */
 function allPaths(v: unknown, prefix: (string | number)[] = []): (string | number)[][] {
   const out: (string | number)[][] = [prefix];
-  if (Array.isArray(v)) v.forEach((x, i) => out.push(...allPaths(x, [...prefix, i])));
-  else if (typeof v === "object" && v !== null) {
+  if (Array.isArray(v)) {
+    v.forEach((x, i) => {
+      out.push(...allPaths(x, [...prefix, i]));
+    });
+  } else if (typeof v === "object" && v !== null) {
     for (const [k, x] of Object.entries(v)) out.push(...allPaths(x, [...prefix, k]));
   }
   return out;

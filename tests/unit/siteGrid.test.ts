@@ -1,0 +1,225 @@
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import fc from "fast-check";
+import { describe, expect, it } from "vitest";
+import type { Plan } from "../../src/io/planSchema.ts";
+import { parsePlan } from "../../src/io/planValidation.ts";
+import {
+  AUTO_CELL_SIZES_M,
+  checkRunMemory,
+  DEFAULT_GRID_MARGIN_M,
+  estimateRunMemoryBytes,
+  MAX_AUTO_CELLS,
+  RUN_MEMORY_BUDGET_BYTES,
+  runSizeOf,
+  SiteGridError,
+  siteGridFrame,
+  utmZoneOf,
+} from "../../src/io/siteGrid.ts";
+
+const v1Text = readFileSync(join(import.meta.dirname, "../fixtures/planFormat/example-plan.v1.json"), "utf8");
+
+function plan(edit?: (p: Plan) => void): Plan {
+  const r = parsePlan(JSON.parse(v1Text));
+  if (!r.ok) throw new Error(JSON.stringify(r.errors));
+  edit?.(r.plan);
+  return r.plan;
+}
+
+/** A square protected area of half-side `halfDeg` around (lon, lat). */
+function squareAround(lon: number, lat: number, halfDeg: number): Plan["protectedAreas"][number] {
+  const ring = [
+    [lon - halfDeg, lat - halfDeg],
+    [lon + halfDeg, lat - halfDeg],
+    [lon + halfDeg, lat + halfDeg],
+    [lon - halfDeg, lat + halfDeg],
+    [lon - halfDeg, lat - halfDeg],
+  ];
+  return { id: "sq", name: "Square", geometry: { type: "Polygon", coordinates: [ring] } };
+}
+
+describe("site grid", () => {
+  it("[SG1] UTM zones: regular zones, zone edges, hemispheres, Norway and Svalbard exceptions", () => {
+    expect(utmZoneOf(15, 60)).toEqual({ zone: 33, south: false });
+    expect(utmZoneOf(-180, 0)).toEqual({ zone: 1, south: false });
+    expect(utmZoneOf(180, 0)?.zone).toBe(60);
+    expect(utmZoneOf(179.999, -5)).toEqual({ zone: 60, south: true });
+    expect(utmZoneOf(6, 45)?.zone).toBe(32);
+    expect(utmZoneOf(5.999999, 45)?.zone).toBe(31);
+    // 32V widened west over Norway (56°–64° N, 3°–12° E).
+    expect(utmZoneOf(3.5, 60)?.zone).toBe(32);
+    expect(utmZoneOf(3.5, 55.9)?.zone).toBe(31);
+    expect(utmZoneOf(3.5, 64)?.zone).toBe(31);
+    expect(utmZoneOf(2.9, 60)?.zone).toBe(31);
+    // Svalbard: 31X, 33X, 35X, 37X only.
+    expect(utmZoneOf(8.9, 78)?.zone).toBe(31);
+    expect(utmZoneOf(9, 78)?.zone).toBe(33);
+    expect(utmZoneOf(20.9, 78)?.zone).toBe(33);
+    expect(utmZoneOf(21, 78)?.zone).toBe(35);
+    expect(utmZoneOf(33, 78)?.zone).toBe(37);
+    expect(utmZoneOf(42, 78)?.zone).toBe(38);
+    expect(utmZoneOf(10, 71.9)?.zone).toBe(32);
+    // Outside UTM or not numbers.
+    expect(utmZoneOf(10, 84.1)).toBeNull();
+    expect(utmZoneOf(10, -80.1)).toBeNull();
+    expect(utmZoneOf(Number.NaN, 0)).toBeNull();
+  });
+
+  it("[SG2] the frame covers the protected areas, the approach ring, the posts and the margin, on whole cells", () => {
+    const p = plan();
+    const g = siteGridFrame(p);
+    const f = g.frame;
+    expect(g.zone).toEqual({ zone: 33, south: false });
+    expect(g.epsg).toBe(32633);
+    expect(f.crs).toBe("+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs");
+    expect(f.originX % f.cellSizeM).toBe(0);
+    expect(f.originY % f.cellSizeM).toBe(0);
+    const maxX = f.originX + f.width * f.cellSizeM;
+    const minY = f.originY - f.height * f.cellSizeM;
+    const reach = p.approachRingDepthM + DEFAULT_GRID_MARGIN_M;
+    for (const area of p.protectedAreas) {
+      const polys =
+        area.geometry.type === "Polygon" ? [area.geometry.coordinates] : area.geometry.coordinates;
+      for (const ring of polys.flat()) {
+        for (const [lon, lat] of ring) {
+          const [x, y] = g.toGrid(lon, lat);
+          expect(x - reach).toBeGreaterThanOrEqual(f.originX);
+          expect(x + reach).toBeLessThanOrEqual(maxX);
+          expect(y + reach).toBeLessThanOrEqual(f.originY);
+          expect(y - reach).toBeGreaterThanOrEqual(minY);
+        }
+      }
+    }
+    // Tight: no more than one cell beyond the farthest requirement on each side.
+    const xs = p.protectedAreas.flatMap((a) =>
+      (a.geometry.type === "Polygon" ? [a.geometry.coordinates] : a.geometry.coordinates)
+        .flat(2)
+        .map(([lon, lat]) => g.toGrid(lon, lat)[0]),
+    );
+    expect(Math.min(...xs) - reach - f.originX).toBeLessThan(f.cellSizeM);
+  });
+
+  it("[SG2] a post outside the ring widens the frame to include it", () => {
+    const base = siteGridFrame(plan());
+    const far = siteGridFrame(
+      plan((p) => {
+        p.posts[0].position = { lonDeg: 16.2, latDeg: 62.35 };
+      }),
+    );
+    const [x, y] = far.toGrid(16.2, 62.35);
+    expect(x).toBeLessThanOrEqual(
+      far.frame.originX + far.frame.width * far.frame.cellSizeM - DEFAULT_GRID_MARGIN_M,
+    );
+    expect(y).toBeLessThanOrEqual(far.frame.originY - DEFAULT_GRID_MARGIN_M);
+    expect(far.frame.width).toBeGreaterThan(base.frame.width);
+    // The zone follows the protected areas only.
+    expect(far.zone).toEqual(base.zone);
+  });
+
+  it("[SG3] automatic cell size: 5 m when it fits, else the next size that keeps the count under the cap", () => {
+    const small = siteGridFrame(plan());
+    expect(small.frame.cellSizeM).toBe(5);
+    expect(small.autoCellSize).toBe(true);
+    const big = siteGridFrame(plan((p) => (p.approachRingDepthM = 20000)));
+    expect(big.cellCount).toBeLessThanOrEqual(MAX_AUTO_CELLS);
+    const i = AUTO_CELL_SIZES_M.indexOf(big.frame.cellSizeM);
+    expect(i).toBeGreaterThan(0);
+    // The next smaller size would have exceeded the cap.
+    const smaller = AUTO_CELL_SIZES_M[i - 1];
+    const spanX = big.frame.width * big.frame.cellSizeM;
+    const spanY = big.frame.height * big.frame.cellSizeM;
+    expect(
+      Math.ceil((spanX - big.frame.cellSizeM) / smaller) * Math.ceil((spanY - big.frame.cellSizeM) / smaller),
+    ).toBeGreaterThan(MAX_AUTO_CELLS);
+    const fixed = siteGridFrame(plan((p) => (p.analysis.cellSizeM = 2.5)));
+    expect(fixed.frame.cellSizeM).toBe(2.5);
+    expect(fixed.autoCellSize).toBe(false);
+  });
+
+  it("[SG4] southern hemisphere and antimeridian-adjacent sites get their own zone; bad sites are refused", () => {
+    const south = siteGridFrame(
+      plan((p) => {
+        p.protectedAreas = [squareAround(151.2, -33.9, 0.01)];
+        p.posts = [];
+      }),
+    );
+    expect(south.frame.crs).toContain("+south");
+    expect(south.epsg).toBe(32756);
+    const east = siteGridFrame(
+      plan((p) => {
+        p.protectedAreas = [squareAround(179.9, 10, 0.01)];
+        p.posts = [];
+      }),
+    );
+    expect(east.zone.zone).toBe(60);
+    expect(() =>
+      siteGridFrame(
+        plan((p) => {
+          p.protectedAreas = [squareAround(179.99, 10, 0.005)];
+          p.posts[0].position = { lonDeg: -179.99, latDeg: 10 };
+        }),
+      ),
+    ).toThrow(/antimeridian/);
+    const tooBig = () =>
+      siteGridFrame(
+        plan((p) => {
+          p.posts[0].position = { lonDeg: 20, latDeg: 62.3 };
+        }),
+      );
+    expect(tooBig).toThrow(SiteGridError);
+    expect(tooBig).toThrow(/km across .* above the 200 km limit/);
+  });
+
+  it("[SG5] toGrid and toLonLat are inverse to within 1 mm (property)", () => {
+    const g = siteGridFrame(plan());
+    fc.assert(
+      fc.property(
+        fc.double({ min: 15.5, max: 16.5, noNaN: true }),
+        fc.double({ min: 62, max: 62.6, noNaN: true }),
+        (lon, lat) => {
+          const [x, y] = g.toGrid(lon, lat);
+          const [lon2, lat2] = g.toLonLat(x, y);
+          const [x2, y2] = g.toGrid(lon2, lat2);
+          // 1 mm is far below any cell size; proj4's transverse Mercator round trip is at the µm level.
+          expect(Math.hypot(x2 - x, y2 - y)).toBeLessThan(1e-3);
+        },
+      ),
+    );
+    expect(g.toGrid(Number.NaN, 62)).toEqual([Number.NaN, Number.NaN]);
+    expect(g.toLonLat(Number.POSITIVE_INFINITY, 0)).toEqual([Number.NaN, Number.NaN]);
+  });
+
+  it("[SG6] the memory estimate follows its formula, and a run above the budget is refused with a clear message", () => {
+    // 10 + radars × (12 + 9·heights) + 16·heights bytes per cell.
+    expect(estimateRunMemoryBytes({ cells: 1, radars: 0, heights: 0 })).toBe(10);
+    expect(estimateRunMemoryBytes({ cells: 1, radars: 1, heights: 1 })).toBe(10 + 21 + 16);
+    expect(estimateRunMemoryBytes({ cells: 1000, radars: 10, heights: 3 })).toBe(1000 * (10 + 10 * 39 + 48));
+    expect(estimateRunMemoryBytes({ cells: -1, radars: 1, heights: 1 })).toBeNaN();
+    expect(estimateRunMemoryBytes({ cells: Number.NaN, radars: 1, heights: 1 })).toBeNaN();
+    // The design's interactive case fits: 4 M cells, 10 radars, 3 heights.
+    expect(checkRunMemory({ cells: MAX_AUTO_CELLS, radars: 10, heights: 3 }).ok).toBe(true);
+    const huge = checkRunMemory({ cells: 40_000_000, radars: 10, heights: 3 });
+    expect(huge.ok).toBe(false);
+    if (!huge.ok) {
+      expect(huge.message).toBe(
+        "this run needs about 16.69 GiB (40,000,000 cells, 10 radars, 3 heights), above the 2.00 GiB budget; use a larger analysis.cellSizeM, fewer target heights or fewer enabled posts",
+      );
+    }
+    expect(checkRunMemory({ cells: 100, radars: 300, heights: 1 }).ok).toBe(false);
+    expect(checkRunMemory({ cells: 100, radars: 1, heights: 1 }, 100).ok).toBe(false);
+    // Monotone in every count.
+    fc.assert(
+      fc.property(fc.nat(1e7), fc.nat(50), fc.nat(10), (cells, radars, heights) => {
+        const b = estimateRunMemoryBytes({ cells, radars, heights });
+        expect(estimateRunMemoryBytes({ cells: cells + 1, radars, heights })).toBeGreaterThan(b);
+        expect(estimateRunMemoryBytes({ cells, radars: radars + 1, heights })).toBeGreaterThanOrEqual(b);
+        expect(estimateRunMemoryBytes({ cells, radars, heights: heights + 1 })).toBeGreaterThanOrEqual(b);
+      }),
+    );
+    const p = plan();
+    const size = runSizeOf(p, siteGridFrame(p));
+    expect(size.radars).toBe(1); // the second post is disabled
+    expect(size.heights).toBe(3);
+    expect(RUN_MEMORY_BUDGET_BYTES).toBe(2 * 1024 ** 3);
+  });
+});
