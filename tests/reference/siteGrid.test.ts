@@ -57,7 +57,8 @@ function planAt(lon: number, lat: number, halfDeg = 0.001, cellSizeM: number | "
 function geodesicAreaM2(corners: [number, number][]): number {
   const poly = Geodesic.WGS84.Polygon(false);
   for (const [lon, lat] of corners) poly.AddPoint(lat, lon);
-  return Math.abs(poly.Compute(false, true).area);
+  // A polygon (not a polyline) always has an area; NaN would fail the checks below.
+  return Math.abs(poly.Compute(false, true).area ?? Number.NaN);
 }
 
 describe("site grid geodesy (reference)", () => {
