@@ -59,13 +59,13 @@ export interface RadarEquationParams {
 
 const FOUR_PI_CUBED = (4 * Math.PI) ** 3;
 
-function finiteOr(x: number | undefined, fallback: number): number {
+function orDefault(x: number | undefined, fallback: number): number {
   return x === undefined ? fallback : x;
 }
 
 /** Sum of the two-way losses in p, dB (system + atmospheric + rain). NaN when any is NaN. */
 export function totalLossDb(p: RadarEquationParams): number {
-  return p.systemLossDb + finiteOr(p.atmosphericLossDb, 0) + finiteOr(p.rainLossDb, 0);
+  return p.systemLossDb + orDefault(p.atmosphericLossDb, 0) + orDefault(p.rainLossDb, 0);
 }
 
 /** True when the parameters lie in the domain of the radar equation. */
@@ -85,7 +85,7 @@ function inDomain(p: RadarEquationParams): boolean {
     Number.isFinite(p.rxGainDbi) &&
     Number.isFinite(p.noiseFigureDb) &&
     Number.isFinite(totalLossDb(p)) &&
-    !Number.isNaN(finiteOr(p.propagationFactorDb, 0))
+    !Number.isNaN(orDefault(p.propagationFactorDb, 0))
   );
 }
 
@@ -126,7 +126,7 @@ export function snrConstant(p: RadarEquationParams): number {
  */
 export function snrAtRange(p: RadarEquationParams, rangeM: number): number {
   if (!(rangeM >= 0)) return Number.NaN;
-  const c = snrConstant(p) * dbToLinear(finiteOr(p.propagationFactorDb, 0));
+  const c = snrConstant(p) * dbToLinear(orDefault(p.propagationFactorDb, 0));
   if (c === 0) return 0;
   const r2 = rangeM * rangeM;
   return c / (r2 * r2);
@@ -148,8 +148,46 @@ export function snrAtRangeDb(p: RadarEquationParams, rangeM: number): number {
  */
 export function rangeForSnr(p: RadarEquationParams, requiredSnrDb: number): number {
   if (Number.isNaN(requiredSnrDb)) return Number.NaN;
-  const c = snrConstant(p) * dbToLinear(finiteOr(p.propagationFactorDb, 0));
+  const c = snrConstant(p) * dbToLinear(orDefault(p.propagationFactorDb, 0));
   return Math.sqrt(Math.sqrt(c / dbToLinear(requiredSnrDb)));
+}
+
+/** Metres per kilometre (definition of the kilometre). */
+const M_PER_KM = 1000;
+/** d(10·log10 R⁴)/d(ln R), dB per neper of range: 40 / ln 10. */
+const DB_PER_LN_RANGE = 40 / Math.LN10;
+
+/**
+ * Range at which a required SNR is reached when a uniform specific attenuation acts along the path, m:
+ * the root of 10·log10(C·F⁴) − 40·log10 R − 2·γ·R/1000 = SNR_req (γ one way in dB/km, as ITU-R P.676 and
+ * P.838 give it; the loss counts both ways). Solved by Newton's method in ln R from the free-space range,
+ * which converges monotonically because the left side is concave and decreasing in ln R. The losses
+ * already in p (system, atmospheric, rain) are applied as given, in addition to γ.
+ * @param requiredSnrDb required SNR, dB.
+ * @param specificAttenuationDbPerKm one-way specific attenuation γ, dB/km ≥ 0 (0 gives rangeForSnr).
+ * @returns metres ≥ 0, never beyond the free-space range; NaN for NaN, γ < 0, or p out of domain.
+ */
+export function rangeForSnrWithAttenuation(
+  p: RadarEquationParams,
+  requiredSnrDb: number,
+  specificAttenuationDbPerKm: number,
+): number {
+  const freeSpaceM = rangeForSnr(p, requiredSnrDb);
+  if (!(specificAttenuationDbPerKm >= 0) || Number.isNaN(freeSpaceM)) return Number.NaN;
+  if (specificAttenuationDbPerKm === 0 || freeSpaceM === 0) return freeSpaceM;
+  const twoWayDbPerM = (2 * specificAttenuationDbPerKm) / M_PER_KM;
+  if (!Number.isFinite(freeSpaceM)) return Number.POSITIVE_INFINITY;
+  // h(x) = 40·log10(e^x) + a·e^x − 40·log10(R0), increasing and convex in x = ln R; h(ln R0) ≥ 0.
+  const x0 = Math.log(freeSpaceM);
+  let x = x0;
+  for (let i = 0; i < 100; i++) {
+    const r = Math.exp(x);
+    const h = DB_PER_LN_RANGE * (x - x0) + twoWayDbPerM * r;
+    const step = h / (DB_PER_LN_RANGE + twoWayDbPerM * r);
+    x -= step;
+    if (Math.abs(step) < 1e-14) break;
+  }
+  return Math.min(Math.exp(x), freeSpaceM);
 }
 
 /**

@@ -14,6 +14,7 @@ import {
   type RadarEquationParams,
   radarEquationParams,
   rangeForSnr,
+  rangeForSnrWithAttenuation,
   snrAtRange,
   snrAtRangeDb,
   snrConstant,
@@ -133,6 +134,7 @@ interface FixtureCase {
   source: string;
   inputs: RadarEquationParams & { noiseBandwidthHz: number };
   points: { rangeM: number; terms: Partial<Record<LinkBudgetRowId, number>>; snrDb: number }[];
+  attenuatedRanges: { requiredSnrDb: number; specificAttenuationDbPerKm: number; rangeM: number }[];
 }
 const fixture = JSON.parse(
   readFileSync(new URL("../fixtures/radarEquation/budgets.json", import.meta.url), "utf8"),
@@ -151,6 +153,17 @@ describe("[RE5] link budget term by term against an independent implementation (
         }
         expect(Math.abs(b.snrDb - pt.snrDb)).toBeLessThan(1e-9);
         expect(Math.abs(sumOfTermsDb(b) - pt.snrDb)).toBeLessThan(1e-9);
+      });
+    }
+  }
+
+  for (const c of fixture.cases) {
+    for (const a of c.attenuatedRanges) {
+      it(`[RE4] range with ${a.specificAttenuationDbPerKm} dB/km attenuation for ${a.requiredSnrDb} dB: ${c.name} (scipy brentq)`, () => {
+        const r = rangeForSnrWithAttenuation(c.inputs, a.requiredSnrDb, a.specificAttenuationDbPerKm);
+        // Two root finders converged to 1e-9 m and 1e-14 in ln R: agreement to 1e-6 relative.
+        expect(Math.abs(r / a.rangeM - 1)).toBeLessThan(1e-6);
+        expect(r).toBeLessThan(rangeForSnr(c.inputs, a.requiredSnrDb));
       });
     }
   }

@@ -6,6 +6,7 @@ import { linkBudget, sumOfTermsDb } from "../../src/coverage/linkBudget.ts";
 import {
   type RadarEquationParams,
   rangeForSnr,
+  rangeForSnrWithAttenuation,
   snrAtRange,
   snrAtRangeDb,
   snrConstant,
@@ -56,6 +57,28 @@ describe("radar equation properties", () => {
         expect(Math.abs(snrAtRangeDb(p, rangeForSnr(p, snrDb)) - snrDb)).toBeLessThan(1e-9);
       }),
     );
+  });
+
+  it("[RE4] range with attenuation: the SNR there, with the two-way path loss added, is the required SNR", () => {
+    fc.assert(
+      fc.property(
+        params,
+        fc.double({ min: -10, max: 30, noNaN: true }),
+        fc.double({ min: 0, max: 20, noNaN: true }),
+        (p, snrDb, gammaDbPerKm) => {
+          const r = rangeForSnrWithAttenuation(p, snrDb, gammaDbPerKm);
+          expect(r).toBeLessThanOrEqual(rangeForSnr(p, snrDb));
+          const pathLossDb = (2 * gammaDbPerKm * r) / 1000;
+          const atR = snrAtRangeDb({ ...p, atmosphericLossDb: (p.atmosphericLossDb ?? 0) + pathLossDb }, r);
+          // Newton to 1e-14 in ln R: the SNR residual is below 1e-9 dB.
+          expect(Math.abs(atR - snrDb)).toBeLessThan(1e-9);
+        },
+      ),
+    );
+    const p0 = { ...fc.sample(params, { numRuns: 1, seed: 1 })[0] };
+    expect(rangeForSnrWithAttenuation(p0, 10, 0)).toBe(rangeForSnr(p0, 10));
+    expect(rangeForSnrWithAttenuation(p0, 10, -1)).toBeNaN();
+    expect(rangeForSnrWithAttenuation(p0, Number.NaN, 1)).toBeNaN();
   });
 
   it("[RE5] the link-budget rows sum to the SNR for any noise bandwidth", () => {
