@@ -7,7 +7,7 @@
  * floored at the sidelobe level: the usual planning approximation, good near the horizon where
  * surveillance radars look (Barton, Radar System Analysis and Modeling, 2005, ch. 3, from memory).
  * Sidelobes are not modelled one by one; the floor stands for them. Angles in degrees; azimuths clockwise
- * from true north; elevation and tilt positive up. Rules AP1–AP8 in docs/model-spec.md.
+ * from true north; elevation and tilt positive up. Rules AP1–AP7 in docs/model-spec.md (gain estimates: AP8, antennaGain.ts).
  *
  * Kernels are total: NaN in gives NaN out; no throw.
  */

@@ -10,7 +10,7 @@
  * energy of N coherently integrated pulses. Term-by-term checks: tests/reference/radarEquation.test.ts.
  *
  * All functions are total: NaN in gives NaN out, inputs out of domain give NaN, never a throw.
- * Rules RE1–RE6 in docs/model-spec.md.
+ * Rules RE1–RE7 in docs/model-spec.md (waveform figures: RE8, waveform.ts).
  */
 
 import { BOLTZMANN_J_PER_K, REFERENCE_TEMPERATURE_K } from "./constants.ts";

@@ -154,7 +154,7 @@ export function fmcwMaxRangeM(w: FmcwWaveform): number {
 /**
  * Unambiguous range of a pulsed waveform, m: R_u = c / (2 · PRF) (Skolnik, 3rd ed., Sec. 1.1, from memory).
  * Informational: the model's instrumented limit is maxInstrumentedRangeM (a radar may resolve ambiguities).
- * @returns metres; NaN for a non-positive PRF.
+ * @returns metres; NaN for a non-positive PRF, and for FMCW (whose limit is fmcwMaxRangeM).
  */
 export function unambiguousRangeM(w: Waveform): number {
   if (w.kind !== "pulsed") return Number.NaN;
