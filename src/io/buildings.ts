@@ -209,9 +209,16 @@ function inputText(input: string | ArrayBuffer | Uint8Array, file: string): stri
 
 function parseXml(text: string, file: string) {
   try {
-    return new DOMParser().parseFromString(text, "text/xml");
+    // Errors and fatal errors stop the parse (no partial document); warnings are ignored.
+    const parser = new DOMParser({
+      onError: (level, message) => {
+        if (level !== "warning") throw new Error(message);
+      },
+    });
+    return parser.parseFromString(text, "text/xml");
   } catch (e) {
-    throw new ImportError(file, `not well-formed XML (${(e as Error).message.split("\n")[0]})`);
+    const reason = (e as Error).message.split("\n")[0].replace(/^Reporting \w+ "|" caused .*$/g, "");
+    throw new ImportError(file, `not well-formed XML (${reason})`);
   }
 }
 
