@@ -273,13 +273,25 @@ export const areaGeometrySchema = z.discriminatedUnion("type", [polygonSchema, m
       : "is required (a GeoJSON geometry)",
 });
 
+/** The radar model as the plan holds it; one entry in the JSON Schema's $defs. */
+const planRadarModelSchema = radarModelSchema.meta({
+  id: "RadarModel",
+  description: "A radar model (the same fields as a radar model file)",
+});
+
+/** Area geometry as the plan holds it; one entry in the JSON Schema's $defs. */
+const planAreaGeometrySchema = areaGeometrySchema.meta({
+  id: "AreaGeometry",
+  description: "GeoJSON Polygon or MultiPolygon, WGS84 lon/lat (RFC 7946)",
+});
+
 const heightAglM = quantity({ unit: "m", min: 0, max: 10000, description: "Height above ground, m" });
 
 const protectedAreaSchema = record(
   {
     id: identifier("Identifier of the area"),
     name: displayName("Display name"),
-    geometry: areaGeometrySchema,
+    geometry: planAreaGeometrySchema,
   },
   "A protected area",
 );
@@ -300,7 +312,7 @@ const postSchema = record(
       description: "Antenna height above ground at the post (AGL), m; includes the building for a roof post",
     }),
     radarModelId: identifier("Id of a model in radarModels").optional(),
-    radarModel: radarModelSchema.optional(),
+    radarModel: planRadarModelSchema.optional(),
     boresightAzDeg: quantity({
       unit: "deg",
       min: 0,
@@ -435,7 +447,7 @@ const buildingFeatureSchema = z
   .object({
     type: z.literal("Feature"),
     id: z.union([z.string(), z.number()]).optional(),
-    geometry: areaGeometrySchema,
+    geometry: planAreaGeometrySchema,
     properties: buildingPropertiesSchema.default({}),
   })
   .meta({ description: "A building footprint (GeoJSON Feature)" });
@@ -456,7 +468,7 @@ const terrainSchema = record(
           {
             id: identifier("Identifier of the tree stand"),
             name: displayName("Display name").optional(),
-            geometry: areaGeometrySchema,
+            geometry: planAreaGeometrySchema,
             canopyHeightM: quantity({
               unit: "m",
               gt: 0,
@@ -529,7 +541,7 @@ export const planSchema = record(
     }),
     posts: z.array(postSchema).default([]).meta({ description: "Candidate posts" }),
     radarModels: z
-      .array(radarModelSchema)
+      .array(planRadarModelSchema)
       .default([])
       .meta({ description: "Radar models posts refer to by id" }),
     targetClasses: z

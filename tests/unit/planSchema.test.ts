@@ -3,6 +3,7 @@ import { join } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../../src/coverage/constants.ts";
+import { jsonSchemaText, planJsonSchema, radarJsonSchema } from "../../src/io/planJsonSchema.ts";
 import { migratePlan, migrateV0toV1 } from "../../src/io/planMigrations.ts";
 import { PLAN_VERSION } from "../../src/io/planSchema.ts";
 import { loadPlanFile, parsePlan, radarModelOfPost } from "../../src/io/planValidation.ts";
@@ -349,5 +350,13 @@ describe("plan format", () => {
     const line = broken.split("\n").findIndex((l) => l.includes('"approachRingDepthM"')) + 2;
     expect(r.errors[0].message).toMatch(new RegExp(`^line ${line}, column 3: `));
     expect(loadPlanFile(v1Text).ok).toBe(true);
+  });
+
+  it("[PF10] the published JSON Schemas in docs/ match the zod schemas (regenerate: npx tsx scripts/export-plan-schema.ts)", () => {
+    const docs = join(import.meta.dirname, "../../docs");
+    expect(readFileSync(join(docs, "plan.schema.json"), "utf8")).toBe(jsonSchemaText(planJsonSchema()));
+    expect(readFileSync(join(docs, "radar.schema.json"), "utf8")).toBe(jsonSchemaText(radarJsonSchema()));
+    const plan = planJsonSchema() as { properties: Record<string, Record<string, unknown>> };
+    expect(plan.properties.approachRingDepthM).toMatchObject({ minimum: 0, maximum: 50000, unit: "m" });
   });
 });
