@@ -1,0 +1,739 @@
+/**
+ * The per-radar coverage stage: from one radar's horizon (terrainMask.ts) to SNR, Pd and the reason a
+ * cell is or is not covered, per target height and target class (DESIGN.md model steps 4–6).
+ *
+ * Per cell and height, with Δh the target's height above the antenna after Earth curvature
+ * (Δh = ground + h − H − d²/(2ka)), R² = d² + Δh² the slant range and sin(el) = Δh/R:
+ *
+ *   SNR = C · g_t(az, el) · g_r(az, el) · F⁴(v) · A(R) / R⁴
+ *
+ * C the radar's constant for a 1 m² target with peak gains (radarEquation.ts snrConstant), g the
+ * one-way gains relative to peak (antennaPattern.ts: axis factors multiplied, floored at the sidelobe
+ * floor, zero outside the instrumented field), F⁴ the two-way knife-edge factor of the dominant
+ * obstruction (ITU-R P.526-15 §4.1, eqs. 26 and 31: F² = 10^(−J(v)/10) one way), A(R) the two-way gas
+ * loss (ITU-R P.676, atmosphere.ts) as a linear factor. Pd follows from the fast table (pdTable.ts).
+ *
+ * The hot loop does no logarithm, exponential or trigonometric call: every per-radar shape is a table
+ * built once (azimuth by a pseudo-angle, elevation by sin(el), F⁴ by v, A by R), SNR in dB comes from
+ * the Float32 bit pattern with a 1024-entry mantissa table, Pd from the pdTable lookup. Table errors
+ * are stated beside each table and checked against the exact scalar path (coveragePoint) in tests.
+ * Rules CV1–CV9 in docs/model-spec.md ("Coverage").
+ */
+import { makeRelativeGain, receiveAntenna, relativeGainDb, scanGeometry } from "./antennaPattern.ts";
+import { twoWayGasLossDb } from "./atmosphere.ts";
+import { pdExact, type SwerlingCase } from "./detection.ts";
+import type { GridFrame } from "./grid.ts";
+import { buildPdTable, type PdTable, pdFromSnr } from "./pdTable.ts";
+import { knifeEdgeLossDb } from "./propagation.ts";
+import { type RadarEquationParams, radarEquationParams, snrAtRange, snrConstant } from "./radarEquation.ts";
+import type { AntennaSpec, RadarModel, ScanMode } from "./radarModel.ts";
+import { curvatureFactorPerM, type HorizonResult } from "./terrainMask.ts";
+import { dbsmToM2, dbToLinear, linearToDb, radToDeg, wrapDeg360 } from "./units.ts";
+import { instrumentedRangeM, wavelengthM } from "./waveform.ts";
+
+/** Why a cell has the Pd it has, per radar, target class and height (one byte per cell). */
+export const Reason = {
+  /** Pd meets the requirement. */
+  covered: 0,
+  /** Below the sight line of the dominant obstruction, and too weak after its diffraction loss. */
+  masked: 1,
+  /** Beyond the maximum instrumented range (or outside the grid part the radar was computed on). */
+  outOfRange: 2,
+  /** Nearer than the blind zone. */
+  blindZone: 3,
+  /** Outside the scan sector or the instrumented field of view. */
+  outOfSector: 4,
+  /** In clear sight and in sector, but the SNR is too low for the required Pd. */
+  tooWeak: 5,
+  /** The target height is below a roof or canopy at this cell: no valid target position. */
+  insideObstruction: 6,
+  /** No ground or surface data here. */
+  nodata: 7,
+} as const;
+export type Reason = (typeof Reason)[keyof typeof Reason];
+
+/** Plain-language text of each reason code, for the app, the CLI and the report. */
+export const REASON_TEXT: Readonly<Record<Reason, string>> = {
+  0: "covered",
+  1: "masked by terrain or buildings",
+  2: "out of range",
+  3: "in the blind zone",
+  4: "out of sector",
+  5: "too weak",
+  6: "inside an obstruction",
+  7: "no data",
+};
+
+/** A radar placed on the site grid, everything resolved from the plan. */
+export interface PlacedRadar {
+  /** Post id (unique in the plan). */
+  id: string;
+  /** Post name for display. */
+  name: string;
+  model: RadarModel;
+  /** Scan mode after the post's sector override (if any). */
+  scan: ScanMode;
+  /** Antenna position in the grid frame, m. */
+  x: number;
+  y: number;
+  /** Antenna height above sea level, m (ground + mast; a roof mast includes the building). */
+  antennaHeightAslM: number;
+  /** Boresight (sector centre) azimuth, degrees clockwise from true north. */
+  boresightAzDeg: number;
+  /** Beam-axis elevation, degrees, positive up. */
+  tiltDeg: number;
+  /** Radius around the antenna that never masks it (its own roof), m; 0 for a ground mast. */
+  ownFootprintRadiusM: number;
+}
+
+/** A target class as the coverage stage needs it. */
+export interface TargetSpec {
+  id: string;
+  /** Mean RCS, dBsm. */
+  rcsDbsm: number;
+  swerling: SwerlingCase;
+  /** Heights above ground (m) this class is judged at; each one of the site's heights. */
+  heightsAglM: readonly number[];
+}
+
+/** Detection requirement: required Pd, Pfa per cell and look, looks integrated. */
+export interface DetectionRequirement {
+  requiredPd: number;
+  pfa: number;
+  looks: number;
+}
+
+/** Everything one radar's coverage depends on besides its horizon. */
+export interface RadarStageInput {
+  frame: GridFrame;
+  /** Ground, m ASL, row-major on the frame; NaN = nodata. */
+  ground: Float32Array;
+  /** Top of the building or canopy above ground per cell, m (0 on open ground). */
+  obstructionTopAglM: Float32Array;
+  radar: PlacedRadar;
+  targets: readonly TargetSpec[];
+  /** Target heights above ground, m, in the order of the outputs. */
+  heightsAglM: readonly number[];
+  requirement: DetectionRequirement;
+  /** Effective-Earth factor k (> 0, Infinity for flat earth). */
+  effectiveEarthFactor: number;
+}
+
+/** Per target class at one height. */
+export interface TargetHeightCoverage {
+  /** Pd per cell (0 where not computed or not detectable). Null when the class is not judged at this height. */
+  pd: Float32Array | null;
+  /** Reason per cell (Reason codes). Null like pd. */
+  reason: Uint8Array | null;
+}
+
+/** One height of one radar. */
+export interface RadarHeightCoverage {
+  heightAglM: number;
+  /**
+   * SNR for a 1 m² (0 dBsm) target, dB; a class of σ dBsm has SNR = this + σ. NaN where not computed
+   * (out of range, blind zone, not instrumented, inside an obstruction, nodata).
+   */
+  snrDbAt0Dbsm: Float32Array;
+  /** Per target class, in the order of the input targets. */
+  targets: TargetHeightCoverage[];
+}
+
+/** The coverage of one radar: per height, per target class. */
+export interface RadarCoverage {
+  radarId: string;
+  heightsAglM: number[];
+  targetIds: string[];
+  /** Lowest visible target height above ground per cell, m (NaN nodata / out of range); from the horizon. */
+  lowestVisibleHeightAglM: Float32Array;
+  heights: RadarHeightCoverage[];
+}
+
+/** Instrumented ranges of a radar, m (slant range). */
+export function radarRangeWindowM(model: RadarModel): { minM: number; maxM: number } {
+  return instrumentedRangeM(model);
+}
+
+// ---------------------------------------------------------------------------------------------
+// Per-radar tables
+
+/** Azimuth table bins over the pseudo-angle [0, 4): ≤ 0.011° per bin (90°/8192·√2), nearest bin. */
+const AZ_BINS = 32768;
+/** Elevation table bins over sin(el) in [−1, 1]: 2/8192 → ≤ 0.014° per bin near the horizon, nearest bin. */
+const EL_BINS = 8193;
+/** Knife-edge table: v from V_MIN (J = 0 below, ITU-R P.526 eq. 31) to V_MAX, step 0.005 (J' ≤ 8.7 dB per unit v → ≤ 0.022 dB one way). */
+const V_MIN = -0.78;
+const V_MAX = 60;
+const V_STEP = 0.005;
+/** Gas-loss table bins over [0, max range]: the loss is linear in R and tiny per bin. */
+const GAS_BINS = 4096;
+/** log2 mantissa table for SNR in dB from Float32 bits: 1024 bins → ≤ 0.0021 dB (10·log10(1 + 1/1024)/2). */
+const LOG_MANTISSA_BITS = 10;
+const F32_MANTISSA_BITS = 23;
+const F32_EXPONENT_BIAS = 127;
+/** Bit pattern of +Infinity (IEEE Std 754-2019 §3.4); above it (unsigned) lie NaNs and negatives. */
+const F32_POSITIVE_INFINITY_BITS = 0x7f800000;
+const DB_PER_LOG2 = linearToDb(2);
+
+const LOG2_MANTISSA = (() => {
+  const n = 1 << LOG_MANTISSA_BITS;
+  const t = new Float32Array(n);
+  // Centre of each bin of 1 + m/n.
+  for (let j = 0; j < n; j++) t[j] = Math.log2(1 + (j + 0.5) / n);
+  return t;
+})();
+
+/** The per-radar constants and tables of the hot loop. Plain data: it can be posted to a worker. */
+export interface RadarKernel {
+  /** SNR·m⁴ of a 1 m² target at peak gains, free space, no gas loss (snrConstant). */
+  snrConstantM4: number;
+  minRangeM: number;
+  maxRangeM: number;
+  wavelengthM: number;
+  curvaturePerM: number;
+  /** One-way azimuth factors (tx, rx) over the pseudo-angle; −1 where not instrumented. 1 bin for rotating. */
+  azTx: Float32Array;
+  azRx: Float32Array;
+  /** 1 where the azimuth lies inside the nominal sector. */
+  azInSector: Uint8Array;
+  /** One-way elevation factors (tx, rx) over sin(el); −1 outside the elevation field of view. */
+  elTx: Float32Array;
+  elRx: Float32Array;
+  /** Sidelobe floors, linear (one way). */
+  floorTx: number;
+  floorRx: number;
+  /** F⁴ (two way) over v. */
+  knifeEdgeF4: Float32Array;
+  /** Two-way gas-loss factor over R in [0, maxRangeM]. */
+  gasFactor: Float32Array;
+  /** Two-way gas loss per metre of slant range, dB/m. */
+  gasLossDbPerM: number;
+  /** Pd tables per target class, and the RCS in m². */
+  pdTables: PdTable[];
+  rcsM2: number[];
+  requiredPd: number;
+}
+
+const pdTableCache = new Map<string, PdTable>();
+
+/** The Pd table for one detection setting, built once per process (tens of ms each) and reused. */
+export function cachedPdTable(pfa: number, looks: number, swerling: SwerlingCase): PdTable {
+  const key = `${pfa}|${looks}|${swerling}`;
+  let t = pdTableCache.get(key);
+  if (t === undefined) {
+    t = buildPdTable({ pfa, looks, swerling });
+    pdTableCache.set(key, t);
+  }
+  return t;
+}
+
+/** Bearing (degrees clockwise from north) at the centre of pseudo-angle bin j. */
+function pseudoAngleBinBearingDeg(j: number): number {
+  const p = ((j + 0.5) * 4) / AZ_BINS;
+  const q = Math.floor(p);
+  const t = p - q;
+  return q * 90 + radToDeg(Math.atan2(t, 1 - t));
+}
+
+/**
+ * Pseudo-angle bin of a direction (east, north components), monotone in bearing: 0 at north,
+ * one quarter of the bins per quadrant, t = |component| / (|east| + |north|) inside a quadrant.
+ */
+export function pseudoAngleBin(east: number, north: number): number {
+  const ae = east < 0 ? -east : east;
+  const an = north < 0 ? -north : north;
+  const s = ae + an;
+  if (!(s > 0)) return 0;
+  let p: number;
+  if (east >= 0) p = north > 0 ? ae / s : 1 + an / s;
+  else p = north < 0 ? 2 + ae / s : 3 + an / s;
+  const j = (p * (AZ_BINS / 4)) | 0;
+  return j < AZ_BINS ? j : AZ_BINS - 1;
+}
+
+/** One-way axis factor of an antenna for the tables: the pattern along one axis, floored, linear. */
+function axisFactorLinear(antenna: AntennaSpec, azOffDeg: number, elOffDeg: number): number {
+  return dbToLinear(relativeGainDb(antenna, azOffDeg, elOffDeg));
+}
+
+/**
+ * Builds the per-radar constants and tables (tens of milliseconds, dominated by the Pd tables on first
+ * use). The two-way gain is g_t·g_r with g = max(f_az·f_el, floor): the axis factors are tabulated
+ * separately, each floored, which gives the same g (a factor below the floor floors the product).
+ */
+export function buildRadarKernel(input: {
+  radar: PlacedRadar;
+  targets: readonly TargetSpec[];
+  requirement: DetectionRequirement;
+  effectiveEarthFactor: number;
+}): RadarKernel {
+  const { radar, targets, requirement } = input;
+  const model = radar.model;
+  const tx = model.txAntenna;
+  const rx = receiveAntenna(model);
+  const pointing = { scan: radar.scan, boresightAzDeg: radar.boresightAzDeg, tiltDeg: radar.tiltDeg };
+  const { minM, maxM } = radarRangeWindowM(model);
+
+  const rotating = radar.scan.kind === "rotating";
+  const azBins = rotating ? 1 : AZ_BINS;
+  const azTx = new Float32Array(azBins);
+  const azRx = new Float32Array(azBins);
+  const azInSector = new Uint8Array(azBins);
+  for (let j = 0; j < azBins; j++) {
+    const bearing = rotating ? radar.boresightAzDeg : pseudoAngleBinBearingDeg(j);
+    const geo = scanGeometry(pointing, bearing, radar.tiltDeg);
+    if (!geo.instrumented) {
+      azTx[j] = -1;
+      azRx[j] = -1;
+      continue;
+    }
+    azTx[j] = axisFactorLinear(tx, geo.patternAzOffDeg, 0);
+    azRx[j] = axisFactorLinear(rx, geo.patternAzOffDeg, 0);
+    azInSector[j] = geo.inSector ? 1 : 0;
+  }
+
+  const elTx = new Float32Array(EL_BINS);
+  const elRx = new Float32Array(EL_BINS);
+  for (let m = 0; m < EL_BINS; m++) {
+    const sinEl = (2 * m) / (EL_BINS - 1) - 1;
+    const elDeg = radToDeg(Math.asin(Math.max(-1, Math.min(1, sinEl))));
+    const geo = scanGeometry(pointing, radar.boresightAzDeg, elDeg);
+    if (!geo.instrumented) {
+      elTx[m] = -1;
+      elRx[m] = -1;
+      continue;
+    }
+    elTx[m] = axisFactorLinear(tx, 0, geo.elOffDeg);
+    elRx[m] = axisFactorLinear(rx, 0, geo.elOffDeg);
+  }
+
+  const vBins = Math.round((V_MAX - V_MIN) / V_STEP) + 1;
+  const knifeEdgeF4 = new Float32Array(vBins);
+  for (let b = 0; b < vBins; b++) knifeEdgeF4[b] = dbToLinear(-2 * knifeEdgeLossDb(V_MIN + b * V_STEP));
+
+  const gasAt1Km = twoWayGasLossDb({ frequencyHz: model.frequencyHz, rangeM: 1000 });
+  // Below 1 GHz P.676 is not evaluated (atmosphere.ts returns NaN) and the loss is negligible: 0.
+  const gasLossDbPerM = Number.isFinite(gasAt1Km) ? gasAt1Km / 1000 : 0;
+  const gasFactor = new Float32Array(GAS_BINS + 1);
+  const gasStepM = maxM / GAS_BINS;
+  for (let b = 0; b <= GAS_BINS; b++) gasFactor[b] = dbToLinear(-gasLossDbPerM * (b + 0.5) * gasStepM);
+
+  const c = snrConstant(radarEquationParams(model, { rcsM2: 1 }));
+  return {
+    snrConstantM4: c,
+    minRangeM: minM,
+    maxRangeM: maxM,
+    wavelengthM: wavelengthM(model.frequencyHz),
+    curvaturePerM: curvatureFactorPerM(input.effectiveEarthFactor),
+    azTx,
+    azRx,
+    azInSector,
+    elTx,
+    elRx,
+    floorTx: dbToLinear(tx.sidelobeFloorDb),
+    floorRx: dbToLinear(rx.sidelobeFloorDb),
+    knifeEdgeF4,
+    gasFactor,
+    gasLossDbPerM,
+    pdTables: targets.map((t) => cachedPdTable(requirement.pfa, requirement.looks, t.swerling)),
+    rcsM2: targets.map((t) => dbsmToM2(t.rcsDbsm)),
+    requiredPd: requirement.requiredPd,
+  };
+}
+
+/** Allocate the outputs of one radar (pd 0, reason out of range, SNR NaN). */
+function allocateCoverage(input: RadarStageInput, lowest: Float32Array): RadarCoverage {
+  const n = input.frame.width * input.frame.height;
+  return {
+    radarId: input.radar.id,
+    heightsAglM: [...input.heightsAglM],
+    targetIds: input.targets.map((t) => t.id),
+    lowestVisibleHeightAglM: lowest,
+    heights: input.heightsAglM.map((h) => ({
+      heightAglM: h,
+      snrDbAt0Dbsm: new Float32Array(n).fill(Number.NaN),
+      targets: input.targets.map((t) =>
+        t.heightsAglM.includes(h)
+          ? { pd: new Float32Array(n), reason: new Uint8Array(n).fill(Reason.outOfRange) }
+          : { pd: null, reason: null },
+      ),
+    })),
+  };
+}
+
+/**
+ * Lowest visible height above ground per cell, m (terrainMask.ts rule TM5, restated on plain arrays):
+ * max(0, H + d²·curv + σ·d − ground); 0 where nothing obstructs; NaN for nodata or out of range.
+ */
+export function lowestVisibleHeightFromHorizon(
+  horizon: HorizonResult,
+  ground: Float32Array,
+  antennaHeightAslM: number,
+  curvaturePerM: number,
+): Float32Array {
+  const n = ground.length;
+  const out = new Float32Array(n);
+  const hs = horizon.horizonSlope;
+  const dist = horizon.distanceM;
+  for (let i = 0; i < n; i++) {
+    const s = hs[i];
+    const g = ground[i];
+    if (Number.isNaN(s) || Number.isNaN(g)) {
+      out[i] = Number.NaN;
+      continue;
+    }
+    const d = dist[i];
+    const v = s === Number.NEGATIVE_INFINITY ? 0 : antennaHeightAslM + d * d * curvaturePerM + s * d - g;
+    out[i] = Math.max(v, 0);
+  }
+  return out;
+}
+
+/**
+ * The radar stage: SNR, Pd and reason per cell for every height and target class, from the radar's
+ * horizon (computeHorizon on the obstruction surface, same frame). Only the square around the radar
+ * within its maximum instrumented range is visited; the rest stays "out of range".
+ * Inputs as RadarStageInput (m, dBsm, degrees); kernel from buildRadarKernel for the same radar.
+ * Output: a RadarCoverage. A NaN ground or horizon gives "nodata"; a target below the roof top
+ * "inside an obstruction"; slant range below the blind zone "blind zone", above the maximum "out of
+ * range"; outside the instrumented field "out of sector"; then Pd decides: covered, else masked when
+ * the sight line is obstructed (v > 0), else too weak; beyond a sector edge "out of sector".
+ */
+export function radarCoverageFromHorizon(
+  input: RadarStageInput,
+  kernel: RadarKernel,
+  horizon: HorizonResult,
+): RadarCoverage {
+  const { frame, ground, obstructionTopAglM, radar } = input;
+  const lowest = lowestVisibleHeightFromHorizon(
+    horizon,
+    ground,
+    radar.antennaHeightAslM,
+    kernel.curvaturePerM,
+  );
+  const out = allocateCoverage(input, lowest);
+  const w = frame.width;
+  const hgt = frame.height;
+  const cellM = frame.cellSizeM;
+  const H = radar.antennaHeightAslM;
+  const oc = horizon.observerCol;
+  const orow = horizon.observerRow;
+  const heights = Float64Array.from(input.heightsAglM);
+  const nh = heights.length;
+  // Flat lists over (height, target) so the loop indexes one array; classes not judged at a height
+  // write into shared scratch arrays, which keeps the loop monomorphic.
+  const n = w * hgt;
+  const snrOut: Float32Array[] = out.heights.map((hc) => hc.snrDbAt0Dbsm);
+  const pdOut: Float32Array[] = [];
+  const reasonOut: Uint8Array[] = [];
+  let scratchPd: Float32Array | null = null;
+  let scratchReason: Uint8Array | null = null;
+  for (const hc of out.heights)
+    for (const tc of hc.targets) {
+      if (tc.pd === null || tc.reason === null) {
+        scratchPd ??= new Float32Array(n);
+        scratchReason ??= new Uint8Array(n);
+        pdOut.push(scratchPd);
+        reasonOut.push(scratchReason);
+      } else {
+        pdOut.push(tc.pd);
+        reasonOut.push(tc.reason);
+      }
+    }
+  const nq = reasonOut.length;
+  const {
+    snrConstantM4: C,
+    azTx,
+    azRx,
+    azInSector,
+    elTx,
+    elRx,
+    floorTx,
+    floorRx,
+    knifeEdgeF4,
+    gasFactor,
+    curvaturePerM: curv,
+    requiredPd,
+  } = kernel;
+  const nt = input.targets.length;
+  const rcs = Float64Array.from(kernel.rcsM2);
+  // Pd tables unpacked per class (pdTable.ts layout).
+  const tBitsLow = Int32Array.from(kernel.pdTables, (t) => t.bitsLow);
+  const tBitsHigh = Int32Array.from(kernel.pdTables, (t) => t.bitsHigh);
+  const tShift = Int32Array.from(kernel.pdTables, (t) => t.shift);
+  const tFracMask = Int32Array.from(kernel.pdTables, (t) => t.fracMask);
+  const tFracScale = Float64Array.from(kernel.pdTables, (t) => t.fracScale);
+  const tPfa = Float64Array.from(kernel.pdTables, (t) => t.pfa);
+  const tLowSlope = Float64Array.from(kernel.pdTables, (t) => t.lowSlope);
+  const tPdHigh = Float64Array.from(kernel.pdTables, (t) => t.pdHigh);
+  const tValues = kernel.pdTables.map((t) => t.values);
+  const minR2 = kernel.minRangeM * kernel.minRangeM;
+  const maxR = kernel.maxRangeM;
+  const maxR2 = maxR * maxR;
+  const rotating = azTx.length === 1;
+  const elScale = (EL_BINS - 1) / 2;
+  const vScale = 1 / V_STEP;
+  const vLast = knifeEdgeF4.length - 1;
+  const gasScale = GAS_BINS / maxR;
+  const twoOverLambda = 2 / kernel.wavelengthM;
+  const hs = horizon.horizonSlope;
+  const od = horizon.obstacleDistanceM;
+  const dist = horizon.distanceM;
+  const f32 = new Float32Array(1);
+  const u32 = new Uint32Array(f32.buffer);
+  const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS;
+  const mantMask = (1 << LOG_MANTISSA_BITS) - 1;
+
+  const spanCells = Number.isFinite(maxR) ? Math.ceil(maxR / cellM) + 1 : Math.max(w, hgt);
+  const r0 = Math.max(0, orow - spanCells);
+  const r1 = Math.min(hgt - 1, orow + spanCells);
+  const c0 = Math.max(0, oc - spanCells);
+  const c1 = Math.min(w - 1, oc + spanCells);
+
+  for (let row = r0; row <= r1; row++) {
+    const northM = (orow - row) * cellM;
+    for (let col = c0; col <= c1; col++) {
+      const i = row * w + col;
+      const d = dist[i];
+      if (!(d <= maxR)) continue;
+      const g = ground[i];
+      const sigma = hs[i];
+      if (Number.isNaN(g) || Number.isNaN(sigma)) {
+        for (let q = 0; q < nq; q++) reasonOut[q][i] = Reason.nodata;
+        continue;
+      }
+      // Azimuth factors (height-independent).
+      let aTx = 1;
+      let aRx = 1;
+      let inSectorAz = 1;
+      if (!rotating) {
+        const j = pseudoAngleBin((col - oc) * cellM, northM);
+        aTx = azTx[j];
+        aRx = azRx[j];
+        inSectorAz = azInSector[j];
+      }
+      const d2 = d * d;
+      const base = g - H - d2 * curv;
+      // Knife edge: v = Kv·s·(σ − Δh/d), Kv = √((2/λ)(1/s + 1/(d − s))); so v = va − vb·Δh.
+      let va = -1e30;
+      let vb = 0;
+      if (sigma !== Number.NEGATIVE_INFINITY) {
+        const s = od[i];
+        const rest = d - s > 0 ? d - s : cellM * 0.5;
+        const kv = Math.sqrt(twoOverLambda * (1 / s + 1 / rest));
+        va = kv * s * sigma;
+        vb = (kv * s) / d;
+      }
+      const top = obstructionTopAglM[i];
+      for (let k = 0; k < nh; k++) {
+        const h = heights[k];
+        const q0 = k * nt;
+        const dh = base + h;
+        const R2 = d2 + dh * dh;
+        let code = -1;
+        if (top > h) code = Reason.insideObstruction;
+        else if (R2 < minR2 || R2 === 0) code = Reason.blindZone;
+        else if (R2 > maxR2) code = Reason.outOfRange;
+        else if (aTx < 0) code = Reason.outOfSector;
+        if (code >= 0) {
+          for (let t = 0; t < nt; t++) reasonOut[q0 + t][i] = code;
+          continue;
+        }
+        const invR = 1 / Math.sqrt(R2);
+        const m = (dh * invR * elScale + elScale + 0.5) | 0;
+        const eTx = elTx[m];
+        if (eTx < 0) {
+          for (let t = 0; t < nt; t++) reasonOut[q0 + t][i] = Reason.outOfSector;
+          continue;
+        }
+        let gt = aTx * eTx;
+        if (gt < floorTx) gt = floorTx;
+        let gr = aRx * elRx[m];
+        if (gr < floorRx) gr = floorRx;
+        const v = va - vb * dh;
+        let f4 = 1;
+        if (v > V_MIN) {
+          const b = ((v - V_MIN) * vScale + 0.5) | 0;
+          f4 = knifeEdgeF4[Math.min(b, vLast)];
+        }
+        const invR2 = invR * invR;
+        const snr = C * gt * gr * f4 * gasFactor[(R2 * invR * gasScale) | 0] * invR2 * invR2;
+        f32[0] = snr;
+        const bits = u32[0];
+        snrOut[k][i] =
+          snr > 0
+            ? DB_PER_LOG2 *
+              ((bits >>> F32_MANTISSA_BITS) -
+                F32_EXPONENT_BIAS +
+                LOG2_MANTISSA[(bits >>> mantShift) & mantMask])
+            : Number.NEGATIVE_INFINITY;
+        const weakCode = inSectorAz === 0 ? Reason.outOfSector : v > 0 ? Reason.masked : Reason.tooWeak;
+        for (let t = 0; t < nt; t++) {
+          // Inline pdTable lookup (pdTable.ts pdFromSnr): Float32 bits → bin and fraction.
+          f32[0] = snr * rcs[t];
+          const u = u32[0];
+          let pd: number;
+          const lo = tBitsLow[t];
+          if (u >= lo && u < tBitsHigh[t]) {
+            const du = u - lo;
+            const jj = du >>> tShift[t];
+            const vals = tValues[t];
+            const a = vals[jj];
+            pd = a + (du & tFracMask[t]) * tFracScale[t] * (vals[jj + 1] - a);
+          } else if (u < lo) {
+            const f = f32[0];
+            pd = f > 0 ? tPfa[t] + f * tLowSlope[t] : 0;
+          } else pd = u <= F32_POSITIVE_INFINITY_BITS ? tPdHigh[t] : 0;
+          pdOut[q0 + t][i] = pd;
+          reasonOut[q0 + t][i] = pd >= requiredPd ? Reason.covered : weakCode;
+        }
+      }
+    }
+  }
+  return out;
+}
+
+// ---------------------------------------------------------------------------------------------
+// The exact scalar path (one point): for evaluatePoint and as the yardstick of the tables.
+
+/** Geometry of one target position seen from a radar. */
+export interface PointGeometry {
+  /** Horizontal distance, m. */
+  distanceM: number;
+  /** Target height above the antenna after Earth curvature, m. */
+  heightAboveAntennaM: number;
+  /** Slant range, m. */
+  slantRangeM: number;
+  /** Bearing from the radar, degrees clockwise from north. */
+  azimuthDeg: number;
+  /** Elevation seen from the antenna, degrees (curvature included). */
+  elevationDeg: number;
+}
+
+/** Exact (no table) coverage of one radar at one target position and class. */
+export interface PointCoverage {
+  geometry: PointGeometry;
+  /** Radar-equation parameters towards the target (gains, gas loss, F⁴), for the link budget. */
+  params: RadarEquationParams;
+  /** One-way gains towards the target, dBi (−Infinity where not instrumented). */
+  txGainDbi: number;
+  rxGainDbi: number;
+  /** Height of the dominant obstruction above the sight line, m (−Infinity: nothing obstructs). */
+  obstructionClearanceM: number;
+  /** Fresnel–Kirchhoff v of that obstruction (−Infinity when none). */
+  fresnelV: number;
+  /** One-way knife-edge loss J(v), dB (ITU-R P.526-15 eq. 31). */
+  diffractionLossOneWayDb: number;
+  /** Two-way gas loss, dB. */
+  gasLossDb: number;
+  /** SNR for the class's RCS, dB. */
+  snrDb: number;
+  /** Exact Pd (detection.ts pdExact) and the table Pd. */
+  pdExact: number;
+  pdTable: number;
+  visible: boolean;
+  reason: Reason;
+}
+
+/**
+ * Exact coverage of one radar at one cell and height for one class: same physics as the hot loop with
+ * trigonometry, J(v) and pdExact evaluated directly (the yardstick of the tables, rule CV2).
+ * @param cell the cell's horizon slope (m/m, −Infinity none, NaN nodata), obstacle distance (m),
+ *   horizontal distance (m), east/north offsets from the radar (m), ground (m ASL), obstruction top (m AGL)
+ *   and the cell size (m; the shortest edge-to-target distance). Out-of-field cells get Pd 0.
+ */
+export function coveragePoint(
+  input: {
+    radar: PlacedRadar;
+    target: TargetSpec;
+    requirement: DetectionRequirement;
+    effectiveEarthFactor: number;
+    heightAglM: number;
+  },
+  cell: {
+    horizonSlope: number;
+    obstacleDistanceM: number;
+    distanceM: number;
+    eastM: number;
+    northM: number;
+    groundM: number;
+    obstructionTopAglM: number;
+    cellSizeM: number;
+  },
+): PointCoverage {
+  const { radar, target, requirement, heightAglM } = input;
+  const model = radar.model;
+  const curv = curvatureFactorPerM(input.effectiveEarthFactor);
+  const d = cell.distanceM;
+  const dh = cell.groundM + heightAglM - radar.antennaHeightAslM - d * d * curv;
+  const R = Math.hypot(d, dh);
+  const azimuthDeg = d > 0 ? wrapDeg360(radToDeg(Math.atan2(cell.eastM, cell.northM))) : radar.boresightAzDeg;
+  const elevationDeg = radToDeg(Math.atan2(dh, d));
+  const geometry: PointGeometry = {
+    distanceM: d,
+    heightAboveAntennaM: dh,
+    slantRangeM: R,
+    azimuthDeg,
+    elevationDeg,
+  };
+  const pointing = { scan: radar.scan, boresightAzDeg: radar.boresightAzDeg, tiltDeg: radar.tiltDeg };
+  const gTx = makeRelativeGain({ ...pointing, antenna: model.txAntenna })(azimuthDeg, elevationDeg);
+  const gRx = makeRelativeGain({ ...pointing, antenna: receiveAntenna(model) })(azimuthDeg, elevationDeg);
+  const txGainDbi = model.txAntenna.peakGainDbi + linearToDb(gTx);
+  const rxGainDbi = receiveAntenna(model).peakGainDbi + linearToDb(gRx);
+  const geo = scanGeometry(pointing, azimuthDeg, elevationDeg);
+  let clearance = Number.NEGATIVE_INFINITY;
+  let v = Number.NEGATIVE_INFINITY;
+  if (cell.horizonSlope !== Number.NEGATIVE_INFINITY && Number.isFinite(cell.horizonSlope)) {
+    const s = cell.obstacleDistanceM;
+    clearance = s * (cell.horizonSlope - dh / d);
+    const rest = d - s > 0 ? d - s : 0.5 * cell.cellSizeM;
+    v = clearance * Math.sqrt((2 / wavelengthM(model.frequencyHz)) * (1 / s + 1 / rest));
+  }
+  const jDb = v === Number.NEGATIVE_INFINITY ? 0 : knifeEdgeLossDb(v);
+  const { minM, maxM } = radarRangeWindowM(model);
+  const gasLossRaw = twoWayGasLossDb({ frequencyHz: model.frequencyHz, rangeM: R });
+  // Below 1 GHz P.676 is not evaluated (NaN) and the loss is negligible: 0, as in buildRadarKernel.
+  const gasLossDb = Number.isFinite(gasLossRaw) ? gasLossRaw : 0;
+  const params = radarEquationParams(model, {
+    rcsM2: dbsmToM2(target.rcsDbsm),
+    txGainDbi,
+    rxGainDbi,
+    atmosphericLossDb: gasLossDb,
+    propagationFactorDb: -2 * jDb,
+  });
+  const snrLinear = snrAtRange(params, R);
+  const snrDb = linearToDb(snrLinear);
+  const visible = !(clearance > 0);
+  let reason: Reason;
+  if (Number.isNaN(cell.groundM) || Number.isNaN(cell.horizonSlope)) reason = Reason.nodata;
+  else if (cell.obstructionTopAglM > heightAglM) reason = Reason.insideObstruction;
+  else if (R < minM || R === 0) reason = Reason.blindZone;
+  else if (R > maxM) reason = Reason.outOfRange;
+  else if (!geo.instrumented) reason = Reason.outOfSector;
+  else reason = Reason.tooWeak;
+  let pdE = 0;
+  let pdT = 0;
+  if (reason === Reason.tooWeak) {
+    pdE = pdExact({ snrLinear, pfa: requirement.pfa, looks: requirement.looks, swerling: target.swerling });
+    pdT = pdFromSnr(cachedPdTable(requirement.pfa, requirement.looks, target.swerling), snrLinear);
+    if (pdT >= requirement.requiredPd) reason = Reason.covered;
+    else if (!geo.inSector) reason = Reason.outOfSector;
+    else if (!visible) reason = Reason.masked;
+  }
+  return {
+    geometry,
+    params,
+    txGainDbi,
+    rxGainDbi,
+    obstructionClearanceM: clearance,
+    fresnelV: v,
+    diffractionLossOneWayDb: jDb,
+    gasLossDb,
+    snrDb,
+    pdExact: pdE,
+    pdTable: pdT,
+    visible,
+    reason,
+  };
+}

@@ -1,0 +1,497 @@
+/**
+ * The coverage engine's entry points, used alike by the CLI, the workers and the app:
+ * evaluateSite (every radar, every height and class, fused, with metrics) and evaluatePoint (one
+ * position: per radar the link budget, visibility, lowest visible height, diffraction loss, Pd, reason).
+ *
+ * A PreparedSite holds only plain data and typed arrays (no functions, no class instances), so it
+ * can be posted or transferred to a worker. The flow inside: per radar (cached by radarCache.ts):
+ * horizon sweep → radar stage (coverage.ts); then per class and height: fusion → metrics.
+ */
+import {
+  buildRadarKernel,
+  coveragePoint,
+  type DetectionRequirement,
+  type PlacedRadar,
+  type PointCoverage,
+  type RadarCoverage,
+  REASON_TEXT,
+  type Reason,
+  radarCoverageFromHorizon,
+  type TargetSpec,
+} from "./coverage.ts";
+import { CellState, cellStatesAtHeight, type FusedHeight, fuseHeight } from "./fusion.ts";
+import type { GridFrame } from "./grid.ts";
+import { type LinkBudget, linkBudget } from "./linkBudget.ts";
+import { type HeightMetrics, heightMetrics } from "./metrics.ts";
+import { hashRaster, type RadarResultCache, radarResultKey } from "./radarCache.ts";
+import { rayMarchCell } from "./rayMarch.ts";
+import type { RegionMasks } from "./regionMask.ts";
+import { computeHorizon, curvatureFactorPerM, type MaskInput, type MaskMode } from "./terrainMask.ts";
+
+/** A target class with its display name. */
+export interface SiteTarget extends TargetSpec {
+  name: string;
+}
+
+/** Everything a coverage run needs, on the site grid. Plain data, transferable to workers. */
+export interface PreparedSite {
+  /** Site name for reports. */
+  name: string;
+  frame: GridFrame;
+  /** Ground elevation, m ASL (NaN nodata), row-major on the frame. */
+  ground: Float32Array;
+  /** Obstruction surface (ground + buildings + trees), m ASL. */
+  surface: Float32Array;
+  /** Building or canopy top above ground per cell, m (0 on open ground). */
+  obstructionTopAglM: Float32Array;
+  regions: RegionMasks;
+  /** Enabled radars, placed on the grid. */
+  radars: PlacedRadar[];
+  targets: SiteTarget[];
+  requirement: DetectionRequirement & {
+    /** Classes the requirement applies to (all when the plan names none). */
+    targetIds: string[];
+  };
+  /** Target heights above ground, m, ascending. */
+  heightsAglM: number[];
+  effectiveEarthFactor: number;
+  maskMode: MaskMode;
+  /** "dem" when the ground came from a DEM, "flat" when none was given (say so in results). */
+  groundSource: "dem" | "flat";
+  /** Identity of ground, surface and obstruction tops (computed when absent). */
+  terrainId?: string;
+  /** Warnings gathered while preparing (import, placement), shown with the results. */
+  warnings: string[];
+}
+
+/** One class at one height, fused over the radars. */
+export interface SiteHeightResult extends FusedHeight {
+  heightAglM: number;
+  /** CellState per cell at this height. */
+  cellState: Uint8Array;
+  metrics: HeightMetrics;
+}
+
+export interface SiteTargetResult {
+  targetId: string;
+  name: string;
+  /** Whether the requirement applies to this class. */
+  requirementApplies: boolean;
+  /** Only the heights this class is judged at. */
+  heights: SiteHeightResult[];
+}
+
+export interface SiteResult {
+  frame: GridFrame;
+  heightsAglM: number[];
+  radarIds: string[];
+  requiredPd: number;
+  /** Per radar, in the order of site.radars. */
+  radars: RadarCoverage[];
+  /** Lowest height above ground that at least one radar sees, m (NaN where none computed). */
+  lowestVisibleHeightAglM: Float32Array;
+  targets: SiteTargetResult[];
+  /** Radars computed in this run, and those taken from the cache. */
+  computedRadarIds: string[];
+  cachedRadarIds: string[];
+  timingsMs: { radars: number; fusion: number; total: number };
+}
+
+/** Progress of a run: a stage, and how many of its steps are done. */
+export interface EvaluateProgress {
+  stage: "radars" | "fusion";
+  done: number;
+  total: number;
+  radarId?: string;
+}
+
+/** Computes one radar's coverage: inline by default, or on a worker. */
+export type RadarRunner = (site: PreparedSite, radarIndex: number, mode: MaskMode) => Promise<RadarCoverage>;
+
+export interface EvaluateOptions {
+  /** Masking mode; default the site's. */
+  mode?: MaskMode;
+  onProgress?: (p: EvaluateProgress) => void;
+  /** Checked between radars and between fusion steps; true stops the run with a CancelledError. */
+  shouldCancel?: () => boolean;
+  /** An abort signal (anything with a boolean `aborted`), checked like shouldCancel. */
+  signal?: { readonly aborted: boolean };
+  /** Per-radar cache; results are looked up and stored by radarKey. */
+  cache?: RadarResultCache<RadarCoverage>;
+  /** How a radar is computed (default computeRadarCoverage in this thread). Runs are started together. */
+  runRadar?: RadarRunner;
+}
+
+/** A run stopped by its caller (recognise it by name across worker boundaries). */
+export class CancelledError extends Error {
+  override name = "CancelledError";
+  constructor() {
+    super("coverage run cancelled");
+  }
+}
+
+/** Identity of the site's terrain rasters and grid frame. */
+export function siteTerrainId(site: PreparedSite): string {
+  if (site.terrainId !== undefined) return site.terrainId;
+  const f = site.frame;
+  return [
+    hashRaster(site.ground),
+    hashRaster(site.surface),
+    hashRaster(site.obstructionTopAglM),
+    f.width,
+    f.height,
+    f.originX,
+    f.originY,
+    f.cellSizeM,
+    f.crs,
+  ].join("|");
+}
+
+/** The cache key of one radar of a site (everything that radar's result depends on). */
+export function radarKey(
+  site: PreparedSite,
+  radarIndex: number,
+  mode: MaskMode,
+  terrainId = siteTerrainId(site),
+): string {
+  const r = site.radars[radarIndex];
+  return radarResultKey({
+    model: r.model,
+    placement: {
+      x: r.x,
+      y: r.y,
+      antennaHeightAslM: r.antennaHeightAslM,
+      boresightAzDeg: r.boresightAzDeg,
+      tiltDeg: r.tiltDeg,
+      scan: r.scan,
+      ownFootprintRadiusM: r.ownFootprintRadiusM,
+      id: r.id,
+    },
+    terrainId,
+    heightsAglM: site.heightsAglM,
+    targets: site.targets.map((t) => ({
+      id: t.id,
+      rcsDbsm: t.rcsDbsm,
+      swerling: t.swerling,
+      h: t.heightsAglM,
+    })),
+    settings: {
+      requiredPd: site.requirement.requiredPd,
+      pfa: site.requirement.pfa,
+      looks: site.requirement.looks,
+      k: site.effectiveEarthFactor,
+      mode,
+    },
+  });
+}
+
+function maskInputFor(site: PreparedSite, radar: PlacedRadar, mode: MaskMode, maxRangeM: number): MaskInput {
+  return {
+    surface: { ...site.frame, data: site.surface },
+    observerX: radar.x,
+    observerY: radar.y,
+    antennaHeightAslM: radar.antennaHeightAslM,
+    effectiveEarthFactor: site.effectiveEarthFactor,
+    maxRangeM: Number.isFinite(maxRangeM) ? maxRangeM : undefined,
+    mode,
+    ownFootprintRadiusM: radar.ownFootprintRadiusM,
+  };
+}
+
+/**
+ * One radar's coverage in this thread: horizon sweep (terrainMask.ts) limited to the maximum
+ * instrumented range, then the radar stage (coverage.ts). Throws ObserverOutsideGridError when the
+ * radar stands outside the grid.
+ */
+export function computeRadarCoverage(
+  site: PreparedSite,
+  radarIndex: number,
+  mode: MaskMode = site.maskMode,
+): RadarCoverage {
+  const radar = site.radars[radarIndex];
+  const kernel = buildRadarKernel({
+    radar,
+    targets: site.targets,
+    requirement: site.requirement,
+    effectiveEarthFactor: site.effectiveEarthFactor,
+  });
+  const horizon = computeHorizon(maskInputFor(site, radar, mode, kernel.maxRangeM));
+  return radarCoverageFromHorizon(
+    {
+      frame: site.frame,
+      ground: site.ground,
+      obstructionTopAglM: site.obstructionTopAglM,
+      radar,
+      targets: site.targets,
+      heightsAglM: site.heightsAglM,
+      requirement: site.requirement,
+      effectiveEarthFactor: site.effectiveEarthFactor,
+    },
+    kernel,
+    horizon,
+  );
+}
+
+function checkCancel(opts: EvaluateOptions): void {
+  if (opts.signal?.aborted || opts.shouldCancel?.()) throw new CancelledError();
+}
+
+/** Milliseconds from a monotonic clock where there is one (browsers, workers, Node), else Date.now(). */
+function now(): number {
+  const perf = (globalThis as { performance?: { now(): number } }).performance;
+  return perf ? perf.now() : Date.now();
+}
+
+/**
+ * Evaluate a prepared site: every enabled radar (from the cache when its key is unchanged), then per
+ * target class and height the fused Pd, overlap, best radar, gaps and metrics.
+ * @returns the SiteResult; throws CancelledError when cancelled, ObserverOutsideGridError for a radar
+ *   off the grid.
+ */
+export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {}): Promise<SiteResult> {
+  const t0 = now();
+  const mode = opts.mode ?? site.maskMode;
+  const runRadar: RadarRunner = opts.runRadar ?? (async (s, i, m) => computeRadarCoverage(s, i, m));
+  const terrainId = siteTerrainId(site);
+  const total = site.radars.length;
+  const computedRadarIds: string[] = [];
+  const cachedRadarIds: string[] = [];
+  let done = 0;
+  checkCancel(opts);
+  opts.onProgress?.({ stage: "radars", done: 0, total });
+  const radars = await Promise.all(
+    site.radars.map(async (radar, i) => {
+      const key = opts.cache ? radarKey(site, i, mode, terrainId) : "";
+      const cached = opts.cache?.get(key);
+      let result: RadarCoverage;
+      if (cached !== undefined) {
+        opts.cache!.hits++;
+        cachedRadarIds.push(radar.id);
+        result = cached;
+      } else {
+        checkCancel(opts);
+        result = await runRadar(site, i, mode);
+        checkCancel(opts);
+        computedRadarIds.push(radar.id);
+        if (opts.cache) {
+          opts.cache.computed++;
+          opts.cache.set(key, result);
+        }
+      }
+      done++;
+      opts.onProgress?.({ stage: "radars", done, total, radarId: radar.id });
+      return result;
+    }),
+  );
+  const t1 = now();
+
+  const n = site.frame.width * site.frame.height;
+  const lowest = new Float32Array(n).fill(Number.NaN);
+  for (const r of radars) {
+    const l = r.lowestVisibleHeightAglM;
+    for (let i = 0; i < n; i++) {
+      const v = l[i];
+      if (v < lowest[i] || (Number.isNaN(lowest[i]) && !Number.isNaN(v))) lowest[i] = v;
+    }
+  }
+
+  const radarIds = site.radars.map((r) => r.id);
+  const fusionSteps = site.targets.reduce(
+    (acc, t) => acc + site.heightsAglM.filter((h) => t.heightsAglM.includes(h)).length,
+    0,
+  );
+  let fusionDone = 0;
+  const states = new Map<number, Uint8Array>();
+  const stateAt = (h: number): Uint8Array => {
+    let s = states.get(h);
+    if (s === undefined) {
+      s = cellStatesAtHeight(site.ground, site.obstructionTopAglM, h);
+      states.set(h, s);
+    }
+    return s;
+  };
+  const targets: SiteTargetResult[] = site.targets.map((target, t) => {
+    const heights: SiteHeightResult[] = [];
+    site.heightsAglM.forEach((h, k) => {
+      if (!target.heightsAglM.includes(h)) return;
+      checkCancel(opts);
+      const pdPerRadar = radars.map((r) => r.heights[k].targets[t].pd!);
+      const cellState = stateAt(h);
+      const fused = fuseHeight({
+        pdPerRadar,
+        requiredPd: site.requirement.requiredPd,
+        cellState,
+        regions: site.regions,
+      });
+      const metrics = heightMetrics({
+        heightAglM: h,
+        fused,
+        pdPerRadar,
+        radarIds,
+        requiredPd: site.requirement.requiredPd,
+        cellState,
+        regions: site.regions,
+        width: site.frame.width,
+        height: site.frame.height,
+        originX: site.frame.originX,
+        originY: site.frame.originY,
+        cellSizeM: site.frame.cellSizeM,
+      });
+      heights.push({ ...fused, heightAglM: h, cellState, metrics });
+      fusionDone++;
+      opts.onProgress?.({ stage: "fusion", done: fusionDone, total: fusionSteps });
+    });
+    return {
+      targetId: target.id,
+      name: target.name,
+      requirementApplies: site.requirement.targetIds.includes(target.id),
+      heights,
+    };
+  });
+  const t2 = now();
+  return {
+    frame: site.frame,
+    heightsAglM: [...site.heightsAglM],
+    radarIds,
+    requiredPd: site.requirement.requiredPd,
+    radars,
+    lowestVisibleHeightAglM: lowest,
+    targets,
+    computedRadarIds,
+    cachedRadarIds,
+    timingsMs: { radars: t1 - t0, fusion: t2 - t1, total: t2 - t0 },
+  };
+}
+
+// ---------------------------------------------------------------------------------------------
+// One point
+
+/** One radar against one class at the inspected point. */
+export interface PointRadarRow extends PointCoverage {
+  radarId: string;
+  radarName: string;
+  targetId: string;
+  /** Lowest visible target height above ground here, m (exact ray march). */
+  lowestVisibleHeightAglM: number;
+  /** Two-way diffraction loss, dB (2·J). */
+  diffractionLossTwoWayDb: number;
+  reasonText: string;
+  /** Link budget rows at the slant range (gains towards the target, gas loss and F⁴ included). */
+  linkBudget: LinkBudget;
+}
+
+export interface PointResult {
+  /** The inspected position in the grid frame, m, and its cell. */
+  x: number;
+  y: number;
+  col: number;
+  row: number;
+  heightAglM: number;
+  groundM: number;
+  obstructionTopAglM: number;
+  /** Per radar and class. */
+  rows: PointRadarRow[];
+  /** Combined Pd per class id (1 − Π(1 − Pd_i) over the table Pds). */
+  combinedPd: Record<string, number>;
+  /** CellState at this height. */
+  cellState: number;
+}
+
+/** Lowest visible height above ground at one cell, m (terrainMask.ts rule TM5); NaN for nodata. */
+function lowestVisibleAt(
+  slope: number,
+  distanceM: number,
+  antennaAslM: number,
+  groundM: number,
+  curv: number,
+): number {
+  if (Number.isNaN(slope) || Number.isNaN(groundM)) return Number.NaN;
+  if (slope === Number.NEGATIVE_INFINITY) return 0;
+  return Math.max(0, antennaAslM + distanceM * distanceM * curv + slope * distanceM - groundM);
+}
+
+/**
+ * Inspect one position: per radar and class, the exact path (coveragePoint) with the horizon of this
+ * cell from the exact ray march (rayMarch.ts), the link budget, the lowest visible height and the reason.
+ * @param at position in the grid frame, m; heightAglM target height above ground, m (finite, ≥ 0).
+ * @returns the rows; throws RangeError naming the field when the point is outside the grid.
+ */
+export function evaluatePoint(
+  site: PreparedSite,
+  at: { x: number; y: number },
+  heightAglM: number,
+): PointResult {
+  const f = site.frame;
+  const col = Math.floor((at.x - f.originX) / f.cellSizeM);
+  const row = Math.floor((f.originY - at.y) / f.cellSizeM);
+  if (!(col >= 0 && col < f.width && row >= 0 && row < f.height)) {
+    throw new RangeError(`at: (${at.x.toFixed(1)}, ${at.y.toFixed(1)}) lies outside the site grid`);
+  }
+  if (!(Number.isFinite(heightAglM) && heightAglM >= 0)) {
+    throw new RangeError(`heightAglM: ${heightAglM} must be a finite height ≥ 0 m`);
+  }
+  const i = row * f.width + col;
+  const groundM = site.ground[i];
+  const top = site.obstructionTopAglM[i];
+  const rows: PointRadarRow[] = [];
+  const miss: Record<string, number> = {};
+  const curv = curvatureFactorPerM(site.effectiveEarthFactor);
+  for (const radar of site.radars) {
+    const input = maskInputFor(site, radar, "accurate", Number.POSITIVE_INFINITY);
+    const ocol = Math.floor((radar.x - f.originX) / f.cellSizeM);
+    const orow = Math.floor((f.originY - radar.y) / f.cellSizeM);
+    const horizon = rayMarchCell(input, col, row);
+    const eastM = (col - ocol) * f.cellSizeM;
+    const northM = (orow - row) * f.cellSizeM;
+    const distanceM = Math.hypot(eastM, northM);
+    const lowest = lowestVisibleAt(horizon.slope, distanceM, radar.antennaHeightAslM, groundM, curv);
+    for (const target of site.targets) {
+      const pc = coveragePoint(
+        {
+          radar,
+          target,
+          requirement: site.requirement,
+          effectiveEarthFactor: site.effectiveEarthFactor,
+          heightAglM,
+        },
+        {
+          horizonSlope: horizon.slope,
+          obstacleDistanceM: horizon.obstacleDistanceM,
+          distanceM,
+          eastM,
+          northM,
+          groundM,
+          obstructionTopAglM: top,
+          cellSizeM: f.cellSizeM,
+        },
+      );
+      miss[target.id] = (miss[target.id] ?? 1) * (1 - pc.pdTable);
+      rows.push({
+        ...pc,
+        radarId: radar.id,
+        radarName: radar.name,
+        targetId: target.id,
+        lowestVisibleHeightAglM: lowest,
+        diffractionLossTwoWayDb: 2 * pc.diffractionLossOneWayDb,
+        reasonText: REASON_TEXT[pc.reason as Reason],
+        linkBudget: linkBudget(pc.params, pc.geometry.slantRangeM),
+      });
+    }
+  }
+  const combinedPd: Record<string, number> = {};
+  for (const t of site.targets) combinedPd[t.id] = 1 - (miss[t.id] ?? 1);
+  const cellState = cellStatesAtHeight(Float32Array.of(groundM), Float32Array.of(top), heightAglM)[0];
+  if (cellState !== CellState.valid) for (const t of site.targets) combinedPd[t.id] = 0;
+  return {
+    x: at.x,
+    y: at.y,
+    col,
+    row,
+    heightAglM,
+    groundM,
+    obstructionTopAglM: top,
+    rows,
+    combinedPd,
+    cellState,
+  };
+}
