@@ -14,7 +14,7 @@ function example(): Record<string, unknown> {
 }
 
 describe("radar model files", () => {
-  it("[RF1] the three invented example radars validate and are marked invented", () => {
+  it("[RM1] the three invented example radars validate and are marked invented", () => {
     expect(radarFiles.length).toBeGreaterThanOrEqual(3);
     for (const f of radarFiles) {
       const r = loadRadarModelFile(readFileSync(join(RADAR_DIR, f), "utf8"));
@@ -24,7 +24,7 @@ describe("radar model files", () => {
     }
   });
 
-  it("[RF1] the examples cover the three classes asked for", () => {
+  it("[RM1] the examples cover the three classes asked for", () => {
     const models = radarFiles.map((f) => {
       const r = loadRadarModelFile(readFileSync(join(RADAR_DIR, f), "utf8"));
       if (!r.ok) throw new Error(f);
@@ -44,14 +44,14 @@ describe("radar model files", () => {
     expect(patch58!.txAntenna.peakGainDbi - patch58!.rxAntenna!.peakGainDbi).toBeCloseTo(5.4, 1);
   });
 
-  it("[RF2] a missing optional main-beam shape defaults to gaussian", () => {
+  it("[RM2] a missing optional main-beam shape defaults to gaussian", () => {
     const m = example();
     delete (m.txAntenna as Record<string, unknown>).mainBeam;
     const r = parseRadarModel(m);
     expect(r.ok && r.model.txAntenna.mainBeam).toBe("gaussian");
   });
 
-  it("[RF3] errors name the path and the rule", () => {
+  it("[RM3] errors name the path and the rule", () => {
     const m = example();
     (m.transmitter as Record<string, unknown>).peakPowerW = -3;
     (m.txAntenna as Record<string, unknown>).azBeamwidthDeg = 400;
@@ -67,7 +67,7 @@ describe("radar model files", () => {
     expect(byPath.frequencyHz).toBe("must be a finite number in Hz (got NaN)");
   });
 
-  it("[RF3] unknown fields, wrong kinds and cross-field rules are named", () => {
+  it("[RM3] unknown fields, wrong kinds and cross-field rules are named", () => {
     const m = example();
     m.peakPowerW = 1;
     (m.scan as Record<string, unknown>).kind = "spinning";
@@ -91,14 +91,14 @@ describe("radar model files", () => {
     expect(r3.ok ? [] : r3.errors[0].path).toBe("waveform.chirpPeriodS");
   });
 
-  it("[RF3] a missing required field says it is required, with its unit", () => {
+  it("[RM3] a missing required field says it is required, with its unit", () => {
     const m = example();
     delete m.blindZoneM;
     const r = parseRadarModel(m);
     expect(r.ok ? [] : r.errors).toEqual([{ path: "blindZoneM", message: "is required (a number in m)" }]);
   });
 
-  it("[RF4] JSON syntax errors are named with line and column", () => {
+  it("[RM4] JSON syntax errors are named with line and column", () => {
     const text = '{\n  "id": "a",\n  "name": "b",,\n}';
     const r = loadRadarModelFile(text);
     expect(r.ok).toBe(false);
@@ -111,7 +111,7 @@ describe("radar model files", () => {
     expect(locateJsonError("")).toMatchObject({ line: 1, column: 1 });
   });
 
-  it("[RF4] the syntax scanner agrees with JSON.parse on arbitrary text (fuzz)", () => {
+  it("[RM4] the syntax scanner agrees with JSON.parse on arbitrary text (fuzz)", () => {
     fc.assert(
       fc.property(
         fc.oneof(
@@ -134,7 +134,7 @@ describe("radar model files", () => {
     );
   });
 
-  it("[RF5] parseRadarModel never throws and never mutates its input (fuzz)", () => {
+  it("[RM5] parseRadarModel never throws and never mutates its input (fuzz)", () => {
     fc.assert(
       fc.property(fc.anything(), (value) => {
         const r = parseRadarModel(value);
