@@ -142,6 +142,25 @@ describe("radar model files", () => {
       }),
       { numRuns: 1000 },
     );
+    // One field of a valid model replaced by anything: named errors only, no internal exception.
+    const leaves: string[][] = [];
+    const walk = (v: unknown, path: string[]) => {
+      leaves.push(path);
+      if (typeof v === "object" && v !== null) for (const [k, x] of Object.entries(v)) walk(x, [...path, k]);
+    };
+    walk(example(), []);
+    fc.assert(
+      fc.property(fc.nat({ max: leaves.length - 1 }), fc.anything(), (k, value) => {
+        const doc: Record<string, unknown> = example();
+        const path = leaves[k];
+        let target: Record<string, unknown> | unknown = doc;
+        for (const key of path.slice(0, -1)) target = (target as Record<string, unknown>)[key];
+        if (path.length > 0) (target as Record<string, unknown>)[path[path.length - 1]] = value;
+        const r = parseRadarModel(path.length === 0 ? value : doc);
+        if (!r.ok) for (const e of r.errors) expect(e.message).not.toMatch(/^cannot be read/);
+      }),
+      { numRuns: 1500 },
+    );
     const m = example();
     delete (m.txAntenna as Record<string, unknown>).mainBeam;
     const before = structuredClone(m);

@@ -90,13 +90,23 @@ describe("site grid", () => {
         }
       }
     }
-    // Tight: no more than one cell beyond the farthest requirement on each side.
-    const xs = p.protectedAreas.flatMap((a) =>
+    // Tight: less than one cell beyond the farthest requirement on each side.
+    const pts = p.protectedAreas.flatMap((a) =>
       (a.geometry.type === "Polygon" ? [a.geometry.coordinates] : a.geometry.coordinates)
         .flat(2)
-        .map(([lon, lat]) => g.toGrid(lon, lat)[0]),
+        .map(([lon, lat]) => g.toGrid(lon, lat)),
     );
-    expect(Math.min(...xs) - reach - f.originX).toBeLessThan(f.cellSizeM);
+    for (const post of p.posts) pts.push(g.toGrid(post.position.lonDeg, post.position.latDeg));
+    const need = {
+      minX: Math.min(...pts.map(([x]) => x)) - reach,
+      maxX: Math.max(...pts.map(([x]) => x)) + reach,
+      minY: Math.min(...pts.map(([, y]) => y)) - reach,
+      maxY: Math.max(...pts.map(([, y]) => y)) + reach,
+    };
+    expect(need.minX - f.originX).toBeLessThan(f.cellSizeM);
+    expect(maxX - need.maxX).toBeLessThan(f.cellSizeM);
+    expect(f.originY - need.maxY).toBeLessThan(f.cellSizeM);
+    expect(need.minY - minY).toBeLessThan(f.cellSizeM);
   });
 
   it("[SG2] a post outside the ring widens the frame to include it", () => {
