@@ -95,3 +95,10 @@ export const DEFAULT_PATCH_ELEMENT_GAIN_DBI = 5.2;
  * patch array, dB (common practice, from memory: a few tenths of a dB per level on low-cost laminate).
  */
 export const DEFAULT_PATCH_FEED_LOSS_DB_PER_LEVEL = 0.3;
+
+/**
+ * Height tolerance of the masking tests, m: a target within 1 mm of the sight line over the dominant
+ * obstruction counts as visible. Model choice: it absorbs the Float32 rounding of the stored horizon
+ * slope and the grazing ties on exactly flat ground (DEM heights are never better than centimetres).
+ */
+export const VISIBILITY_TOLERANCE_M = 0.001;
