@@ -70,6 +70,12 @@ export const FUSED_HEIGHT_BYTES_PER_CELL = 4 + 1 + 1 + 1 + 1 + 4 + 4;
 /** Thrown by siteGridFrame for a site the grid cannot hold; `name` is stable for the worker boundary. */
 export class SiteGridError extends Error {
   override readonly name = "SiteGridError";
+  /** The plan field the problem belongs to, e.g. "posts" or "protectedAreas". */
+  readonly path: string;
+  constructor(path: string, message: string) {
+    super(message);
+    this.path = path;
+  }
 }
 
 export interface UtmZone {
@@ -149,7 +155,7 @@ export function autoCellSizeM(widthM: number, heightM: number): number {
 export function siteGridFrame(plan: Plan): SiteGrid {
   const areaPositions = positionsOfPlanAreas(plan);
   if (areaPositions.length === 0)
-    throw new SiteGridError("protectedAreas: the site grid needs a protected area");
+    throw new SiteGridError("protectedAreas", "the site grid needs a protected area");
   let minLon = Number.POSITIVE_INFINITY;
   let maxLon = Number.NEGATIVE_INFINITY;
   let minLat = Number.POSITIVE_INFINITY;
@@ -163,11 +169,13 @@ export function siteGridFrame(plan: Plan): SiteGrid {
   }
   if (maxLon - minLon > 180) {
     throw new SiteGridError(
+      "protectedAreas",
       "the site crosses the antimeridian (±180° longitude), which the site grid does not support",
     );
   }
   if (minLat < UTM_MIN_LAT_DEG || maxLat > UTM_MAX_LAT_DEG) {
     throw new SiteGridError(
+      "protectedAreas",
       `the site reaches latitude ${(minLat < UTM_MIN_LAT_DEG ? minLat : maxLat).toFixed(4)}°, outside the UTM range ${UTM_MIN_LAT_DEG}° to ${UTM_MAX_LAT_DEG}° (polar sites are not supported)`,
     );
   }
@@ -183,7 +191,7 @@ export function siteGridFrame(plan: Plan): SiteGrid {
     aMaxLat = Math.max(aMaxLat, p[1]);
   }
   const zone = utmZoneOf((aMinLon + aMaxLon) / 2, (aMinLat + aMaxLat) / 2);
-  if (!zone) throw new SiteGridError("the site centre lies outside the UTM system");
+  if (!zone) throw new SiteGridError("protectedAreas", "the site centre lies outside the UTM system");
   const crs = utmProj4(zone);
   const conv = proj4(WGS84_LONLAT, crs);
 
@@ -220,12 +228,13 @@ export function siteGridFrame(plan: Plan): SiteGrid {
     const [x, y] = toGrid(p[0], p[1]);
     grow(x, y, plan.approachRingDepthM);
   }
+  const areasSideM = Math.max(maxX - minX, maxY - minY);
   for (const post of plan.posts) {
     const [x, y] = toGrid(post.position.lonDeg, post.position.latDeg);
     grow(x, y, 0);
   }
   if (!(Number.isFinite(minX) && Number.isFinite(maxX) && Number.isFinite(minY) && Number.isFinite(maxY))) {
-    throw new SiteGridError("the site could not be projected to its UTM zone");
+    throw new SiteGridError("protectedAreas", "the site could not be projected to its UTM zone");
   }
   const marginM = plan.analysis.marginM ?? DEFAULT_GRID_MARGIN_M;
   minX -= marginM;
@@ -235,6 +244,7 @@ export function siteGridFrame(plan: Plan): SiteGrid {
   const sideM = Math.max(maxX - minX, maxY - minY);
   if (sideM > MAX_GRID_SIDE_M) {
     throw new SiteGridError(
+      areasSideM + 2 * marginM > MAX_GRID_SIDE_M ? "protectedAreas" : "posts",
       `the site grid would be ${(sideM / 1000).toFixed(1)} km across (protected areas, approach ring, posts and margin), above the ${MAX_GRID_SIDE_M / 1000} km limit of one UTM frame; check for a post or vertex far from the site`,
     );
   }
@@ -313,4 +323,34 @@ export function checkRunMemory(size: RunSize, budgetBytes: number = RUN_MEMORY_B
     };
   }
   return { ok: true, bytes };
+}
+
+export type PlanRunCheck =
+  | { ok: true; grid: SiteGrid; memoryBytes: number }
+  | { ok: false; errors: { path: string; message: string }[] };
+
+/**
+ * Everything a run needs to know before it starts, as named errors rather than exceptions:
+ * the site grid (a SiteGridError's path and message) and the memory check
+ * (→ path "analysis.cellSizeM"). Never throws for a validated plan.
+ */
+export function checkPlanForRun(plan: Plan, budgetBytes: number = RUN_MEMORY_BUDGET_BYTES): PlanRunCheck {
+  let grid: SiteGrid;
+  try {
+    grid = siteGridFrame(plan);
+  } catch (err) {
+    if (err instanceof SiteGridError)
+      return { ok: false, errors: [{ path: err.path, message: err.message }] };
+    return {
+      ok: false,
+      errors: [{ path: "(plan)", message: `the site grid cannot be built (${String(err)})` }],
+    };
+  }
+  const size = runSizeOf(plan, grid);
+  const memory = checkRunMemory(size, budgetBytes);
+  if (!memory.ok) {
+    const path = size.radars > MAX_RADARS_PER_RUN ? "posts" : "analysis.cellSizeM";
+    return { ok: false, errors: [{ path, message: memory.message }] };
+  }
+  return { ok: true, grid, memoryBytes: memory.bytes };
 }

@@ -6,6 +6,7 @@ import type { Plan } from "../../src/io/planSchema.ts";
 import { parsePlan } from "../../src/io/planValidation.ts";
 import {
   AUTO_CELL_SIZES_M,
+  checkPlanForRun,
   checkRunMemory,
   DEFAULT_GRID_MARGIN_M,
   estimateRunMemoryBytes,
@@ -231,5 +232,19 @@ describe("site grid", () => {
     expect(size.radars).toBe(1); // the second post is disabled
     expect(size.heights).toBe(3);
     expect(RUN_MEMORY_BUDGET_BYTES).toBe(2 * 1024 ** 3);
+  });
+
+  it("[SG6] checkPlanForRun turns grid and memory refusals into named errors", () => {
+    const ok = checkPlanForRun(plan());
+    expect(ok.ok && ok.memoryBytes).toBe(
+      estimateRunMemoryBytes({ cells: ok.ok ? ok.grid.cellCount : 0, radars: 1, heights: 3 }),
+    );
+    const fine = checkPlanForRun(
+      plan((p) => (p.analysis.cellSizeM = 0.5)),
+      1e6,
+    );
+    expect(fine.ok ? [] : fine.errors.map((e) => e.path)).toEqual(["analysis.cellSizeM"]);
+    const far = checkPlanForRun(plan((p) => (p.posts[0].position = { lonDeg: 20, latDeg: 62.3 })));
+    expect(far.ok ? [] : far.errors.map((e) => e.path)).toEqual(["posts"]);
   });
 });
