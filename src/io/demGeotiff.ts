@@ -181,6 +181,63 @@ function geotransformOf(
   return { originX, originY, pixelSizeX, pixelSizeY };
 }
 
+// Image directories followed along a TIFF's chain (main image, overviews, masks); more is no DEM.
+const IMAGE_DIRECTORIES_MAX = 64;
+const TIFF_MAGIC_CLASSIC = 42;
+const TIFF_MAGIC_BIG = 43;
+const CLASSIC_ENTRY_BYTES = 12;
+const BIG_ENTRY_BYTES = 20;
+
+/**
+ * The number of image directories (IFDs) in a TIFF, walking the chain in the raw bytes (TIFF 6.0
+ * §2; BigTIFF). A chain that loops back, points past the end, or runs beyond IMAGE_DIRECTORIES_MAX
+ * is refused here, before the decoder would follow it forever.
+ */
+export function countImageDirectories(buffer: ArrayBuffer, file: string): number {
+  const dv = new DataView(buffer);
+  if (buffer.byteLength < 8) throw new ImportError(file, `not a readable TIFF (${buffer.byteLength} bytes)`);
+  const order = dv.getUint16(0, false);
+  const little = order === 0x4949; // "II"
+  if (!little && order !== 0x4d4d)
+    throw new ImportError(file, "not a readable TIFF (no II/MM byte-order mark)");
+  const magic = dv.getUint16(2, little);
+  const big = magic === TIFF_MAGIC_BIG;
+  if (!big && magic !== TIFF_MAGIC_CLASSIC)
+    throw new ImportError(file, `not a readable TIFF (magic number ${magic})`);
+  const u64 = (at: number) => Number(dv.getBigUint64(at, little));
+  if (big && buffer.byteLength < 16)
+    throw new ImportError(file, "not a readable TIFF (truncated BigTIFF header)");
+  let offset = big ? u64(8) : dv.getUint32(4, little);
+  const seen = new Set<number>();
+  while (offset !== 0) {
+    if (seen.has(offset))
+      throw new ImportError(file, "damaged TIFF: the chain of image directories loops back on itself");
+    if (seen.size >= IMAGE_DIRECTORIES_MAX) {
+      throw new ImportError(file, `more than ${IMAGE_DIRECTORIES_MAX} image directories: not a DEM`);
+    }
+    const headBytes = big ? 8 : 2;
+    if (offset + headBytes > buffer.byteLength) {
+      throw new ImportError(
+        file,
+        `the file is truncated: image directory at byte ${offset} of ${buffer.byteLength}`,
+      );
+    }
+    seen.add(offset);
+    const entries = big ? u64(offset) : dv.getUint16(offset, little);
+    const next = offset + headBytes + entries * (big ? BIG_ENTRY_BYTES : CLASSIC_ENTRY_BYTES);
+    const nextBytes = big ? 8 : 4;
+    if (next + nextBytes > buffer.byteLength) {
+      throw new ImportError(
+        file,
+        `the file is truncated: image directory at byte ${offset} runs past the end`,
+      );
+    }
+    offset = big ? u64(next) : dv.getUint32(next, little);
+  }
+  if (seen.size === 0) throw new ImportError(file, "not a readable TIFF (no image directory)");
+  return seen.size;
+}
+
 /** Refuse an image whose strips/tiles point past the end of the buffer (a truncated file). */
 async function checkNotTruncated(image: GeoTIFFImage, byteLength: number, file: string): Promise<void> {
   const dir = image.fileDirectory;
@@ -230,12 +287,12 @@ function windowFor(
 async function pickImage(
   tiff: GeoTIFF,
   main: GeoTIFFImage,
+  count: number,
   windowCols: number,
   frame: GridFrame,
 ): Promise<{ image: GeoTIFFImage; factor: number }> {
   let best = { image: main, factor: 1 };
   const sourcePixelsPerCell = windowCols / Math.max(1, frame.width);
-  const count = await tiff.getImageCount();
   for (let i = 1; i < count; i++) {
     const image = await tiff.getImage(i);
     const subfile = Number(image.fileDirectory.getValue("NewSubfileType") ?? 0);
@@ -260,6 +317,7 @@ export async function readGeoTiffDem(
 ): Promise<DemResult> {
   const file = options.fileName ?? "DEM GeoTIFF";
   const warnings: string[] = [];
+  const imageCount = countImageDirectories(buffer, file);
   let tiff: GeoTIFF;
   let main: GeoTIFFImage;
   try {
@@ -310,7 +368,7 @@ export async function readGeoTiffDem(
       `the DEM (${width} × ${height} pixels from (${gt.originX}, ${gt.originY}) in ${crs}) does not overlap the site grid`,
     );
   }
-  const { image, factor } = await pickImage(tiff, main, c1 - c0, frame);
+  const { image, factor } = await pickImage(tiff, main, imageCount, c1 - c0, frame);
   // Overview pixel sizes follow from the extent over the overview's own size, per axis.
   const factorX = width / image.getWidth();
   const factorY = height / image.getHeight();

@@ -85,6 +85,32 @@ describe(`DEM resampling against GDAL ${meta.gdalVersion} gdalwarp -r bilinear`,
     spy.mockRestore();
   });
 
+  it("[DM1] the same DEM as BigTIFF (64-bit offsets) matches gdalwarp too", async () => {
+    const result = await readGeoTiffDem(bytes("src_geo_bigtiff.tif"), frame, {
+      fileName: "src_geo_bigtiff.tif",
+    });
+    const c = await compare(result, "geo");
+    expect(c.compared).toBeGreaterThan(0.9 * c.total);
+    expect(c.nanMismatch).toBe(0);
+    expect(c.maxErr).toBeLessThan(TOLERANCE_M);
+  });
+
+  it("[DM2] an overview is used only when it is still finer than the site grid", async () => {
+    // On the 25 m grid (finer than the 63 m × 93 m pixels) the full resolution is read: same as gdalwarp.
+    const fine = await readGeoTiffDem(bytes("src_geo_ovr.tif"), frame, { fileName: "src_geo_ovr.tif" });
+    expect(fine.warnings.join(" ")).not.toMatch(/overview/);
+    expect((await compare(fine, "geo")).maxErr).toBeLessThan(TOLERANCE_M);
+    // On a 400 m grid over the same area, 4 source pixels and more fall in a cell: the 1/4 overview is read.
+    const coarse: GridFrame = { ...frame, width: 8, height: 7, cellSizeM: 400 };
+    const spy = vi.spyOn(GeoTIFFImage.prototype, "readRasters");
+    const r = await readGeoTiffDem(bytes("src_geo_ovr.tif"), coarse, { fileName: "src_geo_ovr.tif" });
+    expect(r.warnings.join(" ")).toMatch(/overview at 1\/4\.0 resolution/);
+    const [c0, r0, c1, r1] = (spy.mock.calls[0][0] as { window: number[] }).window;
+    expect(c1 - c0).toBeLessThan(25);
+    expect(r1 - r0).toBeLessThan(15);
+    spy.mockRestore();
+  });
+
   it("[DM3] SRTM 3″ tile (zipped .hgt, voids) onto a UTM grid matches gdalwarp", async () => {
     const result = readHgtDem(bytes("N47E011.hgt.zip"), "N47E011.hgt.zip", frame);
     const c = await compare(result, "hgt");

@@ -170,6 +170,16 @@ describe("GeoTIFF DEM", () => {
     );
   });
 
+  it("[DM9] an image-directory chain that loops back is refused at once, not followed forever", async () => {
+    const buf = makeTiff(planeSpec).slice(0);
+    const dv = new DataView(buf);
+    const ifd = dv.getUint32(4, false);
+    const entries = dv.getUint16(ifd, false);
+    dv.setUint32(ifd + 2 + entries * 12, ifd, false); // next IFD = itself
+    const e = await importError(readGeoTiffDem(buf, frame, { fileName: "loop.tif" }));
+    expect(e.message).toBe("loop.tif: damaged TIFF: the chain of image directories loops back on itself");
+  });
+
   it("[DM10] a 200 000 × 200 000 header is refused by size before anything is allocated", async () => {
     const huge = patchSize(makeTiff(planeSpec), 200_000, 200_000);
     const e = await importError(readGeoTiffDem(huge, frame, { fileName: "huge.tif" }));
