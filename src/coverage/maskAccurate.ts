@@ -86,12 +86,15 @@ export function computeHorizonAccurate(
   ];
   let maxRays = 0;
   for (const t of triangles)
-    maxRays = Math.max(maxRays, 2 * Math.min(t.majorSteps, rangeSteps) * RAYS_PER_PERIMETER_CELL + 1);
+    maxRays = Math.max(
+      maxRays,
+      2 * Math.ceil(Math.min(t.majorSteps, rangeSteps) * RAYS_PER_PERIMETER_CELL) + 1,
+    );
   const buf = buffers(maxRays);
   for (const t of triangles) {
     const steps = Math.min(t.majorSteps, rangeSteps);
     if (steps < 1) continue;
-    for (let j = 0; j < 2 * steps * RAYS_PER_PERIMETER_CELL + 1; j++) {
+    for (let j = 0; j < 2 * Math.ceil(steps * RAYS_PER_PERIMETER_CELL) + 1; j++) {
       buf.horizon[j] = Number.NEGATIVE_INFINITY;
       buf.obstacleM[j] = Number.NaN;
     }
@@ -121,7 +124,7 @@ function advanceRays(
   const { majorStride, minorStride, minorObs } = t;
   const minorLast = t.minorLen - 1;
   const lastLine = t.majorSteps;
-  const span = steps * RAYS_PER_PERIMETER_CELL;
+  const span = Math.ceil(steps * RAYS_PER_PERIMETER_CELL);
   const nRays = 2 * span + 1;
   const invSpan = 1 / span;
   const hz = buf.horizon;
@@ -163,7 +166,7 @@ function advanceRays(
       // Sample where it crosses a minor line before major line m+1.
       const k1 = ((y + rayStep + 1) | 0) - 1;
       if (k1 !== k0 && m < lastLine) {
-        const kk = k1 > k0 ? k1 : k0;
+        const kk = Math.max(k1, k0);
         if (kk >= 0 && kk <= minorLast) {
           const g = (kk - y) * invRayStep;
           const ik = lineBase + kk * minorStride;
@@ -200,7 +203,7 @@ function writeCells(
   const maxRange2 = (s.maxRangeM / cell) * (s.maxRangeM / cell);
   const { majorStride, minorStride, minorObs } = t;
   const minorLast = t.minorLen - 1;
-  const span = steps * RAYS_PER_PERIMETER_CELL;
+  const span = Math.ceil(steps * RAYS_PER_PERIMETER_CELL);
   const jMax = 2 * span - 1;
   const bh = buf.bandHorizon;
   const bo = buf.bandObstacleM;

@@ -10,7 +10,7 @@
  * strictly between the observer and the cell.
  */
 
-import { EARTH_RADIUS_M } from "./constants.ts";
+import { EARTH_RADIUS_M, VISIBILITY_TOLERANCE_M } from "./constants.ts";
 import type { Grid } from "./grid.ts";
 import { computeHorizonAccurate } from "./maskAccurate.ts";
 import { computeHorizonFast } from "./maskFast.ts";
@@ -197,7 +197,8 @@ function checkSizes(h: HorizonResult, ground: Grid): void {
 
 /**
  * Lowest target height above ground that the antenna sees at each cell, m AGL (rule TM5):
- * max(0, H + d²/(2ka) + σ·d − ground). 0 where nothing obstructs; NaN where the horizon or the ground is
+ * max(0, H + d²/(2ka) + σ·d − ground), values within VISIBILITY_TOLERANCE_M (1 mm) of 0 given as 0.
+ * 0 where nothing obstructs; NaN where the horizon or the ground is
  * nodata / out of range. Same quantity as gdal_viewshed -om GROUND (GDAL 3.6 docs).
  * `ground` is m ASL on the same grid as the horizon.
  */
@@ -232,7 +233,8 @@ export function lowestVisibleHeightAglM(
 
 /**
  * Visibility of a target `targetHeightAglM` (m above ground, finite) at cell `index` (rule TM4):
- * the target is seen when its curvature-corrected slope from the antenna is not below the horizon slope.
+ * the target is seen when its curvature-corrected slope from the antenna is not below the horizon slope
+ * (within VISIBILITY_TOLERANCE_M of height, 1 mm).
  * Nodata, out of range or NaN height → false.
  */
 export function isVisible(
@@ -248,7 +250,7 @@ export function isVisible(
   if (s === Number.NEGATIVE_INFINITY) return true;
   const d = h.distanceM[index];
   const curv = curvatureFactorPerM(input.effectiveEarthFactor);
-  return input.antennaHeightAslM + d * d * curv + s * d - g <= targetHeightAglM;
+  return input.antennaHeightAslM + d * d * curv + s * d - g <= targetHeightAglM + VISIBILITY_TOLERANCE_M;
 }
 
 /**
@@ -274,13 +276,14 @@ export function visibleMask(
   const hs = h.horizonSlope;
   const dist = h.distanceM;
   const gz = ground.data;
+  const limit = targetHeightAglM + VISIBILITY_TOLERANCE_M;
   for (let i = 0; i < n; i++) {
     const s = hs[i];
     const d = dist[i];
     const g = gz[i];
     const need = antenna + d * d * curv + s * d - g;
     // NaN compares false → hidden; -Infinity slope gives -Infinity need → visible (when ground exists).
-    res[i] = need <= targetHeightAglM || (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) ? 1 : 0;
+    res[i] = need <= limit || (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) ? 1 : 0;
   }
   return res;
 }
