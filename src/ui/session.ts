@@ -40,6 +40,10 @@ export interface SessionState {
   showSectors: boolean;
   showExposure: boolean;
   showBuildings: boolean;
+  /** Height given to a building drawn on the map, m AGL. */
+  newBuildingHeightM: number;
+  /** Canopy height given to a tree stand drawn on the map, m AGL. */
+  newCanopyHeightM: number;
   set: (patch: Partial<Omit<SessionState, "set" | "say" | "dismiss">>) => void;
   say: (kind: Message["kind"], text: string, details?: string[]) => void;
   dismiss: (id: number) => void;
@@ -63,6 +67,8 @@ export const useSession = create<SessionState>()((set) => ({
   showSectors: true,
   showExposure: false,
   showBuildings: true,
+  newBuildingHeightM: 10,
+  newCanopyHeightM: 15,
   set: (patch) => set(patch),
   say: (kind, text, details) =>
     set((s) => ({

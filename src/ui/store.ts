@@ -4,7 +4,7 @@
  * A change is a function from the old plan to the new one, so components never mutate the plan.
  */
 import { temporal } from "zundo";
-import { create } from "zustand";
+import { create, useStore } from "zustand";
 import type { Plan } from "../io/planSchema";
 
 export interface PlanStore {
@@ -74,4 +74,9 @@ export function freshId(prefix: string, existing: ReadonlyArray<{ id: string }>)
     const id = `${prefix}-${i}`;
     if (!used.has(id)) return id;
   }
+}
+
+/** React hook on the undo history (e.g. whether undo is possible). */
+export function useHistory<T>(selector: (h: ReturnType<typeof usePlanStore.temporal.getState>) => T): T {
+  return useStore(usePlanStore.temporal, selector);
 }

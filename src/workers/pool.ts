@@ -45,8 +45,17 @@ interface Job<Api> {
   method: Methods<Api>;
   args: unknown[];
   transfer: Transferable[];
+  /** Worker index this job must run on (its caches live there); any free worker when undefined. */
+  slot: number | undefined;
   resolve: (v: unknown) => void;
   reject: (e: unknown) => void;
+}
+
+export interface RunOptions {
+  /** Typed-array buffers to move to the worker. */
+  transfer?: Transferable[];
+  /** Run on this worker (modulo the pool size), e.g. to reuse a cache kept there. */
+  slot?: number;
 }
 
 interface Slot<Api> {
@@ -90,7 +99,7 @@ export class WorkerPool<Api extends object> {
     generation: number,
     method: M,
     args: Api[M] extends (...a: infer A) => unknown ? A : never,
-    transfer: Transferable[] = [],
+    options: RunOptions = {},
   ): Promise<Api[M] extends (...a: never[]) => infer R ? Awaited<R> : never> {
     if (this.closed) return Promise.reject(new Error("the worker pool is closed"));
     const prev = this.latest.get(channel) ?? 0;
@@ -110,7 +119,8 @@ export class WorkerPool<Api extends object> {
         generation,
         method,
         args: args as unknown[],
-        transfer,
+        transfer: options.transfer ?? [],
+        slot: options.slot === undefined || this.slots.length === 0 ? undefined : options.slot % this.slots.length,
         resolve: resolve as (v: unknown) => void,
         reject,
       };
@@ -175,12 +185,13 @@ export class WorkerPool<Api extends object> {
   }
 
   private pump(): void {
-    for (const slot of this.slots) {
-      if (slot.job) continue;
-      const job = this.queue.shift();
-      if (!job) return;
+    this.slots.forEach((slot, index) => {
+      if (slot.job) return;
+      const k = this.queue.findIndex((j) => j.slot === undefined || j.slot === index);
+      if (k < 0) return;
+      const [job] = this.queue.splice(k, 1);
       this.start(slot, job);
-    }
+    });
   }
 
   private async start(slot: Slot<Api>, job: Job<Api>): Promise<void> {

@@ -1,0 +1,60 @@
+/**
+ * Gaps drawn to read without colour: diagonal hatching over every gap cell (a RasterLayer in hatch
+ * pattern) and a solid outline around each gap with its area as a text label.
+ */
+import type { GridFrame } from "../coverage/grid";
+import { TABLE_SIZE } from "./colourTable";
+import { formatAreaM2, type GapOutline } from "./gapOutlines";
+import L from "./leaflet";
+import type { Forward } from "./pixelToGrid";
+import { RasterLayer } from "./rasterLayer";
+
+/** Outlines labelled with their area (the largest ones). */
+const LABELLED_GAPS = 12;
+
+function hatchTable(): Uint8ClampedArray {
+  const t = new Uint8ClampedArray(TABLE_SIZE * 4);
+  t[0] = 20;
+  t[1] = 10;
+  t[2] = 10;
+  t[3] = 230;
+  return t;
+}
+
+export class GapLayer extends L.LayerGroup {
+  private readonly hatch = new RasterLayer({ pane: "overlayPane", zIndex: 5 });
+  private readonly outlines = L.layerGroup();
+  private readonly table = hatchTable();
+
+  constructor() {
+    super();
+    this.addLayer(this.hatch);
+    this.addLayer(this.outlines);
+  }
+
+  setGaps(frame: GridFrame | null, forward: Forward | null, gap: Uint8Array | null, outlines: GapOutline[]): void {
+    this.outlines.clearLayers();
+    if (!frame || !forward || !gap) {
+      this.hatch.setPaint(null);
+      return;
+    }
+    const indices = new Int16Array(gap.length);
+    for (let i = 0; i < gap.length; i++) indices[i] = gap[i] ? 0 : -1;
+    this.hatch.setPaint({ frame, forward, indices, table: this.table, pattern: "hatch" });
+    outlines.forEach((o, k) => {
+      const poly = L.polygon(o.rings, { color: "#140a0a", weight: 1.5, fill: false, interactive: false });
+      this.outlines.addLayer(poly);
+      if (k < LABELLED_GAPS) {
+        const el = document.createElement("span");
+        el.textContent = formatAreaM2(o.areaM2);
+        this.outlines.addLayer(
+          L.marker(o.labelAt, {
+            interactive: false,
+            keyboard: false,
+            icon: L.divIcon({ className: "gap-label", html: el, iconSize: [0, 0] }),
+          }),
+        );
+      }
+    });
+  }
+}

@@ -1,0 +1,100 @@
+/** The top bar: file actions, undo/redo, import, run status, about & safety. */
+import { useEffect, useState } from "react";
+import { useAssets } from "../assets";
+import { type RecentPlan, recentPlans, recentPlanText } from "../autosave";
+import { useCoverage } from "../coverageState";
+import { loadOpened, openPlanFromPicker, saveBundleToFile, savePlanToFile } from "../files";
+import { newPlanAround } from "../newPlan";
+import { readPlanText } from "../planText";
+import { say } from "../session";
+import { redo, undo, useHistory, usePlanStore } from "../store";
+import { ImportButton } from "./ImportButton";
+
+export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, number] }) {
+  const plan = usePlanStore((s) => s.plan);
+  const canUndo = useHistory((s) => s.pastStates.length > 0);
+  const canRedo = useHistory((s) => s.futureStates.length > 0);
+  const running = useCoverage((s) => s.running);
+  const elapsed = useCoverage((s) => s.view?.elapsedMs);
+  const problem = useCoverage((s) => s.problem);
+  const [recent, setRecent] = useState<RecentPlan[]>([]);
+  useEffect(() => {
+    recentPlans()
+      .then(setRecent)
+      .catch(() => setRecent([]));
+  }, [plan?.site.name]);
+
+  const openRecent = async (key: string) => {
+    const text = await recentPlanText(key);
+    if (!text) return say("warning", "That recent plan is no longer stored.");
+    const r = readPlanText(text, "the recent plan");
+    if (!r.ok) return say("error", r.message, r.details);
+    loadOpened({ ok: true, plan: r.plan, dem: null }, r.plan.site.name);
+  };
+
+  return (
+    <header className="topbar">
+      <div className="brand" title="Picket radar coverage planner">
+        <span className="brand-mark" aria-hidden="true" />
+        Picket
+      </div>
+      <div className="site-name" data-testid="site-name">
+        {plan?.site.name ?? "…"}
+      </div>
+      <nav className="actions" aria-label="Plan">
+        <button
+          type="button"
+          onClick={() => {
+            const [lon, lat] = props.mapCentre();
+            usePlanStore.getState().load(newPlanAround(lon, lat, plan?.radarModels ?? []));
+            useAssets.getState().setDem(null);
+            say("info", "New plan: draw the protected area and place posts.");
+          }}
+        >
+          New
+        </button>
+        <button type="button" onClick={() => void openPlanFromPicker()} data-testid="open-plan">
+          Open…
+        </button>
+        <button type="button" disabled={!plan} onClick={() => plan && void savePlanToFile(plan)} data-testid="save-plan">
+          Save plan
+        </button>
+        <button
+          type="button"
+          disabled={!plan}
+          onClick={() => plan && void saveBundleToFile(plan, useAssets.getState().dem)}
+          data-testid="save-bundle"
+        >
+          Save with DEM
+        </button>
+        <select
+          aria-label="Recent plans"
+          value=""
+          onChange={(e) => e.target.value && void openRecent(e.target.value)}
+          data-testid="recent-plans"
+        >
+          <option value="">Recent…</option>
+          {recent.map((r) => (
+            <option key={r.key} value={r.key}>
+              {r.name} ({r.savedAtIso.slice(0, 16).replace("T", " ")})
+            </option>
+          ))}
+        </select>
+        <ImportButton />
+        <span className="sep" />
+        <button type="button" disabled={!canUndo} onClick={() => undo()} title="Undo (Ctrl+Z)" data-testid="undo">
+          Undo
+        </button>
+        <button type="button" disabled={!canRedo} onClick={() => redo()} title="Redo (Ctrl+Shift+Z)" data-testid="redo">
+          Redo
+        </button>
+      </nav>
+      <div className="run-status" role="status" data-testid="run-status">
+        {running ? "Computing…" : problem ? `Not computed: ${problem}` : elapsed !== undefined ? `Computed in ${Math.round(elapsed)} ms` : ""}
+      </div>
+      <button type="button" className="about-button" onClick={props.onAbout} data-testid="about">
+        About & safety
+      </button>
+    </header>
+  );
+}

@@ -1,0 +1,114 @@
+/**
+ * The planner's link to the coverage workers: one pool for the page (module workers sized to the
+ * machine; size 0 inline when workers are unavailable or `?workers=0` is in the address, which tests use).
+ * Evaluations run on worker 0 (its per-radar cache makes a moved post cost one radar), inspections on
+ * the last worker, so an inspection never waits behind a run.
+ */
+import type { Plan } from "../io/planSchema";
+import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
+import type { CoverageApi, DemPayload, EvaluateRequest, PointRequest } from "../workers/protocol";
+import { useAssets } from "./assets";
+import { useCoverage } from "./coverageState";
+import { say } from "./session";
+import { usePlanStore } from "./store";
+
+let pool: WorkerPool<CoverageApi> | null = null;
+
+function poolSize(): number {
+  if (typeof Worker === "undefined") return 0;
+  const q = new URLSearchParams(globalThis.location?.search ?? "").get("workers");
+  if (q !== null && Number.isFinite(Number(q))) return Math.max(0, Math.floor(Number(q)));
+  return defaultPoolSize();
+}
+
+export async function getPool(): Promise<WorkerPool<CoverageApi>> {
+  if (pool) return pool;
+  const size = poolSize();
+  if (size === 0) {
+    const { createCoverageApi } = await import("../workers/coverageApi");
+    pool = new WorkerPool<CoverageApi>({ size: 0, inline: createCoverageApi() });
+  } else {
+    pool = new WorkerPool<CoverageApi>({
+      size,
+      createWorker: () => new Worker(new URL("../workers/coverage.worker.ts", import.meta.url), { type: "module" }),
+      onCrash: (message) => {
+        say("error", message);
+        // The plan is intact; run it again on the new worker.
+        scheduleEvaluation();
+      },
+    });
+  }
+  return pool;
+}
+
+const EVAL_SLOT = 0;
+const POINT_SLOT = -1;
+let generation = 0;
+
+function demPayload(): DemPayload | null {
+  const d = useAssets.getState().dem;
+  return d ? { fileName: d.fileName, bytes: d.bytes } : null;
+}
+
+function errorText(e: unknown): string {
+  return e instanceof Error ? e.message : String(e);
+}
+
+/** Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. */
+export async function runEvaluation(options: { preview?: boolean; plan?: Plan } = {}): Promise<void> {
+  const plan = options.plan ?? usePlanStore.getState().plan;
+  if (!plan) return;
+  const g = ++generation;
+  const p = await getPool();
+  const req: EvaluateRequest = {
+    generation: g,
+    plan,
+    dem: demPayload(),
+    ...(options.preview ? { maskMode: "fast" as const } : {}),
+  };
+  useCoverage.getState().set({ running: true, generation: g });
+  try {
+    const view = await p.run("evaluate", g, "evaluate", [req], { slot: EVAL_SLOT });
+    if (options.preview) useCoverage.getState().set({ preview: view, running: false, problem: null });
+    else useCoverage.getState().set({ view, preview: null, running: false, problem: null });
+  } catch (e) {
+    if (isStale(e)) return;
+    useCoverage.getState().set({ running: false, problem: errorText(e) });
+    if ((e as Error)?.name !== "WorkerCrashError") say("error", `The coverage could not be computed: ${errorText(e)}`);
+  }
+}
+
+let pending: ReturnType<typeof setTimeout> | null = null;
+/** Coalesces a burst of changes into one run on the next task. */
+export function scheduleEvaluation(): void {
+  if (pending) clearTimeout(pending);
+  pending = setTimeout(() => {
+    pending = null;
+    void runEvaluation();
+  }, 0);
+}
+
+let pointGeneration = 0;
+export async function runPoint(req: Omit<PointRequest, "generation" | "plan" | "dem">): Promise<void> {
+  const plan = usePlanStore.getState().plan;
+  if (!plan) return;
+  const g = ++pointGeneration;
+  const p = await getPool();
+  useCoverage.getState().set({ pointBusy: true });
+  try {
+    const reply = await p.run("point", g, "point", [{ ...req, generation: g, plan, dem: demPayload() }], {
+      slot: p.size > 1 ? p.size + POINT_SLOT : EVAL_SLOT,
+    });
+    useCoverage.getState().set({ point: reply, pointBusy: false });
+  } catch (e) {
+    if (isStale(e)) return;
+    useCoverage.getState().set({ pointBusy: false });
+    say("error", `The point could not be inspected: ${errorText(e)}`);
+  }
+}
+
+/** Test hook: crash the evaluation worker on purpose. */
+export async function crashWorkerForTest(): Promise<void> {
+  const p = await getPool();
+  await p.run("crash", 1, "crashForTest", [], { slot: EVAL_SLOT }).catch(() => undefined);
+}

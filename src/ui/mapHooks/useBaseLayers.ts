@@ -1,0 +1,45 @@
+/**
+ * The offline basemap: a hillshade of the site's ground (drawn from the DEM, or flat grey without one),
+ * a graticule, and, only when the user set one, their tile server with its attribution.
+ */
+import { useEffect, useMemo } from "react";
+import { GraticuleLayer } from "../../map/graticuleLayer";
+import { greyTable, hillshadeIndices } from "../../map/hillshade";
+import L from "../../map/leaflet";
+import { forwardTo } from "../../map/pixelToGrid";
+import { RasterLayer } from "../../map/rasterLayer";
+import { useMapLayer } from "../../map/useLeafletMap";
+import type { CoverageView } from "../../workers/protocol";
+import { type TileServer, useBasemap } from "../basemap";
+
+export function useBaseLayers(map: L.Map | null, view: CoverageView | null): void {
+  const hillshade = useMemo(() => new RasterLayer({ pane: "tilePane", zIndex: 1 }), []);
+  const graticule = useMemo(() => new GraticuleLayer(), []);
+  useMapLayer(map, hillshade);
+  useMapLayer(map, graticule);
+  const ground = view?.groundAmslM;
+  const frame = view?.frame;
+  const table = useMemo(() => greyTable(), []);
+  useEffect(() => {
+    if (!ground || !frame) return;
+    hillshade.setPaint({
+      frame,
+      forward: forwardTo(frame.crs),
+      indices: hillshadeIndices({ ...frame, data: ground }),
+      table,
+      pattern: "fill",
+    });
+  }, [ground, frame, hillshade, table]);
+  const server = useBasemap((s) => s.server);
+  const tiles = useMemo(() => (server ? tileLayerOf(server) : null), [server]);
+  useMapLayer(map, tiles);
+}
+
+function tileLayerOf(s: TileServer): L.TileLayer {
+  return L.tileLayer(s.urlTemplate, { attribution: escapeText(s.attribution), maxZoom: 21, zIndex: 2, opacity: 0.9 });
+}
+
+/** Leaflet puts attributions in as HTML: escape the user's text so it shows as text. */
+export function escapeText(t: string): string {
+  return t.replace(/[&<>"']/g, (c) => `&#${c.charCodeAt(0)};`);
+}

@@ -1,0 +1,51 @@
+/** The coverage raster and the gap layer for the selected layer, class and height. */
+import { useEffect, useMemo } from "react";
+import { GapLayer } from "../../map/gapLayer";
+import { gapOutlines } from "../../map/gapOutlines";
+import type L from "../../map/leaflet";
+import { forwardTo, inverseFrom } from "../../map/pixelToGrid";
+import { quantise, RasterLayer } from "../../map/rasterLayer";
+import { useMapLayer } from "../../map/useLeafletMap";
+import { shownView, useCoverage } from "../coverageState";
+import { layerScale } from "../layerPaint";
+import { selectedSlice } from "../selection";
+import { useSession } from "../session";
+
+export function useCoverageLayers(map: L.Map | null): void {
+  const coverage = useMemo(() => new RasterLayer({ pane: "overlayPane", zIndex: 3 }), []);
+  const gaps = useMemo(() => new GapLayer(), []);
+  useMapLayer(map, coverage);
+  useMapLayer(map, gaps);
+  const view = useCoverage(shownView);
+  const { layer, heightM, classId, singlePostId, showGaps } = useSession();
+  const slice = selectedSlice(view, classId, heightM);
+  const frame = view?.frame;
+  const forward = useMemo(() => (frame ? forwardTo(frame.crs) : null), [frame?.crs, frame]);
+  const inverse = useMemo(() => (frame ? inverseFrom(frame.crs) : null), [frame?.crs, frame]);
+
+  useEffect(() => {
+    if (!view || !slice || !frame || !forward) {
+      coverage.setPaint(null);
+      return;
+    }
+    const maxOverlap = view.radarPostIds.length;
+    const maxH = Math.max(...view.heightsM, 1) * 2;
+    const scale = layerScale(layer, maxOverlap, maxH);
+    let values: ArrayLike<number> = slice.combinedPd;
+    if (layer === "overlap") values = slice.overlap;
+    else if (layer === "lowest") values = view.lowestVisibleAglM;
+    else if (layer === "single") {
+      const k = Math.max(0, view.radarPostIds.indexOf(singlePostId ?? view.radarPostIds[0]));
+      values = slice.perRadarPd[k] ?? slice.combinedPd;
+    }
+    coverage.setPaint({ frame, forward, indices: quantise(values, scale.toIndex), table: scale.table, pattern: "fill" });
+  }, [view, slice, frame, forward, layer, singlePostId, coverage]);
+
+  useEffect(() => {
+    if (!slice || !frame || !forward || !inverse || !showGaps) {
+      gaps.setGaps(null, null, null, []);
+      return;
+    }
+    gaps.setGaps(frame, forward, slice.gap, gapOutlines(slice.gap, frame, inverse));
+  }, [slice, frame, forward, inverse, showGaps, gaps]);
+}

@@ -1,0 +1,22 @@
+/** Fits the map to the protected areas and posts whenever a different plan is loaded. */
+import { useEffect, useRef } from "react";
+import L from "../../map/leaflet";
+import { usePlanStore } from "../store";
+
+export function useFitToSite(map: L.Map | null): void {
+  const plan = usePlanStore((s) => s.plan);
+  const fitted = useRef<string | null>(null);
+  useEffect(() => {
+    if (!map || !plan) return;
+    const key = `${plan.site.name}|${plan.protectedAreas.map((a) => a.id).join(",")}`;
+    if (fitted.current === key) return;
+    fitted.current = key;
+    const pts: [number, number][] = [];
+    for (const a of plan.protectedAreas) {
+      const polys = a.geometry.type === "Polygon" ? [a.geometry.coordinates] : a.geometry.coordinates;
+      for (const poly of polys) for (const p of poly[0]) pts.push([p[1], p[0]]);
+    }
+    for (const p of plan.posts) pts.push([p.position.latDeg, p.position.lonDeg]);
+    if (pts.length > 0) map.fitBounds(L.latLngBounds(pts).pad(0.35), { animate: false });
+  }, [map, plan]);
+}

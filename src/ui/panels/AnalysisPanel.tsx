@@ -1,0 +1,104 @@
+/**
+ * Analysis settings: cell size, effective-Earth factor, target heights, masking mode; the grid size and
+ * the memory a run needs are shown before the run, and a run that would not fit is refused.
+ */
+import { useId, useMemo, useState } from "react";
+import { checkRunMemory, estimateRunMemoryBytes, runSizeOf, siteGridFrame } from "../../io/siteGrid";
+import { NumberField, SelectField } from "../components/NumberField";
+import { setAnalysisHeights } from "../planEdits";
+import { usePlanStore } from "../store";
+
+const BYTES_PER_MIB = 1024 * 1024;
+
+function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: number[]) => void }) {
+  const id = useId();
+  const [text, setText] = useState(heights.join(", "));
+  const [error, setError] = useState<string | null>(null);
+  const commit = () => {
+    const parts = text.split(/[,;\s]+/).filter(Boolean).map(Number);
+    const bad = parts.find((h) => !(Number.isFinite(h) && h >= 0 && h <= 10000));
+    if (parts.length === 0 || bad !== undefined) return setError(`Target heights: "${text}" must be numbers 0–10000 m, comma separated`);
+    setError(null);
+    onCommit(parts);
+  };
+  return (
+    <div className="field">
+      <label htmlFor={id}>Target heights</label>
+      <span className="field-input">
+        <input id={id} value={text} onChange={(e) => setText(e.target.value)} onBlur={commit} onKeyDown={(e) => e.key === "Enter" && commit()} data-testid="analysis-heights" />
+        <span className="unit">m AGL</span>
+      </span>
+      {error && <span className="field-error" role="alert">{error}</span>}
+    </div>
+  );
+}
+
+export function AnalysisPanel() {
+  const plan = usePlanStore((s) => s.plan);
+  const change = usePlanStore((s) => s.change);
+  const estimate = useMemo(() => {
+    if (!plan) return null;
+    try {
+      const g = siteGridFrame(plan);
+      const size = runSizeOf(plan, g);
+      return { g, size, bytes: estimateRunMemoryBytes(size), check: checkRunMemory(size), error: null };
+    } catch (e) {
+      return { g: null, size: null, bytes: 0, check: null, error: e instanceof Error ? e.message : String(e) };
+    }
+  }, [plan]);
+  if (!plan) return null;
+  const a = plan.analysis;
+  return (
+    <div className="panel" data-testid="analysis-panel">
+      <SelectField
+        label="Cell size"
+        value={a.cellSizeM === "auto" ? "auto" : "fixed"}
+        options={[
+          { value: "auto", label: "Automatic (caps the cell count)" },
+          { value: "fixed", label: "Fixed" },
+        ]}
+        onChange={(v) => change((p) => ({ ...p, analysis: { ...p.analysis, cellSizeM: v === "auto" ? "auto" : (estimate?.g ? estimate.g.frame.cellSizeM : 10) } }), "cell size")}
+      />
+      {a.cellSizeM !== "auto" && (
+        <NumberField label="Cell side" unit="m" min={0.5} max={1000} value={a.cellSizeM} onCommit={(v) => change((p) => ({ ...p, analysis: { ...p.analysis, cellSizeM: v } }), "cell size")} testId="cell-size" />
+      )}
+      <NumberField label="Effective Earth factor k" unit="(4/3 standard, 1 geometric)" min={0.5} max={1000} digits={3} value={a.effectiveEarthFactor} onCommit={(k) => change((p) => ({ ...p, analysis: { ...p.analysis, effectiveEarthFactor: k } }), "k factor")} />
+      <HeightsField heights={a.targetHeightsM} onCommit={(h) => change((p) => setAnalysisHeights(p, h), "target heights")} />
+      <SelectField
+        label="Masking"
+        value={a.maskMode}
+        options={[
+          { value: "accurate", label: "Accurate (for reports)" },
+          { value: "fast", label: "Fast (quick look)" },
+        ]}
+        onChange={(maskMode) => change((p) => ({ ...p, analysis: { ...p.analysis, maskMode } }), "masking mode")}
+      />
+      <h3>Run size</h3>
+      {estimate?.error ? (
+        <p className="field-error" role="alert">{estimate.error}</p>
+      ) : estimate?.g && estimate.size ? (
+        <dl className="figures" data-testid="run-estimate">
+          <dt>Grid</dt>
+          <dd>
+            {estimate.g.frame.width} × {estimate.g.frame.height} cells of {estimate.g.frame.cellSizeM} m
+          </dd>
+          <dt>Cells</dt>
+          <dd>{(estimate.g.cellCount / 1e6).toFixed(2)} million</dd>
+          <dt>Radars × heights</dt>
+          <dd>
+            {estimate.size.radars} × {estimate.size.heights}
+          </dd>
+          <dt>Memory needed</dt>
+          <dd>{(estimate.bytes / BYTES_PER_MIB).toFixed(0)} MiB</dd>
+          <dt>Frame</dt>
+          <dd>UTM zone {estimate.g.zone.zone}{estimate.g.zone.south ? "S" : "N"} (EPSG:{estimate.g.epsg})</dd>
+        </dl>
+      ) : null}
+      {estimate?.check && !estimate.check.ok && (
+        <p className="field-error" role="alert">
+          {estimate.check.message}
+        </p>
+      )}
+    </div>
+  );
+}

@@ -1,0 +1,157 @@
+/**
+ * The radar-model library: the plan's models with their key figures; duplicate, edit (as a JSON
+ * document checked field by field), export, import a model file, delete an unused model.
+ */
+import { fileOpen, fileSave } from "browser-fs-access";
+import { useEffect, useId, useState } from "react";
+import type { RadarModel } from "../../coverage/radarModel";
+import { loadRadarModelFile } from "../../io/radarFile";
+import { say } from "../session";
+import { freshId, usePlanStore } from "../store";
+
+const HZ_PER_GHZ = 1e9;
+const M_PER_KM = 1000;
+
+function KeyFigures({ m }: { m: RadarModel }) {
+  return (
+    <dl className="figures">
+      <dt>Frequency</dt>
+      <dd>{(m.frequencyHz / HZ_PER_GHZ).toFixed(2)} GHz</dd>
+      <dt>Peak power</dt>
+      <dd>{m.transmitter.peakPowerW} W</dd>
+      <dt>Peak gain</dt>
+      <dd>{m.txAntenna.peakGainDbi} dBi</dd>
+      <dt>Beamwidth az × el</dt>
+      <dd>
+        {m.txAntenna.azBeamwidthDeg}° × {m.txAntenna.elBeamwidthDeg}°
+      </dd>
+      <dt>Scan</dt>
+      <dd>{m.scan.kind === "sector" ? `sector ${m.scan.sectorWidthDeg}°` : m.scan.kind === "staring" ? `staring ${m.scan.fovAzDeg}°` : "rotating 360°"}</dd>
+      <dt>Instrumented range</dt>
+      <dd>
+        {(m.blindZoneM / M_PER_KM).toFixed(2)}–{(m.maxInstrumentedRangeM / M_PER_KM).toFixed(1)} km
+      </dd>
+      <dt>Waveform</dt>
+      <dd>{m.waveform.kind === "fmcw" ? "FMCW" : "pulsed"}</dd>
+    </dl>
+  );
+}
+
+function ModelEditor({ model, onDone }: { model: RadarModel; onDone: () => void }) {
+  const id = useId();
+  const change = usePlanStore((s) => s.change);
+  const [text, setText] = useState(JSON.stringify(model, null, 2));
+  const [errors, setErrors] = useState<string[]>([]);
+  useEffect(() => setText(JSON.stringify(model, null, 2)), [model]);
+  const apply = () => {
+    const r = loadRadarModelFile(text);
+    if (!r.ok) return setErrors(r.errors.map((e) => `${e.path}: ${e.message}`));
+    if (r.model.id !== model.id) return setErrors([`id: keep "${model.id}" (posts refer to it); duplicate to make a new model`]);
+    setErrors([]);
+    change((p) => ({ ...p, radarModels: p.radarModels.map((m) => (m.id === model.id ? r.model : m)) }), "edit radar model");
+    onDone();
+  };
+  return (
+    <div className="model-editor">
+      <label htmlFor={id}>Model document (JSON, SI units in the field names)</label>
+      <textarea id={id} value={text} rows={18} spellCheck={false} onChange={(e) => setText(e.target.value)} />
+      {errors.length > 0 && (
+        <ul className="field-error" role="alert">
+          {errors.map((e) => (
+            <li key={e}>{e}</li>
+          ))}
+        </ul>
+      )}
+      <button type="button" onClick={apply}>
+        Apply
+      </button>
+      <button type="button" onClick={onDone}>
+        Cancel
+      </button>
+    </div>
+  );
+}
+
+export function RadarsPanel() {
+  const plan = usePlanStore((s) => s.plan);
+  const change = usePlanStore((s) => s.change);
+  const [selected, setSelected] = useState<string | null>(null);
+  const [editing, setEditing] = useState(false);
+  if (!plan) return null;
+  const model = plan.radarModels.find((m) => m.id === selected) ?? plan.radarModels[0];
+  const used = (id: string) => plan.posts.some((p) => p.radarModelId === id);
+
+  const duplicate = (m: RadarModel) => {
+    const id = freshId(m.id, plan.radarModels);
+    const copy: RadarModel = { ...structuredClone(m), id, name: `${m.name} (copy)`, invented: m.invented };
+    change((p) => ({ ...p, radarModels: [...p.radarModels, copy] }), "duplicate radar model");
+    setSelected(id);
+  };
+  const importModel = async () => {
+    let file: File;
+    try {
+      file = await fileOpen({ extensions: [".json"], description: "Radar model" });
+    } catch {
+      return;
+    }
+    const r = loadRadarModelFile(await file.text());
+    if (!r.ok) return say("error", `${file.name} is not a valid radar model; nothing was added.`, r.errors.map((e) => `${e.path}: ${e.message}`));
+    const m = plan.radarModels.some((x) => x.id === r.model.id) ? { ...r.model, id: freshId(r.model.id, plan.radarModels) } : r.model;
+    change((p) => ({ ...p, radarModels: [...p.radarModels, m] }), "import radar model");
+    setSelected(m.id);
+  };
+  return (
+    <div className="panel" data-testid="radars-panel">
+      <ul className="plain-list">
+        {plan.radarModels.map((m) => (
+          <li key={m.id} className={m.id === model?.id ? "selected" : undefined}>
+            <button type="button" className="link" onClick={() => setSelected(m.id)}>
+              {m.name}
+            </button>
+          </li>
+        ))}
+      </ul>
+      <button type="button" onClick={() => void importModel()}>
+        Import model file…
+      </button>
+      {model && (
+        <section aria-label="Selected radar model">
+          <h3>{model.name}</h3>
+          {model.invented && <p className="muted">An invented example model, not a real product.</p>}
+          <KeyFigures m={model} />
+          {editing ? (
+            <ModelEditor model={model} onDone={() => setEditing(false)} />
+          ) : (
+            <div className="button-row">
+              <button type="button" onClick={() => setEditing(true)}>
+                Edit
+              </button>
+              <button type="button" onClick={() => duplicate(model)}>
+                Duplicate
+              </button>
+              <button
+                type="button"
+                onClick={() =>
+                  void fileSave(new Blob([JSON.stringify(model, null, 2)], { type: "application/json" }), {
+                    fileName: `${model.id}.json`,
+                  }).catch(() => undefined)
+                }
+              >
+                Export
+              </button>
+              <button
+                type="button"
+                className="danger"
+                disabled={used(model.id)}
+                title={used(model.id) ? "A post uses this model" : undefined}
+                onClick={() => change((p) => ({ ...p, radarModels: p.radarModels.filter((m) => m.id !== model.id) }), "delete radar model")}
+              >
+                Delete
+              </button>
+            </div>
+          )}
+        </section>
+      )}
+    </div>
+  );
+}

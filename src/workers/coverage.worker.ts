@@ -1,0 +1,22 @@
+/// <reference lib="webworker" />
+/**
+ * A coverage worker: exposes the coverage API over comlink. Thin by design: everything it does is in
+ * coverageApi.ts, which also runs inline (pool size 0). Views are returned in transfer lists.
+ */
+import * as Comlink from "comlink";
+import { createCoverageApi } from "./coverageApi";
+import type { CoverageApi } from "./protocol";
+import { viewTransferables } from "./protocol";
+
+const api = createCoverageApi();
+
+const exposed: CoverageApi = {
+  async evaluate(req) {
+    const view = await api.evaluate(req);
+    return Comlink.transfer(view, viewTransferables(view));
+  },
+  point: (req) => api.point(req),
+  crashForTest: () => api.crashForTest(),
+};
+
+Comlink.expose(exposed);

@@ -1,0 +1,125 @@
+/**
+ * The coverage API as it runs inside a worker (or inline with pool size 0): checks the request, prepares
+ * the site (src/io/preparePlan.ts, cached while terrain and grid stay the same), and calls the engine
+ * (src/coverage/evaluate.ts) with a per-radar cache, so moving one post recomputes one radar.
+ */
+import type { PlacedRadar } from "../coverage/coverage";
+import { evaluatePoint, evaluateSite, type PreparedSite } from "../coverage/evaluate";
+import type { RadarCoverage } from "../coverage/coverage";
+import { RadarResultCache } from "../coverage/radarCache";
+import { linkBudget } from "../coverage/linkBudget";
+import { parsePlan } from "../io/planValidation";
+import { preparePlan } from "../io/preparePlan";
+import type { SiteGrid } from "../io/siteGrid";
+import { azimuthAndDistanceXY } from "./geometry";
+import { terrainProfile } from "./profile";
+import type {
+  CoverageApi,
+  CoverageView,
+  DemPayload,
+  EvaluateRequest,
+  PointRadar,
+  PointReply,
+  PointRequest,
+} from "./protocol";
+import { cloneView, toCoverageView } from "./toView";
+
+/** Per-radar results kept (two mask modes × a few edits of each radar). */
+const RADAR_CACHE_ENTRIES = 64;
+
+function now(): number {
+  return performance.now();
+}
+
+/** A request whose plan does not validate: the message names the fields. */
+export class BadRequestError extends Error {
+  override name = "BadRequestError";
+}
+
+export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | null } {
+  const cache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
+  let prepared: { key: string; site: PreparedSite; warnings: string[]; grid: SiteGrid } | null = null;
+
+  const prepare = async (
+    planInput: unknown,
+    dem: DemPayload | null,
+    maskMode?: "accurate" | "fast",
+  ): Promise<PreparedSite> => {
+    const parsed = parsePlan(planInput);
+    if (!parsed.ok) {
+      throw new BadRequestError(parsed.errors.map((e) => `${e.path}: ${e.message}`).join("; "));
+    }
+    const plan = parsed.plan;
+    const key = JSON.stringify([plan, dem?.fileName ?? null, dem?.bytes.byteLength ?? 0]);
+    let current = prepared;
+    if (current?.key !== key) {
+      const p = await preparePlan(plan, dem ? { fileName: dem.fileName, data: dem.bytes } : undefined);
+      current = { key, site: p.site, warnings: p.warnings, grid: p.grid };
+      prepared = current;
+    }
+    return maskMode ? { ...current.site, maskMode } : current.site;
+  };
+
+  return {
+    lastSite: () => prepared?.site ?? null,
+    async evaluate(req: EvaluateRequest): Promise<CoverageView> {
+      const t0 = now();
+      const site = await prepare(req.plan, req.dem, req.maskMode);
+      const result = await evaluateSite(site, { cache, mode: site.maskMode });
+      const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
+      if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
+      return cloneView(toCoverageView(req.generation, site, result, notes, now() - t0));
+    },
+    async point(req: PointRequest): Promise<PointReply> {
+      if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg))) throw new BadRequestError("point: lon/lat must be numbers");
+      if (!(Number.isFinite(req.heightM) && req.heightM >= 0)) throw new BadRequestError(`heightM: ${req.heightM} must be ≥ 0 m`);
+      const site = await prepare(req.plan, req.dem);
+      const grid = prepared?.grid;
+      if (!grid) throw new BadRequestError("the site could not be prepared");
+      const [x, y] = grid.toGrid(req.lonDeg, req.latDeg);
+      const r = evaluatePoint(site, { x, y }, req.heightM);
+      const radars: PointRadar[] = [];
+      for (const row of r.rows) {
+        if (row.targetId !== req.classId) continue;
+        const placed = site.radars.find((p) => p.id === row.radarId) as PlacedRadar;
+        const geo = azimuthAndDistanceXY(placed.x, placed.y, x, y);
+        const budget = linkBudget(row.params, row.geometry.slantRangeM);
+        radars.push({
+          postId: row.radarId,
+          postName: row.radarName,
+          rangeM: row.geometry.slantRangeM,
+          azimuthDeg: row.geometry.azimuthDeg ?? geo.azDeg,
+          visible: row.visible,
+          lowestVisibleAglM: row.lowestVisibleHeightAglM,
+          diffractionLossDb: row.diffractionLossTwoWayDb,
+          snrDb: row.snrDb,
+          pd: row.pdTable,
+          reason: row.reasonText,
+          budget: budget.rows.map((b) => ({
+            label: b.label,
+            valueDb: b.valueDb,
+            unit: b.unit,
+            contributionDb: b.contributionDb,
+            kind: b.kind,
+          })),
+          profile: terrainProfile(site, placed, { x, y }, req.heightM),
+        });
+      }
+      return {
+        generation: req.generation,
+        lonDeg: req.lonDeg,
+        latDeg: req.latDeg,
+        heightM: req.heightM,
+        classId: req.classId,
+        combinedPd: r.combinedPd[req.classId] ?? Number.NaN,
+        requiredPd: site.requirement.requiredPd,
+        radars,
+      };
+    },
+    async crashForTest() {
+      setTimeout(() => {
+        throw new Error("deliberate crash for a test");
+      }, 0);
+    },
+  };
+}

@@ -1,0 +1,143 @@
+/**
+ * The typed API between the planner and its coverage workers. Every request carries a generation
+ * number; the pool drops replies older than the newest generation of their channel. Large arrays in
+ * replies travel in comlink transfer lists (moved, never copied).
+ */
+import type { GridFrame } from "../coverage/grid";
+import type { HeightMetrics } from "../coverage/metrics";
+import type { Plan } from "../io/planSchema";
+
+/** DEM bytes as the plan names them (terrain.ground.file). */
+export interface DemPayload {
+  fileName: string;
+  bytes: ArrayBuffer;
+}
+
+export interface EvaluateRequest {
+  generation: number;
+  plan: Plan;
+  /** The DEM the plan names (copied with each request so that a restarted worker has it too). */
+  dem: DemPayload | null;
+  /** "fast" for previews while dragging; "accurate" otherwise (the plan's own setting when absent). */
+  maskMode?: "accurate" | "fast";
+}
+
+/** One target class at one height, fused over all enabled radars. */
+export interface CoverageSlice {
+  classId: string;
+  heightM: number;
+  /** Combined Pd per cell, 0…1 (0 where the cell is no valid target position). */
+  combinedPd: Float32Array;
+  /** Radars meeting the required Pd on their own, per cell. */
+  overlap: Uint8Array;
+  /** 1 where a cell of the protected area or approach ring is below the required Pd. */
+  gap: Uint8Array;
+  /** Per radar (order of CoverageView.radarPostIds), Pd per cell. */
+  perRadarPd: Float32Array[];
+  metrics: HeightMetrics;
+}
+
+export interface CoverageView {
+  generation: number;
+  frame: GridFrame;
+  /** Ground elevation above sea level per cell, m (NaN nodata), for the hillshade. */
+  groundAmslM: Float32Array;
+  /** Obstruction (roof or canopy) top above ground per cell, m (0 where none). */
+  obstructionTopAglM: Float32Array;
+  /** Lowest visible height above ground per cell over all enabled radars, m (Infinity where none sees it). */
+  lowestVisibleAglM: Float32Array;
+  heightsM: number[];
+  classIds: string[];
+  /** Post ids of the radars that took part, in the order of perRadarPd. */
+  radarPostIds: string[];
+  slices: CoverageSlice[];
+  maskMode: "accurate" | "fast";
+  /** Plain statements about the run (flat ground, clipped DEM, …). */
+  notes: string[];
+  elapsedMs: number;
+}
+
+export interface PointRequest {
+  generation: number;
+  plan: Plan;
+  dem: DemPayload | null;
+  lonDeg: number;
+  latDeg: number;
+  heightM: number;
+  classId: string;
+}
+
+/** One row of a link budget: a named term, its value in its dB unit and what it adds to the SNR. */
+export interface BudgetRow {
+  label: string;
+  /** The term's own value in `unit`. */
+  valueDb: number;
+  /** "dBW", "dBi", "dB(m²)", "dBsm", "dB", "dB(m⁴)". */
+  unit: string;
+  /** What the row adds to the SNR, dB (the SNR itself for the result row). */
+  contributionDb: number;
+  kind: "term" | "result";
+}
+
+/** A terrain profile from a radar to the point, distances along the path. */
+export interface ProfileData {
+  distanceM: number[];
+  /** Ground above sea level, m. */
+  groundAmslM: number[];
+  /** Ground plus obstructions (roofs, canopy) above sea level, m. */
+  surfaceAmslM: number[];
+  /** Antenna height above sea level, m. */
+  antennaAmslM: number;
+  /** Target height above sea level, m. */
+  targetAmslM: number;
+  /** Earth-curvature drop along the path for the effective Earth factor, m (subtracted from surfaces). */
+  curvatureDropM: number[];
+  /** First Fresnel zone radius along the path, m. */
+  fresnelRadiusM: number[];
+  frequencyHz: number;
+}
+
+export interface PointRadar {
+  postId: string;
+  postName: string;
+  rangeM: number;
+  azimuthDeg: number;
+  visible: boolean;
+  lowestVisibleAglM: number;
+  diffractionLossDb: number;
+  snrDb: number;
+  pd: number;
+  /** Why the point is not covered by this radar ("covered" when it is). */
+  reason: string;
+  budget: BudgetRow[];
+  profile: ProfileData | null;
+}
+
+export interface PointReply {
+  generation: number;
+  lonDeg: number;
+  latDeg: number;
+  heightM: number;
+  classId: string;
+  combinedPd: number;
+  requiredPd: number;
+  radars: PointRadar[];
+}
+
+/** Methods a coverage worker exposes (and the inline implementation provides). */
+export interface CoverageApi {
+  evaluate(req: EvaluateRequest): Promise<CoverageView>;
+  point(req: PointRequest): Promise<PointReply>;
+  /** Crashes the worker on purpose (tests of the crash recovery). */
+  crashForTest(): Promise<void>;
+}
+
+/** The arrays of a view, for a transfer list. */
+export function viewTransferables(v: CoverageView): Transferable[] {
+  const list: ArrayBufferLike[] = [v.groundAmslM.buffer, v.obstructionTopAglM.buffer, v.lowestVisibleAglM.buffer];
+  for (const s of v.slices) {
+    list.push(s.combinedPd.buffer, s.overlap.buffer, s.gap.buffer);
+    for (const p of s.perRadarPd) list.push(p.buffer);
+  }
+  return [...new Set(list)] as Transferable[];
+}
