@@ -423,8 +423,8 @@ function distanceToFrameM(b: [number, number, number, number], frame: GridFrame)
  * Parse building footprints (and tree stands) from GeoJSON, KML, KMZ or an OSM export.
  * `input`: the file as text or bytes (KMZ must be bytes); `fileName` names it in messages;
  * `toGrid` maps lon/lat degrees to the site frame's x/y in metres.
- * Throws ImportError naming the file (and field) when the file cannot be read, holds no polygon,
- * is not in lon/lat, is in (lat, lon) order, or lies entirely far from the site; per-feature
+ * An empty collection gives empty lists. Throws ImportError naming the file (and field) when the
+ * file cannot be read, has features but no usable polygon, is not in lon/lat, is in (lat, lon) order, or lies entirely far from the site; per-feature
  * problems (empty geometry, bad height) are warnings and that feature falls back or is skipped.
  */
 export function parseBuildings(
@@ -486,6 +486,9 @@ export function parseBuildings(
     raws.push({ path, id, props, rings });
   });
 
+  // A collection with no features at all is no error (a plan without buildings); the caller says
+  // "nothing imported". Features that are all unusable mean a wrong or broken file.
+  if (features.length === 0) return { buildings: [], treeStands: [], warnings: [] };
   if (raws.length === 0) {
     throw new ImportError(
       file,

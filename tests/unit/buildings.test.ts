@@ -131,7 +131,7 @@ describe("parseBuildings: GeoJSON", () => {
     expect(warnings[1]).toMatch(/features\[1\]\.properties\.height .*negative/);
   });
 
-  it("[BL5] empty features are skipped with a note; a file with none usable is refused", () => {
+  it("[BL5] empty features are skipped with a note; a file whose features are all unusable is refused", () => {
     const text = fc([
       { type: "Feature", properties: { height: 5 }, geometry: null },
       { type: "Feature", properties: {}, geometry: { type: "Polygon", coordinates: [] } },
@@ -141,13 +141,26 @@ describe("parseBuildings: GeoJSON", () => {
     const { buildings, warnings } = parseBuildings(text, "e.geojson", toGrid);
     expect(buildings).toHaveLength(1);
     expect(warnings.filter((w) => /features\[[012]\]/.test(w))).toHaveLength(3);
-    expect(importError(() => parseBuildings(fc([]), "none.geojson", toGrid)).message).toMatch(
-      /^none\.geojson: no usable building or tree polygon among 0 features/,
-    );
+    // No features at all (a plan without buildings): empty lists, no error.
+    expect(parseBuildings(fc([]), "none.geojson", toGrid)).toEqual({
+      buildings: [],
+      treeStands: [],
+      warnings: [],
+    });
     const allEmpty = importError(() =>
       parseBuildings(fc([{ type: "Feature", properties: {}, geometry: null }]), "n.json", toGrid),
     );
-    expect(allEmpty.message).toMatch(/1 empty or invalid geometries/);
+    expect(allEmpty.message).toMatch(
+      /^n\.json: no usable building or tree polygon among 1 features \(1 empty or invalid/,
+    );
+    const pointsOnly = JSON.stringify({
+      type: "Feature",
+      properties: {},
+      geometry: { type: "Point", coordinates: [15, 47] },
+    });
+    expect(importError(() => parseBuildings(pointsOnly, "p.json", toGrid)).message).toMatch(
+      /1 points, lines or untagged polygons ignored/,
+    );
   });
 
   it("[BL6] coordinates in (lat, lon) order are recognised and refused with a message that says so", () => {
