@@ -385,6 +385,15 @@ export async function readGeoTiffDem(
     );
   }
   await checkNotTruncated(image, buffer.byteLength, file);
+  // Each strip or tile is decoded whole: a hostile header could make one block alone enormous.
+  const blockCells = image.getTileWidth() * image.getTileHeight();
+  if (!(blockCells <= MAX_DEM_WINDOW_CELLS)) {
+    throw new ImportError(
+      file,
+      `one strip or tile of ${image.getTileWidth()} × ${image.getTileHeight()} pixels is above the ${MAX_DEM_WINDOW_CELLS} read at once`,
+      image.fileDirectory.hasTag("TileWidth") ? "TileWidth" : "RowsPerStrip",
+    );
+  }
   let raw: ArrayLike<number>;
   try {
     const bands = await image.readRasters({ window: [w0, h0, w1, h1], samples: [0], interleave: false });

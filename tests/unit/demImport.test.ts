@@ -200,6 +200,28 @@ describe("GeoTIFF DEM", () => {
     expect(e.message).toContain(String(MAX_DEM_WINDOW_CELLS));
   });
 
+  it("[DM11] a single strip or tile above the window cap is refused before it is decoded", async () => {
+    // A 100 000 × 100 000 header (within the side cap) whose RowsPerStrip (tag 278) claims one strip of
+    // all 10^10 pixels: a tiny site window still needs that whole strip decoded.
+    const buf = patchSize(makeTiff(planeSpec), 100_000, 100_000);
+    const dv = new DataView(buf);
+    const ifd = dv.getUint32(4, false);
+    const n = dv.getUint16(ifd, false);
+    for (let i = 0; i < n; i++) {
+      const e = ifd + 2 + i * 12;
+      if (dv.getUint16(e, false) === 278) {
+        dv.setUint16(e + 2, 4, false);
+        dv.setUint32(e + 8, 100_000, false);
+      }
+    }
+    const site: GridFrame = { ...frame, width: 2, height: 2, cellSizeM: 1 };
+    const e = await importError(readGeoTiffDem(buf, site, { fileName: "strip.tif" }));
+    expect(e.message).toMatch(
+      /^strip\.tif: one strip or tile of 100000 × 100000 pixels is above the 33554432/,
+    );
+    expect(e.field).toBe("RowsPerStrip");
+  });
+
   it("[DM12] an EPSG code that is not built in is refused, naming the code and the key", async () => {
     const spec = {
       ...planeSpec,
