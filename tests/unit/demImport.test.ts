@@ -217,7 +217,7 @@ describe("GeoTIFF DEM", () => {
     const site: GridFrame = { ...frame, width: 2, height: 2, cellSizeM: 1 };
     const e = await importError(readGeoTiffDem(buf, site, { fileName: "strip.tif" }));
     expect(e.message).toMatch(
-      /^strip\.tif: one strip or tile of 100000 × 100000 pixels is above the 33554432/,
+      /^strip\.tif: RowsPerStrip: one strip or tile of 100000 × 100000 pixels is above the 33554432/,
     );
     expect(e.field).toBe("RowsPerStrip");
   });
