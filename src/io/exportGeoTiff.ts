@@ -47,9 +47,11 @@ export interface GeoTiffBand {
   nodata?: number;
   /** Short text stored as GTCitationGeoKey (e.g. "combined Pd, 30 m AGL"). */
   description?: string;
+  /** EPSG code of the projected CRS when the frame's proj4 string is not a WGS 84 UTM zone. */
+  epsg?: number;
 }
 
-/** Encode one band as a GeoTIFF file (uncompressed, one strip). Throws ExportError for a non-UTM frame. */
+/** Encode one band as a GeoTIFF file (uncompressed, one strip). Throws ExportError without a projected EPSG code. */
 export function encodeGeoTiff(band: GeoTiffBand): ArrayBuffer {
   const { frame, data } = band;
   if (data.length !== frame.width * frame.height) {
@@ -57,9 +59,11 @@ export function encodeGeoTiff(band: GeoTiffBand): ArrayBuffer {
       `raster has ${data.length} values but the grid is ${frame.width} × ${frame.height} = ${frame.width * frame.height}`,
     );
   }
-  const epsg = utmEpsgFromProj4(frame.crs);
-  if (!Number.isFinite(epsg)) {
-    throw new ExportError(`grid CRS "${frame.crs}" is not a WGS 84 UTM zone; GeoTIFF export needs one`);
+  const epsg = band.epsg ?? utmEpsgFromProj4(frame.crs);
+  if (!(Number.isInteger(epsg) && epsg > 0)) {
+    throw new ExportError(
+      `grid CRS "${frame.crs}" is not a WGS 84 UTM zone and no EPSG code was given; GeoTIFF export needs one`,
+    );
   }
   const isFloat = data instanceof Float32Array;
   const nodata = band.nodata ?? (isFloat ? Number.NaN : undefined);
