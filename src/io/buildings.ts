@@ -449,7 +449,10 @@ export function parseBuildings(
       notes.add(`${path}: not a feature; skipped.`);
       return;
     }
-    const props: Props = f.properties && typeof f.properties === "object" ? (f.properties as Props) : {};
+    const own: Props = f.properties && typeof f.properties === "object" ? (f.properties as Props) : {};
+    // OSM converters without flat properties nest the tags under `tags`: read them as properties.
+    const nested = own.tags && typeof own.tags === "object" ? (own.tags as Props) : {};
+    const props: Props = { ...nested, ...own };
     const id = f.id !== undefined ? String(f.id) : typeof props.id === "string" ? props.id : path;
     const polygons = polygonsOf(f.geometry);
     if (polygons.length === 0) {

@@ -137,8 +137,10 @@ export function readAscDem(
     const start = pos;
     while (pos < n && !isSpace(text.charCodeAt(pos))) pos++;
     const token = text.slice(start, pos);
-    const v = Number(token);
-    if (!Number.isFinite(v)) {
+    // GDAL writes "nan" for a NaN nodata value in floating-point grids.
+    const isNanToken = /^[+-]?nan$/i.test(token);
+    const v = isNanToken ? Number.NaN : Number(token);
+    if (!isNanToken && !Number.isFinite(v)) {
       const row = Math.floor(count / ncols);
       const col = count % ncols;
       throw new ImportError(

@@ -108,10 +108,9 @@ export function resampleToFrame(
 /** Longitude shifted by whole turns to lie at or east of the raster's western edge (within one turn). */
 function wrapLongitude(lonDeg: number, westEdgeDeg: number): number {
   const turnDeg = 360;
-  let lon = lonDeg;
-  while (lon < westEdgeDeg) lon += turnDeg;
-  while (lon >= westEdgeDeg + turnDeg) lon -= turnDeg;
-  return lon;
+  if (!Number.isFinite(lonDeg)) return lonDeg;
+  const east = (lonDeg - westEdgeDeg) % turnDeg;
+  return westEdgeDeg + (east < 0 ? east + turnDeg : east);
 }
 
 /**

@@ -233,6 +233,14 @@ describe("parseBuildings: GeoJSON", () => {
     expect(at(0, -300)).toBe(0);
   });
 
+  it("[BL2] tags nested under `tags` (OSM converters without flat properties) are read as properties", () => {
+    const text = fc([
+      polygonFeature({ type: "way", id: 7, tags: { building: "yes", "building:levels": "2" } }),
+    ]);
+    const { buildings } = parseBuildings(text, "nested.geojson", toGrid);
+    expect(buildings[0]).toMatchObject({ heightM: 2 * DEFAULT_METRES_PER_LEVEL, heightSource: "levels" });
+  });
+
   it("[BL10] a MultiPolygon with a courtyard keeps all parts and its hole", () => {
     const outer = square(0, 0, 100);
     const hole = square(0, 0, 40).reverse();

@@ -13,6 +13,7 @@ import { flatGround } from "../../src/coverage/surfaces.ts";
 import { readAscDem } from "../../src/io/demAsc.ts";
 import { crsFromEpsg, readGeoTiffDem } from "../../src/io/demGeotiff.ts";
 import { hgtTileOrigin, readHgtDem } from "../../src/io/demHgt.ts";
+import { resampleToFrame } from "../../src/io/demResample.ts";
 import { ImportError, isImportError } from "../../src/io/importErrors.ts";
 
 const UTM33 = "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs";
@@ -350,6 +351,11 @@ describe("Esri ASCII grid", () => {
     expect(word.field).toBe("row 2, column 3");
   });
 
+  it('[DM6] a "nan" value (as GDAL writes NaN nodata) is nodata', () => {
+    const r = readAscDem(header + values.replace("1 2 3 4", "nan 2 3 4"), frame);
+    expect(Number.isNaN(r.ground.data[0])).toBe(true);
+  });
+
   it("[DM21] a huge ncols × nrows is refused before any allocation", async () => {
     const e = await importError(() =>
       readAscDem(
@@ -393,5 +399,40 @@ describe("fixture files read by the unit readers", () => {
     const r = await readGeoTiffDem(buf, site);
     expect(r.source.crs).toBe(crsFromEpsg(4326));
     expect(r.ground.data.some((v) => Number.isNaN(v))).toBe(true);
+  });
+});
+
+describe("resampling edges", () => {
+  it("[DM14] a geographic source on the other side of the Earth gives no value (longitudes wrap by whole turns)", () => {
+    const src = {
+      data: new Float32Array(4).fill(7),
+      width: 2,
+      height: 2,
+      // 165° W = 195° E: the site at 15° E is half a turn away, whichever way the longitude is written.
+      originX: -165,
+      originY: 47,
+      pixelSizeX: 1,
+      pixelSizeY: 1,
+      crs: "+proj=longlat +datum=WGS84 +no_defs",
+    };
+    const { coveredFraction } = resampleToFrame(src, frame);
+    expect(coveredFraction).toBe(0);
+  });
+
+  it("[DM14] a geographic source written in 0–360° longitudes still lands on the site", () => {
+    // The site lies near 15.0° E, 46.95° N; the source spans 374.9°–375.1° (= 14.9°–15.1° E).
+    const src = {
+      data: new Float32Array(400).fill(7),
+      width: 20,
+      height: 20,
+      originX: 374.9,
+      originY: 47.05,
+      pixelSizeX: 0.01,
+      pixelSizeY: 0.01,
+      crs: "+proj=longlat +datum=WGS84 +no_defs",
+    };
+    const { grid, coveredFraction } = resampleToFrame(src, frame);
+    expect(coveredFraction).toBe(1);
+    expect(grid.data[0]).toBe(7);
   });
 });
