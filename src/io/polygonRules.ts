@@ -1,11 +1,13 @@
 /**
  * Validity rules for GeoJSON polygons drawn or imported by users (RFC 7946 §3.1.6): each ring
- * encloses an area, no ring crosses itself (turf kinks), rings do not cross each other, and
- * holes lie inside their outer ring. Coordinates are WGS84 lon/lat degrees.
+ * encloses an area, no ring crosses itself, rings do not cross each other, and holes lie inside
+ * their outer ring. Coordinates are WGS84 lon/lat degrees. Crossings are found by
+ * segmentCrossings.ts (checked against @turf/kinks in the tests, and near-linear where kinks is
+ * quadratic in the vertex count).
  */
 import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
-import kinks from "@turf/kinks";
 import type { Position } from "./planSchema.ts";
+import { firstCrossing } from "./segmentCrossings.ts";
 
 export interface PolygonProblem {
   /** Path below the geometry, e.g. ["coordinates", 0] or ["coordinates", 1, 2]. */
@@ -72,26 +74,16 @@ export function polygonProblems(rings: unknown, base: (string | number)[]): Poly
       problems.push({ path: [...base, r], message: "the ring encloses no area (all corners on one line)" });
       return;
     }
-    const k = kinks({ type: "Polygon", coordinates: [d] });
-    if (k.features.length > 0) {
-      problems.push({
-        path: [...base, r],
-        message: `the ring crosses itself ${near(k.features[0].geometry.coordinates)}`,
-      });
+    const self = firstCrossing([d]);
+    if (self) {
+      problems.push({ path: [...base, r], message: `the ring crosses itself ${near(self.point)}` });
       return;
     }
     clean.push(d);
   });
   if (skipped || problems.length > 0 || clean.length < 2) return problems;
-  const k = kinks({ type: "Polygon", coordinates: clean });
-  if (k.features.length > 0) {
-    return [
-      {
-        path: base,
-        message: `a hole crosses another ring ${near(k.features[0].geometry.coordinates)}`,
-      },
-    ];
-  }
+  const cross = firstCrossing(clean);
+  if (cross) return [{ path: base, message: `a hole crosses another ring ${near(cross.point)}` }];
   const outer = { type: "Polygon" as const, coordinates: [clean[0]] };
   for (let r = 1; r < clean.length; r++) {
     if (!booleanPointInPolygon(clean[r][0], outer)) {
