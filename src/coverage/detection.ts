@@ -101,12 +101,15 @@ export function pdExact(p: PdExactParams): number {
   const threshold = thresholdFromPfa(pfa, looks);
   if (Number.isNaN(threshold)) return Number.NaN;
   if (snrLinear === 0) return pfa;
-  return gammaMixtureSf({
+  const pd = gammaMixtureSf({
     order: looks,
     x: threshold,
     mean: looks * snrLinear,
     shape: fluctuationShape(swerling, looks),
   });
+  // Pd ≥ Pfa holds exactly; the floor only removes the ≈1e-15 relative round-trip difference between
+  // Q(N, Q⁻¹(N, Pfa)) and Pfa, so that Pd never dips below its value at zero SNR.
+  return Math.max(pd, pfa);
 }
 
 /** Parameters of {@link requiredSnrDb}. */

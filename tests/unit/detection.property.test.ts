@@ -59,6 +59,8 @@ describe("detection properties", () => {
         const pd = pdExact({ snrLinear: 1e-9, pfa, looks, swerling });
         expect(pd).toBeGreaterThanOrEqual(pfa);
         expect((pd - pfa) / pfa).toBeLessThan(1e-6);
+        // Never below Pfa, even where the signal term is lost to rounding.
+        expect(pdExact({ snrLinear: 1e-30, pfa, looks, swerling })).toBeGreaterThanOrEqual(pfa);
       }),
       RUNS,
     );
