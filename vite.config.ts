@@ -5,6 +5,13 @@ import { cspPlugin } from "./src/ui/csp.ts";
 
 export default defineConfig({
   plugins: [react(), cspPlugin()],
+  resolve: {
+    alias: [
+      // osmtogeojson bundles a Lo-Dash 2 build that compiles functions with Function() at load time, which a
+      // strict Content-Security-Policy (no eval) forbids; lodash 4 has the same six functions without it.
+      { find: /^\.\/lodash\.custom\.js$/, replacement: "lodash" },
+    ],
+  },
   worker: { format: "es" },
   build: { target: "es2022", sourcemap: true },
   server: { host: "127.0.0.1", port: 5173 },

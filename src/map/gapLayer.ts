@@ -32,7 +32,12 @@ export class GapLayer extends L.LayerGroup {
     this.addLayer(this.outlines);
   }
 
-  setGaps(frame: GridFrame | null, forward: Forward | null, gap: Uint8Array | null, outlines: GapOutline[]): void {
+  setGaps(
+    frame: GridFrame | null,
+    forward: Forward | null,
+    gap: Uint8Array | null,
+    outlines: GapOutline[],
+  ): void {
     this.outlines.clearLayers();
     if (!frame || !forward || !gap) {
       this.hatch.setPaint(null);

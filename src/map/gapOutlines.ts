@@ -31,7 +31,9 @@ export function gapOutlines(
 ): GapOutline[] {
   const values = new Float64Array(gap.length);
   for (let i = 0; i < gap.length; i++) values[i] = gap[i];
-  const [multi] = contours().size([frame.width, frame.height]).thresholds([0.5]).smooth(false)(values as unknown as number[]);
+  const [multi] = contours().size([frame.width, frame.height]).thresholds([0.5]).smooth(false)(
+    values as unknown as number[],
+  );
   const out: GapOutline[] = [];
   for (const polygon of multi.coordinates) {
     const areaM2 = polygon.reduce(

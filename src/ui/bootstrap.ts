@@ -5,8 +5,8 @@
 import { useAssets } from "./assets";
 import { restoreAutosave, startAutosave } from "./autosave";
 import { tileOrigin, useBasemap } from "./basemap";
-import { crashWorkerForTest, runEvaluation, scheduleEvaluation } from "./engine";
 import { loadDemo } from "./demo";
+import { crashWorkerForTest, runEvaluation, scheduleEvaluation } from "./engine";
 import { say } from "./session";
 import { redo, undo, usePlanStore } from "./store";
 
@@ -20,7 +20,10 @@ function narrowImagePolicy(): void {
 
 function isTyping(t: EventTarget | null): boolean {
   const el = t as HTMLElement | null;
-  return !!el && (el.tagName === "INPUT" || el.tagName === "TEXTAREA" || el.tagName === "SELECT" || el.isContentEditable);
+  return (
+    !!el &&
+    (el.tagName === "INPUT" || el.tagName === "TEXTAREA" || el.tagName === "SELECT" || el.isContentEditable)
+  );
 }
 
 export async function bootstrap(): Promise<void> {

@@ -8,7 +8,10 @@ import type { DemAsset } from "./assets";
 import { newPlanAround } from "./newPlan";
 import { readPlanText } from "./planText";
 
-const plans = import.meta.glob("../../demo-sites/ridge-waterworks/plan.json", { eager: true, import: "default" });
+const plans = import.meta.glob("../../demo-sites/ridge-waterworks/plan.json", {
+  eager: true,
+  import: "default",
+});
 const rasters = import.meta.glob("../../demo-sites/ridge-waterworks/*.{tif,tiff,hgt,asc}", {
   eager: true,
   query: "?url",
@@ -22,9 +25,19 @@ const FALLBACK_LON_LAT: [number, number] = [15.3, 47.1];
 export async function loadDemo(): Promise<{ plan: Plan; dem: DemAsset | null; problem?: string }> {
   const json = Object.values(plans)[0];
   const models = Object.values(radars) as RadarModel[];
-  if (!json) return { plan: newPlanAround(...FALLBACK_LON_LAT, models), dem: null, problem: "The demo site is not part of this build." };
+  if (!json)
+    return {
+      plan: newPlanAround(...FALLBACK_LON_LAT, models),
+      dem: null,
+      problem: "The demo site is not part of this build.",
+    };
   const r = readPlanText(JSON.stringify(json), "the demo plan");
-  if (!r.ok) return { plan: newPlanAround(...FALLBACK_LON_LAT, models), dem: null, problem: [r.message, ...r.details].join("; ") };
+  if (!r.ok)
+    return {
+      plan: newPlanAround(...FALLBACK_LON_LAT, models),
+      dem: null,
+      problem: [r.message, ...r.details].join("; "),
+    };
   const g = r.plan.terrain.ground;
   let dem: DemAsset | null = null;
   if (g.type === "dem") {

@@ -30,7 +30,8 @@ export async function getPool(): Promise<WorkerPool<CoverageApi>> {
   } else {
     pool = new WorkerPool<CoverageApi>({
       size,
-      createWorker: () => new Worker(new URL("../workers/coverage.worker.ts", import.meta.url), { type: "module" }),
+      createWorker: () =>
+        new Worker(new URL("../workers/coverage.worker.ts", import.meta.url), { type: "module" }),
       onCrash: (message) => {
         say("error", message);
         // The plan is intact; run it again on the new worker.
@@ -74,7 +75,8 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   } catch (e) {
     if (isStale(e)) return;
     useCoverage.getState().set({ running: false, problem: errorText(e) });
-    if ((e as Error)?.name !== "WorkerCrashError") say("error", `The coverage could not be computed: ${errorText(e)}`);
+    if ((e as Error)?.name !== "WorkerCrashError")
+      say("error", `The coverage could not be computed: ${errorText(e)}`);
   }
 }
 

@@ -39,7 +39,10 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
       table: lowTable,
       toIndex: (v) => (Number.isFinite(v) ? tableIndex(v, scale) : -1),
       title: "Lowest visible height (m above ground)",
-      stops: [0, 0.25, 0.5, 0.75, 1].map((t) => ({ label: `${Math.round(t * top)} m`, index: Math.round(t * 255) })),
+      stops: [0, 0.25, 0.5, 0.75, 1].map((t) => ({
+        label: `${Math.round(t * top)} m`,
+        index: Math.round(t * 255),
+      })),
     };
   }
   pdTable ??= buildColourTable("cividis", COVERAGE_ALPHA);

@@ -2,10 +2,11 @@
  * A new plan around a point: a 400 m square protected area, a 500 m approach ring, no posts, one target
  * class, the usual requirement and flat ground. The radar library of the previous plan is kept.
  */
-import type { RadarModel } from "../coverage/radarModel";
+
 import { EARTH_RADIUS_M } from "../coverage/constants";
-import { PLAN_VERSION, type Plan } from "../io/planSchema";
+import type { RadarModel } from "../coverage/radarModel";
 import { degToRad, radToDeg } from "../coverage/units";
+import { PLAN_VERSION, type Plan } from "../io/planSchema";
 
 /** Half side of the starting protected area, m. */
 const START_HALF_SIDE_M = 200;
@@ -23,12 +24,21 @@ export function newPlanAround(lonDeg: number, latDeg: number, radarModels: Radar
   return {
     version: PLAN_VERSION,
     site: { name: "New site" },
-    protectedAreas: [{ id: "area-1", name: "Protected area", geometry: { type: "Polygon", coordinates: [ring] } }],
+    protectedAreas: [
+      { id: "area-1", name: "Protected area", geometry: { type: "Polygon", coordinates: [ring] } },
+    ],
     approachRingDepthM: 500,
     posts: [],
     radarModels,
     targetClasses: [
-      { id: "small-drone", name: "Small drone", rcsDbsm: -20, swerling: 1, speedMPerS: 15, heightsAglM: [10, 30, 60] },
+      {
+        id: "small-drone",
+        name: "Small drone",
+        rcsDbsm: -20,
+        swerling: 1,
+        speedMPerS: 15,
+        heightsAglM: [10, 30, 60],
+      },
     ],
     requirement: { requiredPd: 0.9, pfa: 1e-6, looks: 1 },
     terrain: {
@@ -36,6 +46,11 @@ export function newPlanAround(lonDeg: number, latDeg: number, radarModels: Radar
       buildings: { type: "FeatureCollection", features: [] },
       treeStands: [],
     },
-    analysis: { cellSizeM: "auto", effectiveEarthFactor: 4 / 3, targetHeightsM: [10, 30, 60], maskMode: "accurate" },
+    analysis: {
+      cellSizeM: "auto",
+      effectiveEarthFactor: 4 / 3,
+      targetHeightsM: [10, 30, 60],
+      maskMode: "accurate",
+    },
   };
 }

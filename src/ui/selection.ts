@@ -3,7 +3,11 @@
  */
 import type { CoverageSlice, CoverageView } from "../workers/protocol";
 
-export function selectedSlice(view: CoverageView | null, classId: string | null, heightM: number | null): CoverageSlice | null {
+export function selectedSlice(
+  view: CoverageView | null,
+  classId: string | null,
+  heightM: number | null,
+): CoverageSlice | null {
   if (!view || view.slices.length === 0) return null;
   const cls = classId && view.classIds.includes(classId) ? classId : view.classIds[0];
   const ofClass = view.slices.filter((s) => s.classId === cls);

@@ -3,11 +3,10 @@
  * the site (src/io/preparePlan.ts, cached while terrain and grid stay the same), and calls the engine
  * (src/coverage/evaluate.ts) with a per-radar cache, so moving one post recomputes one radar.
  */
-import type { PlacedRadar } from "../coverage/coverage";
+import type { PlacedRadar, RadarCoverage } from "../coverage/coverage";
 import { evaluatePoint, evaluateSite, type PreparedSite } from "../coverage/evaluate";
-import type { RadarCoverage } from "../coverage/coverage";
-import { RadarResultCache } from "../coverage/radarCache";
 import { linkBudget } from "../coverage/linkBudget";
+import { RadarResultCache } from "../coverage/radarCache";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
 import type { SiteGrid } from "../io/siteGrid";
@@ -71,8 +70,10 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       return cloneView(toCoverageView(req.generation, site, result, notes, now() - t0));
     },
     async point(req: PointRequest): Promise<PointReply> {
-      if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg))) throw new BadRequestError("point: lon/lat must be numbers");
-      if (!(Number.isFinite(req.heightM) && req.heightM >= 0)) throw new BadRequestError(`heightM: ${req.heightM} must be ≥ 0 m`);
+      if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg)))
+        throw new BadRequestError("point: lon/lat must be numbers");
+      if (!(Number.isFinite(req.heightM) && req.heightM >= 0))
+        throw new BadRequestError(`heightM: ${req.heightM} must be ≥ 0 m`);
       const site = await prepare(req.plan, req.dem);
       const grid = prepared?.grid;
       if (!grid) throw new BadRequestError("the site could not be prepared");

@@ -120,7 +120,10 @@ export class WorkerPool<Api extends object> {
         method,
         args: args as unknown[],
         transfer: options.transfer ?? [],
-        slot: options.slot === undefined || this.slots.length === 0 ? undefined : options.slot % this.slots.length,
+        slot:
+          options.slot === undefined || this.slots.length === 0
+            ? undefined
+            : options.slot % this.slots.length,
         resolve: resolve as (v: unknown) => void,
         reject,
       };

@@ -39,7 +39,9 @@ export function terrainProfile(
     // Drop of the Earth's surface below the radar's horizontal plane at distance d (for the chart).
     drop.push(curvatureDropM(d, site.effectiveEarthFactor));
     fresnel.push(
-      d > 0 && d < total ? fresnelZoneRadiusM({ frequencyHz: radar.model.frequencyHz, d1M: d, d2M: total - d }) : 0,
+      d > 0 && d < total
+        ? fresnelZoneRadiusM({ frequencyHz: radar.model.frequencyHz, d1M: d, d2M: total - d })
+        : 0,
     );
   }
   const endIdx = PROFILE_SAMPLES;

@@ -134,7 +134,11 @@ export interface CoverageApi {
 
 /** The arrays of a view, for a transfer list. */
 export function viewTransferables(v: CoverageView): Transferable[] {
-  const list: ArrayBufferLike[] = [v.groundAmslM.buffer, v.obstructionTopAglM.buffer, v.lowestVisibleAglM.buffer];
+  const list: ArrayBufferLike[] = [
+    v.groundAmslM.buffer,
+    v.obstructionTopAglM.buffer,
+    v.lowestVisibleAglM.buffer,
+  ];
   for (const s of v.slices) {
     list.push(s.combinedPd.buffer, s.overlap.buffer, s.gap.buffer);
     for (const p of s.perRadarPd) list.push(p.buffer);

@@ -8,7 +8,7 @@ import { existsSync, mkdirSync, mkdtempSync, readFileSync, rmSync, writeFileSync
 import { tmpdir } from "node:os";
 import { dirname, join, resolve } from "node:path";
 import { fileURLToPath } from "node:url";
-import { type Browser, type BrowserContext, chromium, type Page } from "playwright-core";
+import { type BrowserContext, chromium, type Page } from "playwright-core";
 
 export const CHROMIUM_PATH = "/usr/bin/chromium";
 export const ROOT = resolve(dirname(fileURLToPath(import.meta.url)), "../..");
@@ -30,14 +30,12 @@ export function browserAvailable(): boolean {
 
 export interface Harness {
   baseUrl: string;
-  browser: Browser;
   context: BrowserContext;
   page: Page;
   userDataDir: string;
   errors: string[];
   requests: string[];
   stop(): Promise<void>;
-  newContext(): Promise<BrowserContext>;
 }
 
 function vite(args: string[]): ReturnType<typeof spawnSync> {
@@ -94,14 +92,16 @@ async function startPreview(): Promise<{ proc: ChildProcess; baseUrl: string }> 
   throw new Error(`vite preview did not start within 30 s: ${log}`);
 }
 
-/** Builds, serves, launches Chromium with a new empty profile, opens one page. */
+/** Builds, serves, launches Chromium with a new empty profile (--user-data-dir via a persistent context), opens one page. */
 export async function startHarness(): Promise<Harness> {
   buildApp();
   const { proc, baseUrl } = await startPreview();
   const userDataDir = mkdtempSync(join(tmpdir(), "picket-e2e-"));
-  const browser = await chromium.launch({
+  const context = await chromium.launchPersistentContext(userDataDir, {
     executablePath: CHROMIUM_PATH,
     headless: true,
+    viewport: { width: 1400, height: 900 },
+    acceptDownloads: true,
     args: [
       "--no-sandbox",
       "--disable-gpu",
@@ -109,33 +109,25 @@ export async function startHarness(): Promise<Harness> {
       "--disable-component-update",
       "--disable-sync",
       "--no-first-run",
-      `--user-data-dir=${userDataDir}`,
     ],
   });
   const errors: string[] = [];
   const requests: string[] = [];
-  const newContext = async () => {
-    const ctx = await browser.newContext({ viewport: { width: 1400, height: 900 }, acceptDownloads: true });
-    ctx.on("request", (r) => requests.push(r.url()));
-    return ctx;
-  };
-  const context = await newContext();
-  const page = await context.newPage();
+  context.on("request", (r) => requests.push(r.url()));
+  const page = context.pages()[0] ?? (await context.newPage());
   page.on("pageerror", (e) => errors.push(String(e)));
   page.on("console", (m) => {
     if (m.type() === "error") errors.push(m.text());
   });
   return {
     baseUrl,
-    browser,
     context,
     page,
     userDataDir,
     errors,
     requests,
-    newContext,
     async stop() {
-      await browser.close().catch(() => undefined);
+      await context.close().catch(() => undefined);
       proc.kill();
       rmSync(userDataDir, { recursive: true, force: true });
     },

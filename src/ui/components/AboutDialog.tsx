@@ -27,8 +27,8 @@ function TileServerForm() {
     >
       <h3>Basemap tiles (optional)</h3>
       <p className="muted">
-        Off by default: the map shows a hillshade of the site's DEM and makes no network request. A tile server you set here is
-        the only address Picket contacts; reload the page after changing it.
+        Off by default: the map shows a hillshade of the site's DEM and makes no network request. A tile
+        server you set here is the only address Picket contacts; reload the page after changing it.
       </p>
       <label>
         Tile URL template
@@ -57,12 +57,19 @@ export function AboutDialog(props: { open: boolean; onClose: () => void }) {
     if (!props.open && d.open) d.close();
   }, [props.open]);
   return (
-    <dialog ref={ref} className="about" onClose={props.onClose} aria-labelledby="about-title" data-testid="about-dialog">
+    <dialog
+      ref={ref}
+      className="about"
+      onClose={props.onClose}
+      aria-labelledby="about-title"
+      data-testid="about-dialog"
+    >
       <h2 id="about-title">About Picket, and safety</h2>
       <p>
-        Picket plans radar coverage for a site: where a target of a given RCS is detected at each height with the required Pd,
-        where radars overlap, and where terrain, buildings or trees leave gaps. It runs entirely in this browser; no plan or
-        result leaves this computer. Radar models shipped with it are invented examples.
+        Picket plans radar coverage for a site: where a target of a given RCS is detected at each height with
+        the required Pd, where radars overlap, and where terrain, buildings or trees leave gaps. It runs
+        entirely in this browser; no plan or result leaves this computer. Radar models shipped with it are
+        invented examples.
       </p>
       <h3>RF exposure and work at height</h3>
       <ul className="cautions" data-testid="safety-cautions">

@@ -3,7 +3,12 @@ import { tableCss } from "../../map/colourTable";
 import { layerScale } from "../layerPaint";
 import type { LayerKind } from "../session";
 
-export function Legend(props: { kind: LayerKind; maxOverlap: number; maxHeightM: number; showGaps: boolean }) {
+export function Legend(props: {
+  kind: LayerKind;
+  maxOverlap: number;
+  maxHeightM: number;
+  showGaps: boolean;
+}) {
   const s = layerScale(props.kind, props.maxOverlap, props.maxHeightM);
   const discrete = props.kind === "overlap";
   return (
@@ -35,11 +40,13 @@ export function Legend(props: { kind: LayerKind; maxOverlap: number; maxHeightM:
       )}
       {props.showGaps && (
         <div className="legend-gap">
-          <span className="swatch hatch" /> Gap: below the required Pd inside the protected area or approach ring (outlined, area in m² or ha)
+          <span className="swatch hatch" /> Gap: below the required Pd inside the protected area or approach
+          ring (outlined, area in m² or ha)
         </div>
       )}
       <div className="legend-gap">
-        <span className="swatch outline-solid" /> Protected area <span className="swatch outline-dashed" /> Approach ring
+        <span className="swatch outline-solid" /> Protected area <span className="swatch outline-dashed" />{" "}
+        Approach ring
       </div>
     </figure>
   );

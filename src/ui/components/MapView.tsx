@@ -1,17 +1,17 @@
 /** The map: basemap, coverage, gaps, site, posts; drawing and click tools; files dropped on it are imported. */
 import { useEffect, useRef, useState } from "react";
 import { formatAreaM2 } from "../../map/gapOutlines";
+import type L from "../../map/leaflet";
 import { useLeafletMap } from "../../map/useLeafletMap";
+import { shownView, useCoverage } from "../coverageState";
 import { importFiles } from "../import/importFiles";
 import { useBaseLayers } from "../mapHooks/useBaseLayers";
 import { useCoverageLayers } from "../mapHooks/useCoverageLayers";
 import { useDrawTools } from "../mapHooks/useDrawTools";
+import { useFitToSite } from "../mapHooks/useFitToSite";
 import { useMapClicks } from "../mapHooks/useMapClicks";
 import { usePostsLayer } from "../mapHooks/usePostsLayer";
 import { useSiteLayers } from "../mapHooks/useSiteLayers";
-import { shownView, useCoverage } from "../coverageState";
-import { useFitToSite } from "../mapHooks/useFitToSite";
-import type L from "../../map/leaflet";
 import { useSession } from "../session";
 
 export function MapView(props: { onMap: (m: L.Map | null) => void; initialCentre: [number, number] }) {
@@ -47,13 +47,19 @@ export function MapView(props: { onMap: (m: L.Map | null) => void; initialCentre
       <div ref={ref} className="map" data-testid="map" />
       {live && (
         <div className="live-measure" role="status" data-testid="live-measure">
-          {live.vertices} corners · outline {live.lengthM < 1000 ? `${live.lengthM.toFixed(0)} m` : `${(live.lengthM / 1000).toFixed(2)} km`} · area{" "}
-          {formatAreaM2(live.areaM2)}
+          {live.vertices} corners · outline{" "}
+          {live.lengthM < 1000 ? `${live.lengthM.toFixed(0)} m` : `${(live.lengthM / 1000).toFixed(2)} km`} ·
+          area {formatAreaM2(live.areaM2)}
         </div>
       )}
       {tool !== "select" && !live && (
         <div className="tool-banner" role="status">
-          {tool === "post" ? "Click to place a post" : tool === "inspect" ? "Click a point to inspect it" : "Click the corners; click the first corner to finish"} · Esc to stop
+          {tool === "post"
+            ? "Click to place a post"
+            : tool === "inspect"
+              ? "Click a point to inspect it"
+              : "Click the corners; click the first corner to finish"}{" "}
+          · Esc to stop
         </div>
       )}
       {dragOver && <div className="drop-hint">Drop DEM, buildings, posts CSV or a plan to import</div>}

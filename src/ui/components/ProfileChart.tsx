@@ -54,8 +54,8 @@ export default function ProfileChart({ profile, title }: { profile: ProfileData;
     <figure className="profile-chart" data-testid="profile-chart">
       <div ref={ref} />
       <figcaption>
-        Brown: ground and obstructions (Earth curvature applied, k as set); dashed: ground on a flat Earth; blue: sight line;
-        orange band: first Fresnel zone.
+        Brown: ground and obstructions (Earth curvature applied, k as set); dashed: ground on a flat Earth;
+        blue: sight line; orange band: first Fresnel zone.
       </figcaption>
     </figure>
   );

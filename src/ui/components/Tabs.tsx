@@ -37,7 +37,12 @@ export function Tabs(props: { tabs: TabDef[]; label: string; initial?: string; t
           </button>
         ))}
       </div>
-      <div role="tabpanel" id={`${base}-${current.id}-panel`} aria-labelledby={`${base}-${current.id}`} className="tabpanel">
+      <div
+        role="tabpanel"
+        id={`${base}-${current.id}-panel`}
+        aria-labelledby={`${base}-${current.id}`}
+        className="tabpanel"
+      >
         {current.render()}
       </div>
     </div>

@@ -56,7 +56,12 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
         <button type="button" onClick={() => void openPlanFromPicker()} data-testid="open-plan">
           Open…
         </button>
-        <button type="button" disabled={!plan} onClick={() => plan && void savePlanToFile(plan)} data-testid="save-plan">
+        <button
+          type="button"
+          disabled={!plan}
+          onClick={() => plan && void savePlanToFile(plan)}
+          data-testid="save-plan"
+        >
           Save plan
         </button>
         <button
@@ -82,15 +87,33 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
         </select>
         <ImportButton />
         <span className="sep" />
-        <button type="button" disabled={!canUndo} onClick={() => undo()} title="Undo (Ctrl+Z)" data-testid="undo">
+        <button
+          type="button"
+          disabled={!canUndo}
+          onClick={() => undo()}
+          title="Undo (Ctrl+Z)"
+          data-testid="undo"
+        >
           Undo
         </button>
-        <button type="button" disabled={!canRedo} onClick={() => redo()} title="Redo (Ctrl+Shift+Z)" data-testid="redo">
+        <button
+          type="button"
+          disabled={!canRedo}
+          onClick={() => redo()}
+          title="Redo (Ctrl+Shift+Z)"
+          data-testid="redo"
+        >
           Redo
         </button>
       </nav>
       <div className="run-status" role="status" data-testid="run-status">
-        {running ? "Computing…" : problem ? `Not computed: ${problem}` : elapsed !== undefined ? `Computed in ${Math.round(elapsed)} ms` : ""}
+        {running
+          ? "Computing…"
+          : problem
+            ? `Not computed: ${problem}`
+            : elapsed !== undefined
+              ? `Computed in ${Math.round(elapsed)} ms`
+              : ""}
       </div>
       <button type="button" className="about-button" onClick={props.onAbout} data-testid="about">
         About & safety

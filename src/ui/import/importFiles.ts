@@ -4,11 +4,12 @@
  * posts (CSV), a plan (.json with a version) or a bundle (.zip). Each file is read and checked before the
  * plan changes; a file that does not read leaves the plan as it was and says why.
  */
-import type { AreaGeometry, BuildingFeature, Plan, TreeStand } from "../../io/planSchema";
+
 import { parseBuildings } from "../../io/buildings";
 import { readAscDem } from "../../io/demAsc";
 import { readGeoTiffDem } from "../../io/demGeotiff";
 import { readHgtDem } from "../../io/demHgt";
+import type { AreaGeometry, BuildingFeature, Plan, TreeStand } from "../../io/planSchema";
 import { siteGridFrame } from "../../io/siteGrid";
 import { useAssets } from "../assets";
 import { openPlanFile } from "../files";
@@ -17,7 +18,15 @@ import { say } from "../session";
 import { currentPlan, freshId, usePlanStore } from "../store";
 import { formatCsvErrors, parsePostsCsv } from "./postsCsv";
 
-export type ImportKind = "dem-geotiff" | "dem-hgt" | "dem-asc" | "buildings" | "posts" | "plan" | "bundle" | "unknown";
+export type ImportKind =
+  | "dem-geotiff"
+  | "dem-hgt"
+  | "dem-asc"
+  | "buildings"
+  | "posts"
+  | "plan"
+  | "bundle"
+  | "unknown";
 
 /** The kind of a file from its name (and for .json, from whether it looks like a plan). */
 export function importKindOf(fileName: string, head = ""): ImportKind {
@@ -27,8 +36,10 @@ export function importKindOf(fileName: string, head = ""): ImportKind {
   if (n.endsWith(".asc")) return "dem-asc";
   if (n.endsWith(".csv") || n.endsWith(".txt")) return "posts";
   if (n.endsWith(".zip")) return "bundle";
-  if (n.endsWith(".kml") || n.endsWith(".kmz") || n.endsWith(".osm") || n.endsWith(".geojson")) return "buildings";
-  if (n.endsWith(".json")) return /"version"\s*:/.test(head) && /"posts"\s*:/.test(head) ? "plan" : "buildings";
+  if (n.endsWith(".kml") || n.endsWith(".kmz") || n.endsWith(".osm") || n.endsWith(".geojson"))
+    return "buildings";
+  if (n.endsWith(".json"))
+    return /"version"\s*:/.test(head) && /"posts"\s*:/.test(head) ? "plan" : "buildings";
   return "unknown";
 }
 
@@ -37,7 +48,10 @@ function errorText(e: unknown): string {
 }
 
 /** Rings in grid metres back to a GeoJSON polygon in lon/lat. */
-function ringsToGeometry(rings: readonly Float64Array[], toLonLat: (x: number, y: number) => [number, number]) {
+function ringsToGeometry(
+  rings: readonly Float64Array[],
+  toLonLat: (x: number, y: number) => [number, number],
+) {
   const coordinates = rings.map((r) => {
     const out: number[][] = [];
     for (let i = 0; i + 1 < r.length; i += 2) out.push(toLonLat(r[i], r[i + 1]));
@@ -55,9 +69,13 @@ async function importDem(file: File, kind: ImportKind, plan: Plan): Promise<void
   const bytes = await file.arrayBuffer();
   const grid = siteGridFrame(plan);
   let warnings: string[];
-  if (kind === "dem-geotiff") warnings = (await readGeoTiffDem(bytes.slice(0), grid.frame, { fileName: file.name })).warnings;
+  if (kind === "dem-geotiff")
+    warnings = (await readGeoTiffDem(bytes.slice(0), grid.frame, { fileName: file.name })).warnings;
   else if (kind === "dem-hgt") warnings = readHgtDem(bytes.slice(0), file.name, grid.frame).warnings;
-  else warnings = readAscDem(new TextDecoder().decode(bytes), grid.frame, undefined, { fileName: file.name }).warnings;
+  else
+    warnings = readAscDem(new TextDecoder().decode(bytes), grid.frame, undefined, {
+      fileName: file.name,
+    }).warnings;
   useAssets.getState().setDem({ fileName: file.name, bytes });
   usePlanStore.getState().change(
     (p) => ({
@@ -90,7 +108,11 @@ async function importBuildings(file: File, plan: Plan): Promise<void> {
       type: "Feature",
       id,
       geometry: ringsToGeometry(b.rings, grid.toLonLat),
-      properties: { height: b.heightM, ...(b.minHeightM > 0 ? { min_height: b.minHeightM } : {}), source: file.name },
+      properties: {
+        height: b.heightM,
+        ...(b.minHeightM > 0 ? { min_height: b.minHeightM } : {}),
+        source: file.name,
+      },
     });
   }
   const trees: TreeStand[] = [];
@@ -110,7 +132,11 @@ async function importBuildings(file: File, plan: Plan): Promise<void> {
     const withB = addBuildings(p, features);
     return { ...withB, terrain: { ...withB.terrain, treeStands: [...withB.terrain.treeStands, ...trees] } };
   }, `buildings from ${file.name}`);
-  say("info", `Imported ${features.length} building${features.length === 1 ? "" : "s"} and ${trees.length} tree stand${trees.length === 1 ? "" : "s"} from ${file.name}.`, r.warnings);
+  say(
+    "info",
+    `Imported ${features.length} building${features.length === 1 ? "" : "s"} and ${trees.length} tree stand${trees.length === 1 ? "" : "s"} from ${file.name}.`,
+    r.warnings,
+  );
 }
 
 async function importPosts(file: File): Promise<void> {

@@ -36,7 +36,12 @@ export function useBaseLayers(map: L.Map | null, view: CoverageView | null): voi
 }
 
 function tileLayerOf(s: TileServer): L.TileLayer {
-  return L.tileLayer(s.urlTemplate, { attribution: escapeText(s.attribution), maxZoom: 21, zIndex: 2, opacity: 0.9 });
+  return L.tileLayer(s.urlTemplate, {
+    attribution: escapeText(s.attribution),
+    maxZoom: 21,
+    zIndex: 2,
+    opacity: 0.9,
+  });
 }
 
 /** Leaflet puts attributions in as HTML: escape the user's text so it shows as text. */

@@ -38,7 +38,13 @@ export function useCoverageLayers(map: L.Map | null): void {
       const k = Math.max(0, view.radarPostIds.indexOf(singlePostId ?? view.radarPostIds[0]));
       values = slice.perRadarPd[k] ?? slice.combinedPd;
     }
-    coverage.setPaint({ frame, forward, indices: quantise(values, scale.toIndex), table: scale.table, pattern: "fill" });
+    coverage.setPaint({
+      frame,
+      forward,
+      indices: quantise(values, scale.toIndex),
+      table: scale.table,
+      pattern: "fill",
+    });
   }, [view, slice, frame, forward, layer, singlePostId, coverage]);
 
   useEffect(() => {

@@ -5,12 +5,13 @@
  * and removed from the map (the site layer draws the plan).
  */
 import area from "@turf/area";
-import difference from "@turf/difference";
 import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
-import { useEffect, useState } from "react";
+import difference from "@turf/difference";
 import type { Feature, MultiPolygon, Polygon } from "geojson";
+import { useEffect, useState } from "react";
 import type { AreaGeometry } from "../../io/planSchema";
-import L, { loadGeoman } from "../../map/leaflet";
+import type L from "../../map/leaflet";
+import { loadGeoman } from "../../map/leaflet";
 import { azimuthAndDistance } from "../../map/localGeo";
 import { addBuilding, addProtectedArea, addTreeStand, replaceAreaGeometry } from "../planEdits";
 import { say, useSession } from "../session";
@@ -72,7 +73,9 @@ function cutHole(geometry: AreaGeometry): void {
     say("warning", "That hole would remove the whole area; nothing was changed.");
     return;
   }
-  usePlanStore.getState().change((p) => replaceAreaGeometry(p, inside.id, cut.geometry as AreaGeometry), "cut hole");
+  usePlanStore
+    .getState()
+    .change((p) => replaceAreaGeometry(p, inside.id, cut.geometry as AreaGeometry), "cut hole");
 }
 
 export function useDrawTools(map: L.Map | null): LiveMeasure | null {
@@ -101,7 +104,8 @@ export function useDrawTools(map: L.Map | null): LiveMeasure | null {
       const change = usePlanStore.getState().change;
       if (tool === "area") change((p) => addProtectedArea(p, geometry), "draw protected area");
       else if (tool === "hole") cutHole(geometry);
-      else if (tool === "building") change((p) => addBuilding(p, geometry, s.newBuildingHeightM), "draw building");
+      else if (tool === "building")
+        change((p) => addBuilding(p, geometry, s.newBuildingHeightM), "draw building");
       else change((p) => addTreeStand(p, geometry, s.newCanopyHeightM), "draw tree stand");
       // Stay in the tool for the next shape.
       (map as PmMap).pm.enableDraw("Polygon", { snappable: true, continueDrawing: false });
@@ -109,7 +113,9 @@ export function useDrawTools(map: L.Map | null): LiveMeasure | null {
     void loadGeoman().then(() => {
       if (cancelled) return;
       const pm = (map as PmMap).pm;
-      pm.setGlobalOptions({ pathOptions: { color: tool === "area" || tool === "hole" ? "#111" : "#5a3d2b" } });
+      pm.setGlobalOptions({
+        pathOptions: { color: tool === "area" || tool === "hole" ? "#111" : "#5a3d2b" },
+      });
       pm.enableDraw("Polygon", { snappable: true, continueDrawing: false });
       map.on("pm:drawstart", onStart as unknown as L.LeafletEventHandlerFn);
       map.on("pm:create", onCreate as unknown as L.LeafletEventHandlerFn);

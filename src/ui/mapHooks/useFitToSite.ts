@@ -17,6 +17,6 @@ export function useFitToSite(map: L.Map | null): void {
       for (const poly of polys) for (const p of poly[0]) pts.push([p[1], p[0]]);
     }
     for (const p of plan.posts) pts.push([p.position.latDeg, p.position.lonDeg]);
-    if (pts.length > 0) map.fitBounds(L.latLngBounds(pts).pad(0.35), { animate: false });
+    if (pts.length > 0) map.fitBounds(L.latLngBounds(pts).pad(0.12), { animate: false });
   }, [map, plan]);
 }

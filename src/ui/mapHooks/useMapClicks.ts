@@ -1,13 +1,13 @@
 /** Clicks on the map: place a post (post tool) or inspect a point (inspect tool). Esc leaves a tool. */
 import { useEffect } from "react";
 import type L from "../../map/leaflet";
+import { useCoverage } from "../coverageState";
 import { runPoint } from "../engine";
 import { addPost, updatePost } from "../planEdits";
 import { roofUnder } from "../roofs";
 import { selectedSlice } from "../selection";
 import { say, useSession } from "../session";
 import { usePlanStore } from "../store";
-import { useCoverage } from "../coverageState";
 import { ROOF_MAST_M } from "./usePostsLayer";
 
 export function inspectAt(lonDeg: number, latDeg: number): void {
@@ -35,18 +35,28 @@ export function useMapClicks(map: L.Map | null): void {
         if (!plan) return;
         const { plan: next, id } = addPost(plan, e.latlng.lng, e.latlng.lat);
         const roof = roofUnder(plan, e.latlng.lng, e.latlng.lat);
-        usePlanStore.getState().change(
-          () => (roof ? updatePost(next, id, { mounting: "roof", mastHeightM: roof.heightM + ROOF_MAST_M }) : next),
-          "add post",
-        );
-        if (roof) say("info", `The new post is on a roof ${roof.heightM} m high: mounted at ${roof.heightM + ROOF_MAST_M} m above ground.`);
+        usePlanStore
+          .getState()
+          .change(
+            () =>
+              roof
+                ? updatePost(next, id, { mounting: "roof", mastHeightM: roof.heightM + ROOF_MAST_M })
+                : next,
+            "add post",
+          );
+        if (roof)
+          say(
+            "info",
+            `The new post is on a roof ${roof.heightM} m high: mounted at ${roof.heightM + ROOF_MAST_M} m above ground.`,
+          );
         useSession.getState().set({ selectedPostId: id, tool: "select" });
       } else if (t === "inspect") {
         inspectAt(e.latlng.lng, e.latlng.lat);
       }
     };
     const onKey = (e: KeyboardEvent) => {
-      if (e.key === "Escape" && useSession.getState().tool !== "select") useSession.getState().set({ tool: "select" });
+      if (e.key === "Escape" && useSession.getState().tool !== "select")
+        useSession.getState().set({ tool: "select" });
     };
     map.on("click", onClick);
     window.addEventListener("keydown", onKey);

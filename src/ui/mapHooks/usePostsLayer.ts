@@ -8,7 +8,7 @@ import { radarExposure } from "../../coverage/rfExposure";
 import type { Plan, Post } from "../../io/planSchema";
 import { radarModelOfPost } from "../../io/planValidation";
 import type L from "../../map/leaflet";
-import { type PostView, PostsLayer } from "../../map/postsLayer";
+import { PostsLayer, type PostView } from "../../map/postsLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
 import { runEvaluation } from "../engine";
 import { updatePost } from "../planEdits";
@@ -19,17 +19,24 @@ import { usePlanStore } from "../store";
 /** Extra mast on a roof above the roof top when a post is snapped to a roof, m. */
 export const ROOF_MAST_M = 3;
 
-function postViews(plan: Plan, preview: { postId: string; lonDeg: number; latDeg: number; azDeg?: number } | null): PostView[] {
+function postViews(
+  plan: Plan,
+  preview: { postId: string; lonDeg: number; latDeg: number; azDeg?: number } | null,
+): PostView[] {
   return plan.posts.map((p) => {
     const model = radarModelOfPost(plan, p);
     const scan = model?.scan;
-    const width = p.scanSector?.widthDeg ?? (scan?.kind === "sector" ? scan.sectorWidthDeg : scan?.kind === "staring" ? scan.fovAzDeg : 360);
+    const width =
+      p.scanSector?.widthDeg ??
+      (scan?.kind === "sector" ? scan.sectorWidthDeg : scan?.kind === "staring" ? scan.fovAzDeg : 360);
     const dragged = preview?.postId === p.id ? preview : null;
     const boresight = dragged?.azDeg ?? p.boresightAzDeg;
     let exposure = Number.NaN;
     if (model) {
       const e = radarExposure(model);
-      exposure = e.stopped.find((r) => r.standard === "ICNIRP 2020" && r.population === "general public")?.distanceM ?? Number.NaN;
+      exposure =
+        e.stopped.find((r) => r.standard === "ICNIRP 2020" && r.population === "general public")?.distanceM ??
+        Number.NaN;
     }
     return {
       id: p.id,
@@ -90,13 +97,21 @@ export function usePostsLayer(map: L.Map | null): void {
           const post = plan.posts.find((p) => p.id === id);
           if (roof && post && post.mounting !== "roof") {
             const mast = roof.heightM + ROOF_MAST_M;
-            usePlanStore.getState().change(
-              (p) => updatePost(p, id, { position: { lonDeg, latDeg }, mounting: "roof", mastHeightM: mast }),
-              "move post onto a roof",
+            usePlanStore
+              .getState()
+              .change(
+                (p) =>
+                  updatePost(p, id, { position: { lonDeg, latDeg }, mounting: "roof", mastHeightM: mast }),
+                "move post onto a roof",
+              );
+            say(
+              "info",
+              `${post.name} is on a roof ${roof.heightM} m high: mounted at ${mast} m above ground (roof + ${ROOF_MAST_M} m mast). Change it under Posts.`,
             );
-            say("info", `${post.name} is on a roof ${roof.heightM} m high: mounted at ${mast} m above ground (roof + ${ROOF_MAST_M} m mast). Change it under Posts.`);
           } else {
-            usePlanStore.getState().change((p) => updatePost(p, id, { position: { lonDeg, latDeg } }), "move post");
+            usePlanStore
+              .getState()
+              .change((p) => updatePost(p, id, { position: { lonDeg, latDeg } }), "move post");
           }
         },
         onBoresight: (id, azDeg, done) => {
@@ -109,7 +124,12 @@ export function usePostsLayer(map: L.Map | null): void {
           } else {
             const post = plan.posts.find((p) => p.id === id);
             if (!post) return;
-            previewRef.current = { postId: id, lonDeg: post.position.lonDeg, latDeg: post.position.latDeg, azDeg: az };
+            previewRef.current = {
+              postId: id,
+              lonDeg: post.position.lonDeg,
+              latDeg: post.position.latDeg,
+              azDeg: az,
+            };
             void preview(withPreview(plan, id, { boresightAzDeg: az }));
           }
         },

@@ -15,9 +15,13 @@ function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: 
   const [text, setText] = useState(heights.join(", "));
   const [error, setError] = useState<string | null>(null);
   const commit = () => {
-    const parts = text.split(/[,;\s]+/).filter(Boolean).map(Number);
+    const parts = text
+      .split(/[,;\s]+/)
+      .filter(Boolean)
+      .map(Number);
     const bad = parts.find((h) => !(Number.isFinite(h) && h >= 0 && h <= 10000));
-    if (parts.length === 0 || bad !== undefined) return setError(`Target heights: "${text}" must be numbers 0–10000 m, comma separated`);
+    if (parts.length === 0 || bad !== undefined)
+      return setError(`Target heights: "${text}" must be numbers 0–10000 m, comma separated`);
     setError(null);
     onCommit(parts);
   };
@@ -25,10 +29,21 @@ function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: 
     <div className="field">
       <label htmlFor={id}>Target heights</label>
       <span className="field-input">
-        <input id={id} value={text} onChange={(e) => setText(e.target.value)} onBlur={commit} onKeyDown={(e) => e.key === "Enter" && commit()} data-testid="analysis-heights" />
+        <input
+          id={id}
+          value={text}
+          onChange={(e) => setText(e.target.value)}
+          onBlur={commit}
+          onKeyDown={(e) => e.key === "Enter" && commit()}
+          data-testid="analysis-heights"
+        />
         <span className="unit">m AGL</span>
       </span>
-      {error && <span className="field-error" role="alert">{error}</span>}
+      {error && (
+        <span className="field-error" role="alert">
+          {error}
+        </span>
+      )}
     </div>
   );
 }
@@ -43,7 +58,13 @@ export function AnalysisPanel() {
       const size = runSizeOf(plan, g);
       return { g, size, bytes: estimateRunMemoryBytes(size), check: checkRunMemory(size), error: null };
     } catch (e) {
-      return { g: null, size: null, bytes: 0, check: null, error: e instanceof Error ? e.message : String(e) };
+      return {
+        g: null,
+        size: null,
+        bytes: 0,
+        check: null,
+        error: e instanceof Error ? e.message : String(e),
+      };
     }
   }, [plan]);
   if (!plan) return null;
@@ -57,13 +78,45 @@ export function AnalysisPanel() {
           { value: "auto", label: "Automatic (caps the cell count)" },
           { value: "fixed", label: "Fixed" },
         ]}
-        onChange={(v) => change((p) => ({ ...p, analysis: { ...p.analysis, cellSizeM: v === "auto" ? "auto" : (estimate?.g ? estimate.g.frame.cellSizeM : 10) } }), "cell size")}
+        onChange={(v) =>
+          change(
+            (p) => ({
+              ...p,
+              analysis: {
+                ...p.analysis,
+                cellSizeM: v === "auto" ? "auto" : estimate?.g ? estimate.g.frame.cellSizeM : 10,
+              },
+            }),
+            "cell size",
+          )
+        }
       />
       {a.cellSizeM !== "auto" && (
-        <NumberField label="Cell side" unit="m" min={0.5} max={1000} value={a.cellSizeM} onCommit={(v) => change((p) => ({ ...p, analysis: { ...p.analysis, cellSizeM: v } }), "cell size")} testId="cell-size" />
+        <NumberField
+          label="Cell side"
+          unit="m"
+          min={0.5}
+          max={1000}
+          value={a.cellSizeM}
+          onCommit={(v) => change((p) => ({ ...p, analysis: { ...p.analysis, cellSizeM: v } }), "cell size")}
+          testId="cell-size"
+        />
       )}
-      <NumberField label="Effective Earth factor k" unit="(4/3 standard, 1 geometric)" min={0.5} max={1000} digits={3} value={a.effectiveEarthFactor} onCommit={(k) => change((p) => ({ ...p, analysis: { ...p.analysis, effectiveEarthFactor: k } }), "k factor")} />
-      <HeightsField heights={a.targetHeightsM} onCommit={(h) => change((p) => setAnalysisHeights(p, h), "target heights")} />
+      <NumberField
+        label="Effective Earth factor k"
+        unit="(4/3 standard, 1 geometric)"
+        min={0.5}
+        max={1000}
+        digits={3}
+        value={a.effectiveEarthFactor}
+        onCommit={(k) =>
+          change((p) => ({ ...p, analysis: { ...p.analysis, effectiveEarthFactor: k } }), "k factor")
+        }
+      />
+      <HeightsField
+        heights={a.targetHeightsM}
+        onCommit={(h) => change((p) => setAnalysisHeights(p, h), "target heights")}
+      />
       <SelectField
         label="Masking"
         value={a.maskMode}
@@ -71,11 +124,15 @@ export function AnalysisPanel() {
           { value: "accurate", label: "Accurate (for reports)" },
           { value: "fast", label: "Fast (quick look)" },
         ]}
-        onChange={(maskMode) => change((p) => ({ ...p, analysis: { ...p.analysis, maskMode } }), "masking mode")}
+        onChange={(maskMode) =>
+          change((p) => ({ ...p, analysis: { ...p.analysis, maskMode } }), "masking mode")
+        }
       />
       <h3>Run size</h3>
       {estimate?.error ? (
-        <p className="field-error" role="alert">{estimate.error}</p>
+        <p className="field-error" role="alert">
+          {estimate.error}
+        </p>
       ) : estimate?.g && estimate.size ? (
         <dl className="figures" data-testid="run-estimate">
           <dt>Grid</dt>
@@ -91,7 +148,10 @@ export function AnalysisPanel() {
           <dt>Memory needed</dt>
           <dd>{(estimate.bytes / BYTES_PER_MIB).toFixed(0)} MiB</dd>
           <dt>Frame</dt>
-          <dd>UTM zone {estimate.g.zone.zone}{estimate.g.zone.south ? "S" : "N"} (EPSG:{estimate.g.epsg})</dd>
+          <dd>
+            UTM zone {estimate.g.zone.zone}
+            {estimate.g.zone.south ? "S" : "N"} (EPSG:{estimate.g.epsg})
+          </dd>
         </dl>
       ) : null}
       {estimate?.check && !estimate.check.ok && (

@@ -29,7 +29,9 @@ function RadarRows({ r }: { r: PointRadar }) {
         <dt>Line of sight</dt>
         <dd>{r.visible ? "clear" : "obstructed"}</dd>
         <dt>Lowest visible height here</dt>
-        <dd>{Number.isFinite(r.lowestVisibleAglM) ? `${r.lowestVisibleAglM.toFixed(1)} m AGL` : "not seen"}</dd>
+        <dd>
+          {Number.isFinite(r.lowestVisibleAglM) ? `${r.lowestVisibleAglM.toFixed(1)} m AGL` : "not seen"}
+        </dd>
         <dt>Diffraction loss (two way)</dt>
         <dd>{db(r.diffractionLossDb)} dB</dd>
         <dt>SNR</dt>
@@ -69,7 +71,12 @@ export function InspectPanel() {
   const radar = point?.radars.find((r) => r.postId === profileOf) ?? point?.radars[0];
   return (
     <div className="panel" data-testid="inspect-panel">
-      <button type="button" aria-pressed={tool === "inspect"} onClick={() => set({ tool: tool === "inspect" ? "select" : "inspect" })} data-testid="tool-inspect">
+      <button
+        type="button"
+        aria-pressed={tool === "inspect"}
+        onClick={() => set({ tool: tool === "inspect" ? "select" : "inspect" })}
+        data-testid="tool-inspect"
+      >
         {tool === "inspect" ? "Click a point on the map (Esc to stop)" : "Inspect a point"}
       </button>
       {busy && <p role="status">Computing the point…</p>}
@@ -77,8 +84,10 @@ export function InspectPanel() {
         <>
           <p data-testid="point-summary">
             {point.latDeg.toFixed(6)}° N, {point.lonDeg.toFixed(6)}° E at {point.heightM} m AGL: combined Pd{" "}
-            <strong data-testid="point-combined-pd">{Number.isFinite(point.combinedPd) ? point.combinedPd.toFixed(3) : "—"}</strong> (required{" "}
-            {point.requiredPd})
+            <strong data-testid="point-combined-pd">
+              {Number.isFinite(point.combinedPd) ? point.combinedPd.toFixed(3) : "—"}
+            </strong>{" "}
+            (required {point.requiredPd})
           </p>
           {point.radars.length === 0 && <p className="muted">No enabled radar.</p>}
           {radar?.profile && (

@@ -12,11 +12,18 @@ function PostEditor({ post }: { post: Post }) {
   if (!plan) return null;
   const edit = (patch: Partial<Post>, label: string) => change((p) => updatePost(p, post.id, patch), label);
   const models = plan.radarModels.map((m) => ({ value: m.id, label: m.name }));
-  const inline = post.radarModel ? [{ value: "__inline", label: `${post.radarModel.name} (this post only)` }] : [];
+  const inline = post.radarModel
+    ? [{ value: "__inline", label: `${post.radarModel.name} (this post only)` }]
+    : [];
   return (
     <div className="post-editor" data-testid="post-editor">
       <h3>{post.name}</h3>
-      <TextField label="Name" value={post.name} onCommit={(name) => edit({ name }, "post name")} testId="post-name" />
+      <TextField
+        label="Name"
+        value={post.name}
+        onCommit={(name) => edit({ name }, "post name")}
+        testId="post-name"
+      />
       <SelectField
         label="Radar model"
         value={post.radarModel ? "__inline" : (post.radarModelId ?? "")}
@@ -66,7 +73,10 @@ function PostEditor({ post }: { post: Post }) {
         label="Own scan sector (instead of the model's)"
         checked={post.scanSector !== undefined}
         onChange={(on) =>
-          edit({ scanSector: on ? { centreAzDeg: post.boresightAzDeg, widthDeg: 90 } : undefined }, "scan sector")
+          edit(
+            { scanSector: on ? { centreAzDeg: post.boresightAzDeg, widthDeg: 90 } : undefined },
+            "scan sector",
+          )
         }
       />
       {post.scanSector && (
@@ -77,7 +87,12 @@ function PostEditor({ post }: { post: Post }) {
             min={0}
             max={359.99}
             value={post.scanSector.centreAzDeg}
-            onCommit={(v) => edit({ scanSector: { ...(post.scanSector as NonNullable<Post["scanSector"]>), centreAzDeg: v } }, "sector")}
+            onCommit={(v) =>
+              edit(
+                { scanSector: { ...(post.scanSector as NonNullable<Post["scanSector"]>), centreAzDeg: v } },
+                "sector",
+              )
+            }
           />
           <NumberField
             label="Sector width"
@@ -85,13 +100,18 @@ function PostEditor({ post }: { post: Post }) {
             min={1}
             max={360}
             value={post.scanSector.widthDeg}
-            onCommit={(v) => edit({ scanSector: { ...(post.scanSector as NonNullable<Post["scanSector"]>), widthDeg: v } }, "sector")}
+            onCommit={(v) =>
+              edit(
+                { scanSector: { ...(post.scanSector as NonNullable<Post["scanSector"]>), widthDeg: v } },
+                "sector",
+              )
+            }
           />
         </>
       )}
       <p className="muted">
-        {post.position.latDeg.toFixed(6)}° N, {post.position.lonDeg.toFixed(6)}° E — drag the post on the map to move it,
-        the orange handle to turn it.
+        {post.position.latDeg.toFixed(6)}° N, {post.position.lonDeg.toFixed(6)}° E — drag the post on the map
+        to move it, the orange handle to turn it.
       </p>
       <button
         type="button"
@@ -132,7 +152,9 @@ export function PostsPanel() {
               type="checkbox"
               checked={p.enabled}
               aria-label={`${p.name} takes part`}
-              onChange={(e) => change((pl) => updatePost(pl, p.id, { enabled: e.target.checked }), "enable post")}
+              onChange={(e) =>
+                change((pl) => updatePost(pl, p.id, { enabled: e.target.checked }), "enable post")
+              }
             />
             <button type="button" className="link" onClick={() => setSession({ selectedPostId: p.id })}>
               {p.name}

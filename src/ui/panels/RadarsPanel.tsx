@@ -26,7 +26,13 @@ function KeyFigures({ m }: { m: RadarModel }) {
         {m.txAntenna.azBeamwidthDeg}° × {m.txAntenna.elBeamwidthDeg}°
       </dd>
       <dt>Scan</dt>
-      <dd>{m.scan.kind === "sector" ? `sector ${m.scan.sectorWidthDeg}°` : m.scan.kind === "staring" ? `staring ${m.scan.fovAzDeg}°` : "rotating 360°"}</dd>
+      <dd>
+        {m.scan.kind === "sector"
+          ? `sector ${m.scan.sectorWidthDeg}°`
+          : m.scan.kind === "staring"
+            ? `staring ${m.scan.fovAzDeg}°`
+            : "rotating 360°"}
+      </dd>
       <dt>Instrumented range</dt>
       <dd>
         {(m.blindZoneM / M_PER_KM).toFixed(2)}–{(m.maxInstrumentedRangeM / M_PER_KM).toFixed(1)} km
@@ -46,9 +52,13 @@ function ModelEditor({ model, onDone }: { model: RadarModel; onDone: () => void 
   const apply = () => {
     const r = loadRadarModelFile(text);
     if (!r.ok) return setErrors(r.errors.map((e) => `${e.path}: ${e.message}`));
-    if (r.model.id !== model.id) return setErrors([`id: keep "${model.id}" (posts refer to it); duplicate to make a new model`]);
+    if (r.model.id !== model.id)
+      return setErrors([`id: keep "${model.id}" (posts refer to it); duplicate to make a new model`]);
     setErrors([]);
-    change((p) => ({ ...p, radarModels: p.radarModels.map((m) => (m.id === model.id ? r.model : m)) }), "edit radar model");
+    change(
+      (p) => ({ ...p, radarModels: p.radarModels.map((m) => (m.id === model.id ? r.model : m)) }),
+      "edit radar model",
+    );
     onDone();
   };
   return (
@@ -95,8 +105,15 @@ export function RadarsPanel() {
       return;
     }
     const r = loadRadarModelFile(await file.text());
-    if (!r.ok) return say("error", `${file.name} is not a valid radar model; nothing was added.`, r.errors.map((e) => `${e.path}: ${e.message}`));
-    const m = plan.radarModels.some((x) => x.id === r.model.id) ? { ...r.model, id: freshId(r.model.id, plan.radarModels) } : r.model;
+    if (!r.ok)
+      return say(
+        "error",
+        `${file.name} is not a valid radar model; nothing was added.`,
+        r.errors.map((e) => `${e.path}: ${e.message}`),
+      );
+    const m = plan.radarModels.some((x) => x.id === r.model.id)
+      ? { ...r.model, id: freshId(r.model.id, plan.radarModels) }
+      : r.model;
     change((p) => ({ ...p, radarModels: [...p.radarModels, m] }), "import radar model");
     setSelected(m.id);
   };
@@ -144,7 +161,12 @@ export function RadarsPanel() {
                 className="danger"
                 disabled={used(model.id)}
                 title={used(model.id) ? "A post uses this model" : undefined}
-                onClick={() => change((p) => ({ ...p, radarModels: p.radarModels.filter((m) => m.id !== model.id) }), "delete radar model")}
+                onClick={() =>
+                  change(
+                    (p) => ({ ...p, radarModels: p.radarModels.filter((m) => m.id !== model.id) }),
+                    "delete radar model",
+                  )
+                }
               >
                 Delete
               </button>

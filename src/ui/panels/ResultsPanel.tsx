@@ -1,7 +1,7 @@
 /** What is shown: layer, target class, height (switches at once: all heights are computed together). */
 import { useMemo } from "react";
-import { CheckField, SelectField } from "../components/NumberField";
 import { Legend } from "../components/Legend";
+import { CheckField, SelectField } from "../components/NumberField";
 import { shownView, useCoverage } from "../coverageState";
 import { selectedSlice } from "../selection";
 import { type LayerKind, useSession } from "../session";
@@ -31,7 +31,14 @@ export function ResultsPanel() {
         <legend>Map layer</legend>
         {LAYERS.map((l) => (
           <label key={l.value} className="radio">
-            <input type="radio" name="layer" value={l.value} checked={s.layer === l.value} onChange={() => s.set({ layer: l.value })} data-testid={`layer-${l.value}`} />
+            <input
+              type="radio"
+              name="layer"
+              value={l.value}
+              checked={s.layer === l.value}
+              onChange={() => s.set({ layer: l.value })}
+              data-testid={`layer-${l.value}`}
+            />
             {l.label}
           </label>
         ))}
@@ -40,7 +47,10 @@ export function ResultsPanel() {
         <SelectField
           label="Radar"
           value={s.singlePostId ?? view?.radarPostIds[0] ?? ""}
-          options={(view?.radarPostIds ?? []).map((id) => ({ value: id, label: plan.posts.find((p) => p.id === id)?.name ?? id }))}
+          options={(view?.radarPostIds ?? []).map((id) => ({
+            value: id,
+            label: plan.posts.find((p) => p.id === id)?.name ?? id,
+          }))}
           onChange={(v) => s.set({ singlePostId: v })}
         />
       )}
@@ -69,12 +79,35 @@ export function ResultsPanel() {
         </div>
       </div>
       <div className="check-row">
-        <CheckField label="Gaps" checked={s.showGaps} onChange={(v) => s.set({ showGaps: v })} testId="show-gaps" />
-        <CheckField label="Sectors and max range" checked={s.showSectors} onChange={(v) => s.set({ showSectors: v })} />
-        <CheckField label="RF-exposure distance" checked={s.showExposure} onChange={(v) => s.set({ showExposure: v })} testId="show-exposure" />
-        <CheckField label="Buildings and trees" checked={s.showBuildings} onChange={(v) => s.set({ showBuildings: v })} />
+        <CheckField
+          label="Gaps"
+          checked={s.showGaps}
+          onChange={(v) => s.set({ showGaps: v })}
+          testId="show-gaps"
+        />
+        <CheckField
+          label="Sectors and max range"
+          checked={s.showSectors}
+          onChange={(v) => s.set({ showSectors: v })}
+        />
+        <CheckField
+          label="RF-exposure distance"
+          checked={s.showExposure}
+          onChange={(v) => s.set({ showExposure: v })}
+          testId="show-exposure"
+        />
+        <CheckField
+          label="Buildings and trees"
+          checked={s.showBuildings}
+          onChange={(v) => s.set({ showBuildings: v })}
+        />
       </div>
-      <Legend kind={s.layer} maxOverlap={view?.radarPostIds.length ?? 1} maxHeightM={Math.max(...(view?.heightsM ?? [1]), 1) * 2} showGaps={s.showGaps} />
+      <Legend
+        kind={s.layer}
+        maxOverlap={view?.radarPostIds.length ?? 1}
+        maxHeightM={Math.max(...(view?.heightsM ?? [1]), 1) * 2}
+        showGaps={s.showGaps}
+      />
       {view?.notes.length ? (
         <ul className="notes" data-testid="run-notes">
           {view.notes.map((n) => (

@@ -6,10 +6,22 @@ import { type Tool, useSession } from "../session";
 import { usePlanStore } from "../store";
 
 const DRAW_TOOLS: { tool: Tool; label: string; hint: string }[] = [
-  { tool: "area", label: "Draw protected area", hint: "Click corners on the map; click the first corner to close." },
+  {
+    tool: "area",
+    label: "Draw protected area",
+    hint: "Click corners on the map; click the first corner to close.",
+  },
   { tool: "hole", label: "Cut a hole", hint: "Draw a polygon inside a protected area to leave it out." },
-  { tool: "building", label: "Draw building", hint: "Click the corners of a footprint; it gets the height below." },
-  { tool: "tree", label: "Draw tree stand", hint: "Click the corners of a stand; it gets the canopy height below." },
+  {
+    tool: "building",
+    label: "Draw building",
+    hint: "Click the corners of a footprint; it gets the height below.",
+  },
+  {
+    tool: "tree",
+    label: "Draw tree stand",
+    hint: "Click the corners of a stand; it gets the canopy height below.",
+  },
 ];
 
 export function SitePanel() {
@@ -75,7 +87,9 @@ export function SitePanel() {
           </button>
         ))}
       </div>
-      {DRAW_TOOLS.find((t) => t.tool === tool) && <p className="muted">{DRAW_TOOLS.find((t) => t.tool === tool)?.hint}</p>}
+      {DRAW_TOOLS.find((t) => t.tool === tool) && (
+        <p className="muted">{DRAW_TOOLS.find((t) => t.tool === tool)?.hint}</p>
+      )}
       <NumberField
         label="Height of new buildings"
         unit="m AGL"
@@ -94,11 +108,15 @@ export function SitePanel() {
       />
       <h3>Terrain</h3>
       <p data-testid="terrain-summary">
-        {g.type === "dem" ? `DEM ${g.file} (${g.kind}, ${g.surface})` : `Flat ground at ${g.elevationAmslM} m above sea level`}
+        {g.type === "dem"
+          ? `DEM ${g.file} (${g.kind}, ${g.surface})`
+          : `Flat ground at ${g.elevationAmslM} m above sea level`}
         {" · "}
         {plan.terrain.buildings.features.length} buildings · {plan.terrain.treeStands.length} tree stands
       </p>
-      <p className="muted">Import a DEM, buildings (GeoJSON, KML, OSM) or posts (CSV) with Import… or drop files on the map.</p>
+      <p className="muted">
+        Import a DEM, buildings (GeoJSON, KML, OSM) or posts (CSV) with Import… or drop files on the map.
+      </p>
     </div>
   );
 }

@@ -62,7 +62,11 @@ export function SummaryPanel() {
         </thead>
         <tbody>
           {ofClass.map((s) => (
-            <tr key={s.heightM} className={s === slice ? "selected" : undefined} onClick={() => set({ heightM: s.heightM })}>
+            <tr
+              key={s.heightM}
+              className={s === slice ? "selected" : undefined}
+              onClick={() => set({ heightM: s.heightM })}
+            >
               <th scope="row">{s.heightM} m AGL</th>
               <td className="num" data-testid={`covered-protected-${s.heightM}`}>
                 {pct(s.metrics.protectedArea.coveredFraction)}
@@ -82,8 +86,8 @@ export function SummaryPanel() {
       </table>
       {slice.metrics.protectedArea.insideObstructionCells > 0 && (
         <p className="muted">
-          {formatAreaM2(slice.metrics.protectedArea.insideObstructionAreaM2)} of the protected area lies inside buildings or
-          canopy at {slice.heightM} m and is left out of the fractions.
+          {formatAreaM2(slice.metrics.protectedArea.insideObstructionAreaM2)} of the protected area lies
+          inside buildings or canopy at {slice.heightM} m and is left out of the fractions.
         </p>
       )}
       <OverlapBars slice={slice} />
@@ -107,8 +111,8 @@ export function SummaryPanel() {
         </tbody>
       </table>
       <p className="muted">
-        {view.maskMode === "fast" ? "Preview (fast masking)" : "Accurate masking"} · grid {view.frame.width} × {view.frame.height} cells of{" "}
-        {view.frame.cellSizeM} m · computed in {Math.round(view.elapsedMs)} ms
+        {view.maskMode === "fast" ? "Preview (fast masking)" : "Accurate masking"} · grid {view.frame.width} ×{" "}
+        {view.frame.height} cells of {view.frame.cellSizeM} m · computed in {Math.round(view.elapsedMs)} ms
       </p>
     </section>
   );

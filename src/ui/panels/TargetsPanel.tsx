@@ -4,23 +4,42 @@ import { CheckField, NumberField, SelectField, TextField } from "../components/N
 import { updateTargetClass } from "../planEdits";
 import { freshId, usePlanStore } from "../store";
 
-const SWERLING = [0, 1, 2, 3, 4].map((k) => ({ value: String(k), label: `Swerling ${k}${k === 0 ? " (steady)" : ""}` }));
+const SWERLING = [0, 1, 2, 3, 4].map((k) => ({
+  value: String(k),
+  label: `Swerling ${k}${k === 0 ? " (steady)" : ""}`,
+}));
 
 function ClassEditor({ t, heights }: { t: TargetClass; heights: number[] }) {
   const change = usePlanStore((s) => s.change);
-  const edit = (patch: Partial<TargetClass>, label: string) => change((p) => updateTargetClass(p, t.id, patch), label);
+  const edit = (patch: Partial<TargetClass>, label: string) =>
+    change((p) => updateTargetClass(p, t.id, patch), label);
   return (
     <fieldset className="class-editor">
       <legend>{t.name}</legend>
       <TextField label="Name" value={t.name} onCommit={(name) => edit({ name }, "class name")} />
-      <NumberField label="Mean RCS" unit="dBsm" min={-60} max={60} value={t.rcsDbsm} onCommit={(rcsDbsm) => edit({ rcsDbsm }, "RCS")} testId={`rcs-${t.id}`} />
+      <NumberField
+        label="Mean RCS"
+        unit="dBsm"
+        min={-60}
+        max={60}
+        value={t.rcsDbsm}
+        onCommit={(rcsDbsm) => edit({ rcsDbsm }, "RCS")}
+        testId={`rcs-${t.id}`}
+      />
       <SelectField
         label="Fluctuation"
         value={String(t.swerling)}
         options={SWERLING}
         onChange={(v) => edit({ swerling: Number(v) as TargetClass["swerling"] }, "Swerling case")}
       />
-      <NumberField label="Speed" unit="m/s" min={0.1} max={1000} value={t.speedMPerS} onCommit={(speedMPerS) => edit({ speedMPerS }, "speed")} />
+      <NumberField
+        label="Speed"
+        unit="m/s"
+        min={0.1}
+        max={1000}
+        value={t.speedMPerS}
+        onCommit={(speedMPerS) => edit({ speedMPerS }, "speed")}
+      />
       <div className="field">
         <span>Judged at heights</span>
         <div className="check-row">
@@ -30,7 +49,9 @@ function ClassEditor({ t, heights }: { t: TargetClass; heights: number[] }) {
               label={`${h} m AGL`}
               checked={t.heightsAglM.includes(h)}
               onChange={(on) => {
-                const next = on ? [...t.heightsAglM, h].sort((a, b) => a - b) : t.heightsAglM.filter((x) => x !== h);
+                const next = on
+                  ? [...t.heightsAglM, h].sort((a, b) => a - b)
+                  : t.heightsAglM.filter((x) => x !== h);
                 if (next.length > 0) edit({ heightsAglM: next }, "class heights");
               }}
             />
@@ -49,9 +70,36 @@ export function TargetsPanel() {
   return (
     <div className="panel" data-testid="targets-panel">
       <h3>Requirement</h3>
-      <NumberField label="Required Pd" unit="(0–1)" min={0.01} max={0.999} value={r.requiredPd} onCommit={(requiredPd) => change((p) => ({ ...p, requirement: { ...p.requirement, requiredPd } }), "required Pd")} testId="required-pd" />
-      <NumberField label="Pfa" unit="per cell and look" min={1e-12} max={0.1} value={r.pfa} onCommit={(pfa) => change((p) => ({ ...p, requirement: { ...p.requirement, pfa } }), "Pfa")} />
-      <NumberField label="Looks integrated" unit="looks" min={1} max={1000} step={1} value={r.looks} onCommit={(looks) => change((p) => ({ ...p, requirement: { ...p.requirement, looks: Math.round(looks) } }), "looks")} />
+      <NumberField
+        label="Required Pd"
+        unit="(0–1)"
+        min={0.01}
+        max={0.999}
+        value={r.requiredPd}
+        onCommit={(requiredPd) =>
+          change((p) => ({ ...p, requirement: { ...p.requirement, requiredPd } }), "required Pd")
+        }
+        testId="required-pd"
+      />
+      <NumberField
+        label="Pfa"
+        unit="per cell and look"
+        min={1e-12}
+        max={0.1}
+        value={r.pfa}
+        onCommit={(pfa) => change((p) => ({ ...p, requirement: { ...p.requirement, pfa } }), "Pfa")}
+      />
+      <NumberField
+        label="Looks integrated"
+        unit="looks"
+        min={1}
+        max={1000}
+        step={1}
+        value={r.looks}
+        onCommit={(looks) =>
+          change((p) => ({ ...p, requirement: { ...p.requirement, looks: Math.round(looks) } }), "looks")
+        }
+      />
       <h3>Target classes</h3>
       {plan.targetClasses.map((t) => (
         <ClassEditor key={t.id} t={t} heights={plan.analysis.targetHeightsM} />
@@ -64,7 +112,14 @@ export function TargetsPanel() {
               ...p,
               targetClasses: [
                 ...p.targetClasses,
-                { id: freshId("class", p.targetClasses), name: "New class", rcsDbsm: -10, swerling: 1, speedMPerS: 20, heightsAglM: [...p.analysis.targetHeightsM] },
+                {
+                  id: freshId("class", p.targetClasses),
+                  name: "New class",
+                  rcsDbsm: -10,
+                  swerling: 1,
+                  speedMPerS: 20,
+                  heightsAglM: [...p.analysis.targetHeightsM],
+                },
               ],
             }),
             "add target class",

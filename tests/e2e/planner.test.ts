@@ -1,0 +1,330 @@
+/**
+ * End-to-end: the production build in headless Chromium, driven like a user would. One page goes
+ * through the cases in order (each leaves the plan as the next expects). Screenshots are written to
+ * __screenshots__/actual/; a few are compared with golden images (REGEN=1 rewrites them).
+ */
+import { copyFileSync, mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import type { Page } from "playwright-core";
+import { afterAll, beforeAll, describe, expect, it } from "vitest";
+import { evaluateSite } from "../../src/coverage/evaluate";
+import { parsePlan } from "../../src/io/planValidation";
+import { preparePlan } from "../../src/io/preparePlan";
+import { browserAvailable, compareGolden, type Harness, ROOT, shoot, startHarness } from "./harness";
+
+const RUN = browserAvailable();
+const DEMO = join(ROOT, "demo-sites/ridge-waterworks");
+/** Share of pixels allowed to differ from a golden image (font hinting, antialiasing of vectors). */
+const GOLDEN_TOLERANCE = 0.03;
+
+let h: Harness;
+let page: Page;
+const work = mkdtempSync(join(tmpdir(), "picket-e2e-files-"));
+
+async function waitComputed(p: Page): Promise<void> {
+  await p.waitForFunction(
+    () => /Computed in/.test(document.querySelector('[data-testid="run-status"]')?.textContent ?? ""),
+    null,
+    {
+      timeout: 60_000,
+    },
+  );
+}
+
+/** The run-status text changes on each run; wait for a run newer than `before`. */
+async function waitNewRun(p: Page, before: string): Promise<void> {
+  await p
+    .waitForFunction(
+      (b) => {
+        const t = document.querySelector('[data-testid="run-status"]')?.textContent ?? "";
+        return /Computed in/.test(t) && t !== b;
+      },
+      before,
+      { timeout: 60_000 },
+    )
+    .catch(() => undefined);
+  await waitComputed(p);
+}
+
+async function text(p: Page, testId: string): Promise<string> {
+  return (await p.getByTestId(testId).first().textContent()) ?? "";
+}
+
+async function summaryFigures(p: Page): Promise<string> {
+  return (await p.getByTestId("summary").textContent()) ?? "";
+}
+
+async function mapBox(p: Page) {
+  const b = await p.getByTestId("map").boundingBox();
+  if (!b) throw new Error("map not visible");
+  return b;
+}
+
+async function openTab(p: Page, id: string): Promise<void> {
+  await p.getByTestId(`tab-${id}`).click();
+}
+
+describe.skipIf(!RUN)("planner in the browser", () => {
+  beforeAll(async () => {
+    h = await startHarness();
+    page = h.page;
+    // Use the download/file-input fallbacks of browser-fs-access, which playwright can drive.
+    await h.context.addInitScript(() => {
+      const w = window as unknown as Record<string, unknown>;
+      delete w.showSaveFilePicker;
+      delete w.showOpenFilePicker;
+    });
+  }, 240_000);
+
+  afterAll(async () => {
+    await h?.stop();
+  });
+
+  it("opens the demo site already evaluated, offline, with no errors", async () => {
+    await page.goto(h.baseUrl);
+    await waitComputed(page);
+    await expect.poll(() => text(page, "site-name")).toMatch(/Ridge waterworks/);
+    expect(await page.getByTestId("first-run-hint").isVisible()).toBe(true);
+    await page.getByTestId("hint-dismiss").click();
+    await page.waitForTimeout(800);
+    const shot = await shoot(page, "demo-open");
+    const g = await compareGolden(page, "demo-open", shot);
+    expect(g.differingFraction).toBeLessThan(GOLDEN_TOLERANCE);
+    const foreign = h.requests.filter(
+      (u) => !u.startsWith(h.baseUrl) && !u.startsWith("data:") && !u.startsWith("blob:"),
+    );
+    expect(foreign).toEqual([]);
+    expect(h.errors).toEqual([]);
+    const csp = await page
+      .locator('meta[http-equiv="Content-Security-Policy"]')
+      .first()
+      .getAttribute("content");
+    expect(csp).toMatch(/script-src 'self'/);
+    expect(csp).not.toMatch(/unsafe-eval/);
+  });
+
+  it("shows the same summary figures as the engine run in Node on the same plan", async () => {
+    const json = JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8"));
+    const parsed = parsePlan(json);
+    if (!parsed.ok) throw new Error("demo plan does not parse");
+    const bytes = readFileSync(join(DEMO, "terrain.tif"));
+    const prepared = await preparePlan(parsed.plan, {
+      fileName: "terrain.tif",
+      data: bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength),
+    });
+    const result = await evaluateSite(prepared.site);
+    const first = result.targets[0];
+    for (const hr of first.heights) {
+      const m = hr.metrics;
+      const pct = (f: number) => (Number.isFinite(f) ? `${(f * 100).toFixed(1)} %` : "—");
+      expect(await text(page, `covered-protected-${hr.heightAglM}`)).toBe(
+        pct(m.protectedArea.coveredFraction),
+      );
+      expect(await text(page, `covered-ring-${hr.heightAglM}`)).toBe(pct(m.approachRing.coveredFraction));
+      expect(await text(page, `gap-count-${hr.heightAglM}`)).toBe(String(m.gaps.count));
+    }
+  });
+
+  it("switches target heights at once", async () => {
+    const before = await shoot(page, "height-10");
+    const t0 = Date.now();
+    await page.getByTestId("height-60").click();
+    await expect.poll(() => page.getByTestId("height-60").getAttribute("aria-checked")).toBe("true");
+    const switchMs = Date.now() - t0;
+    const after = await shoot(page, "height-60");
+    expect(readFileSync(before).equals(readFileSync(after))).toBe(false);
+    console.log(`height switch shown in ${switchMs} ms (no recomputation)`);
+    await page.getByTestId("height-10").click();
+  });
+
+  it("inspects a point and reads its link budget and terrain profile", async () => {
+    await openTab(page, "inspect");
+    await page.getByTestId("tool-inspect").click();
+    const b = await mapBox(page);
+    await page.mouse.click(b.x + b.width * 0.55, b.y + b.height * 0.5);
+    await page.getByTestId("link-budget").first().waitFor({ timeout: 60_000 });
+    const budget = (await page.getByTestId("link-budget").first().textContent()) ?? "";
+    expect(budget).toMatch(/dBW/);
+    expect(budget).toMatch(/dBi/);
+    expect(budget).toMatch(/SNR/i);
+    expect(await text(page, "point-combined-pd")).toMatch(/^\d\.\d{3}$/);
+    await page.getByTestId("profile-chart").locator("svg").first().waitFor({ timeout: 30_000 });
+    await shoot(page, "inspect");
+    await page.keyboard.press("Escape");
+    await openTab(page, "results");
+  });
+
+  it("adds a post, moves it, and the coverage follows", async () => {
+    await openTab(page, "posts");
+    const postsBefore = await page.getByTestId("post-list").locator("li").count();
+    const summary0 = await summaryFigures(page);
+    const status0 = await text(page, "run-status");
+    await page.getByTestId("tool-post").click();
+    const b = await mapBox(page);
+    await page.mouse.click(b.x + b.width * 0.3, b.y + b.height * 0.75);
+    await expect.poll(() => page.getByTestId("post-list").locator("li").count()).toBe(postsBefore + 1);
+    await waitNewRun(page, status0);
+    const summary1 = await summaryFigures(page);
+    expect(summary1).not.toBe(summary0);
+    const marker = page.locator(".post-mark", { hasText: `Post ${postsBefore + 1}` });
+    const mb = await marker.boundingBox();
+    if (!mb) throw new Error("new post not on the map");
+    const status1 = await text(page, "run-status");
+    await page.mouse.move(mb.x + mb.width / 2, mb.y + mb.height / 2);
+    await page.mouse.down();
+    for (let k = 1; k <= 10; k++)
+      await page.mouse.move(mb.x + mb.width / 2 + k * 12, mb.y + mb.height / 2 - k * 10);
+    await page.mouse.up();
+    await waitNewRun(page, status1);
+    expect(await summaryFigures(page)).not.toBe(summary1);
+    await shoot(page, "post-moved");
+  });
+
+  it("draws a protected area with live measurements, and undoes and redoes it", async () => {
+    await openTab(page, "site");
+    const areas0 = await page.getByTestId("area-list").locator("li").count();
+    await page.getByTestId("tool-area").click();
+    const b = await mapBox(page);
+    const pts = [
+      [0.2, 0.2],
+      [0.32, 0.2],
+      [0.32, 0.32],
+      [0.2, 0.32],
+    ];
+    for (const [fx, fy] of pts) {
+      await page.mouse.click(b.x + b.width * fx, b.y + b.height * fy);
+      await page.waitForTimeout(150);
+    }
+    await page.mouse.move(b.x + b.width * 0.25, b.y + b.height * 0.3);
+    await expect.poll(() => text(page, "live-measure")).toMatch(/area .*(m²|ha)/);
+    await shoot(page, "drawing");
+    await page.mouse.click(b.x + b.width * pts[0][0], b.y + b.height * pts[0][1]);
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0 + 1);
+    await page.keyboard.press("Escape");
+    await page.getByTestId("undo").click();
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0);
+    await page.getByTestId("redo").click();
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0 + 1);
+    // Keyboard shortcuts too.
+    await page
+      .locator("body")
+      .click({ position: { x: 5, y: 5 } })
+      .catch(() => undefined);
+    await page.keyboard.press("Control+z");
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0);
+    await page.keyboard.press("Control+Shift+z");
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0 + 1);
+  });
+
+  it("imports a DEM and a buildings file", async () => {
+    await openTab(page, "site");
+    const dem = join(work, "ridge-copy.tif");
+    copyFileSync(join(DEMO, "terrain.tif"), dem);
+    const status0 = await text(page, "run-status");
+    await page.getByTestId("import-input").setInputFiles(dem);
+    await expect
+      .poll(() => text(page, "terrain-summary"), { timeout: 30_000 })
+      .toMatch(/DEM ridge-copy\.tif/);
+    await waitNewRun(page, status0);
+    const plan = JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8"));
+    const ring = plan.protectedAreas[0].geometry.coordinates[0] as number[][];
+    const [lon, lat] = ring[0];
+    const d = 0.0002;
+    const fc = {
+      type: "FeatureCollection",
+      features: [
+        {
+          type: "Feature",
+          properties: { "building:levels": 4, name: "<b>Annex</b>" },
+          geometry: {
+            type: "Polygon",
+            coordinates: [
+              [
+                [lon, lat],
+                [lon + d, lat],
+                [lon + d, lat + d],
+                [lon, lat + d],
+                [lon, lat],
+              ],
+            ],
+          },
+        },
+      ],
+    };
+    const before = (await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1];
+    const file = join(work, "annex.geojson");
+    writeFileSync(file, JSON.stringify(fc));
+    await page.getByTestId("import-input").setInputFiles(file);
+    await expect
+      .poll(async () => (await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1])
+      .toBe(String(Number(before) + 1));
+    // User text is shown as text: no <b> element was made from the attribute.
+    expect(await page.locator(".leaflet-container b").count()).toBe(0);
+  });
+
+  it("refuses a bad file with a message and keeps the plan", async () => {
+    const summary = await text(page, "terrain-summary");
+    const bad = join(work, "broken.tif");
+    writeFileSync(bad, Buffer.from("this is not a tiff at all"));
+    await page.getByTestId("import-input").setInputFiles(bad);
+    await page.getByTestId("message-error").last().waitFor({ timeout: 30_000 });
+    expect(await page.getByTestId("message-error").last().textContent()).toMatch(/broken\.tif/);
+    expect(await text(page, "terrain-summary")).toBe(summary);
+    const future = join(work, "future.json");
+    const plan = JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8"));
+    writeFileSync(future, JSON.stringify({ ...plan, version: 99, site: { name: "Should not load" } }));
+    await page.getByTestId("import-input").setInputFiles(future);
+    await expect
+      .poll(async () => (await page.getByTestId("message-error").last().textContent()) ?? "")
+      .toMatch(/newer Picket/);
+    expect(await text(page, "site-name")).toMatch(/Ridge waterworks/);
+    await shoot(page, "bad-file");
+  });
+
+  it("finds the plan intact after a reload", async () => {
+    await openTab(page, "site");
+    const areas = await page.getByTestId("area-list").locator("li").count();
+    const terrain = await text(page, "terrain-summary");
+    await openTab(page, "posts");
+    const posts = await page.getByTestId("post-list").locator("li").count();
+    await page.waitForTimeout(500);
+    await page.reload();
+    await waitComputed(page);
+    await openTab(page, "posts");
+    expect(await page.getByTestId("post-list").locator("li").count()).toBe(posts);
+    await openTab(page, "site");
+    expect(await page.getByTestId("area-list").locator("li").count()).toBe(areas);
+    expect(await text(page, "terrain-summary")).toBe(terrain);
+  });
+
+  it("exports the plan file and opens it again", async () => {
+    await openTab(page, "posts");
+    const posts = await page.getByTestId("post-list").locator("li").count();
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByTestId("save-plan").click(),
+    ]);
+    const saved = join(work, "saved-plan.json");
+    await download.saveAs(saved);
+    const doc = JSON.parse(readFileSync(saved, "utf8"));
+    expect(doc.version).toBe(1);
+    expect(doc.posts).toHaveLength(posts);
+    // Change the plan, then open the saved file: it comes back as saved.
+    await page.getByTestId("post-list").locator("li input[type=checkbox]").first().uncheck();
+    const [chooser] = await Promise.all([
+      page.waitForEvent("filechooser"),
+      page.getByTestId("open-plan").click(),
+    ]);
+    await chooser.setFiles(saved);
+    await expect
+      .poll(async () => (await page.getByTestId("message-info").last().textContent()) ?? "")
+      .toMatch(/Opened saved-plan\.json/);
+    expect(await page.getByTestId("post-list").locator("li input[type=checkbox]").first().isChecked()).toBe(
+      doc.posts[0].enabled,
+    );
+    await waitComputed(page);
+    const shot = await shoot(page, "reopened");
+    expect(shot).toMatch(/reopened\.png$/);
+  });
+});
