@@ -2,7 +2,7 @@
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { pdExact, requiredSnrDb, type SwerlingCase, thresholdFromPfa } from "../../src/coverage/detection.ts";
-import { gammaMixtureSf } from "../../src/coverage/marcumQ.ts";
+import { gammaMixtureSf, marcumQ } from "../../src/coverage/marcumQ.ts";
 import { dbToLinear } from "../../src/coverage/units.ts";
 
 const swerlingArb = fc.constantFrom<SwerlingCase>(0, 1, 2, 3, 4);
@@ -152,5 +152,11 @@ describe("detection properties", () => {
     expect(requiredSnrDb({ pd: 1, pfa: 1e-6, looks: 1, swerling: 0 })).toBeNaN();
     expect(requiredSnrDb({ pd: Number.NaN, pfa: 1e-6, looks: 1, swerling: 0 })).toBeNaN();
     expect(requiredSnrDb({ pd: 1e-7, pfa: 1e-6, looks: 1, swerling: 0 })).toBe(Number.NEGATIVE_INFINITY);
+    expect(marcumQ(1, -1, 2)).toBeNaN();
+    expect(marcumQ(1.5, 1, 2)).toBeNaN();
+    expect(marcumQ(3, 2, 0)).toBe(1);
+    expect(marcumQ(3, 2, Number.POSITIVE_INFINITY)).toBe(0);
+    expect(gammaMixtureSf({ order: 2, x: 5, mean: 1, shape: 0.5 })).toBeNaN();
+    expect(gammaMixtureSf({ order: 2, x: 5, mean: Number.NaN, shape: 2 })).toBeNaN();
   });
 });
