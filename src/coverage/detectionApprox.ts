@@ -4,16 +4,22 @@
  * 0–4). Each states its published validity range; their agreement with the exact Pd is tested
  * (rules PD9, PD10 in docs/model-spec.md).
  */
-import type { SwerlingCase } from "./detection.ts";
+import { fluctuationShape, type SwerlingCase } from "./detection.ts";
 import { linearToDb } from "./units.ts";
 
 /** A range of validity of an approximation: Pd, Pfa and look count (inclusive). */
 export interface ApproxValidity {
+  /** Lowest Pd. */
   pdMin: number;
+  /** Highest Pd. */
   pdMax: number;
+  /** Lowest Pfa. */
   pfaMin: number;
+  /** Highest Pfa. */
   pfaMax: number;
+  /** Fewest looks. */
   looksMin: number;
+  /** Most looks. */
   looksMax: number;
   /** Accuracy stated by the author inside the range, dB (measured agreement: docs/model-spec.md PD9, PD10). */
   accuracyDb: number;
@@ -155,24 +161,6 @@ const SHN_C2_PFA_REF = 1e-5;
 const SHN_C2_LOOKS_OFFSET = 20;
 const SHN_C2_LOOKS_SCALE = 80;
 
-/** Shnidman's K: degrees of freedom / 2 of the target model (∞ steady). */
-function shnidmanK(swerling: SwerlingCase, looks: number): number {
-  switch (swerling) {
-    case 0:
-      return Number.POSITIVE_INFINITY;
-    case 1:
-      return 1;
-    case 2:
-      return looks;
-    case 3:
-      return 2;
-    case 4:
-      return 2 * looks;
-    default:
-      return Number.NaN;
-  }
-}
-
 /**
  * Shnidman's equation: required per-look SNR for N square-law looks, Swerling 0–4, from Pd and Pfa.
  * η = √(−0.8 ln(4Pfa(1−Pfa))) + sgn(Pd − ½)·√(−0.8 ln(4Pd(1−Pd))), X∞ = η(η + 2√(N/2 + α − ¼)),
@@ -188,7 +176,8 @@ function shnidmanK(swerling: SwerlingCase, looks: number): number {
 export function shnidmanSnrDb(p: ShnidmanParams): number {
   const { pd, pfa, looks, swerling } = p;
   if (!(pd > 0 && pd < 1) || !(pfa > 0 && pfa < 1) || !(looks >= 1)) return Number.NaN;
-  const k = shnidmanK(swerling, looks);
+  // Shnidman's K is the shape of the chi-square RCS law: ∞, 1, N, 2, 2N for cases 0–4.
+  const k = fluctuationShape(swerling, looks);
   if (Number.isNaN(k)) return Number.NaN;
   const alpha = looks < SHN_LOOKS_ALPHA_SWITCH ? 0 : SHN_ALPHA_HIGH;
   const eta =

@@ -18,6 +18,12 @@ import gammainc from "@stdlib/math-base-special-gammainc";
 const LINEAR_FLOOR = 1e-250;
 /** Relative size of the neglected remainder of a series. */
 const SERIES_EPS = 1e-17;
+/**
+ * First guess of the last order a = N + K worth summing: x + 10·√x + 20 lies beyond the upper 1e-17
+ * tail of a Poisson(x) count (Chernoff bound), so P(a, x) < 1e-17 there; it is checked and doubled if not.
+ */
+const ORDER_SPAN_SIGMAS = 10;
+const ORDER_SPAN_OFFSET = 20;
 /** Safety cap on the number of terms of the weight tail (never reached for finite inputs in range). */
 const MAX_TAIL_TERMS = 50_000_000;
 
@@ -68,8 +74,8 @@ export function gammaMixtureSf(p: GammaMixtureParams): number {
   if (mean === 0) return q0;
 
   // Last index K: beyond it P(N+k, x) < SERIES_EPS, so Q(N+k, x) = 1 to double precision.
-  let aMax = Math.ceil(x + 10 * Math.sqrt(x) + 20);
-  while (gammainc(x, aMax, true, false) > SERIES_EPS) aMax = 2 * aMax + 10;
+  let aMax = Math.ceil(x + ORDER_SPAN_SIGMAS * Math.sqrt(x) + ORDER_SPAN_OFFSET);
+  while (gammainc(x, aMax, true, false) > SERIES_EPS) aMax = 2 * aMax + ORDER_SPAN_OFFSET;
   const kMax = Math.max(0, aMax - order);
 
   const poisson = shape === Number.POSITIVE_INFINITY;

@@ -11,6 +11,7 @@ import {
   ALBERSHEIM_VALIDITY,
   albersheimPd,
   albersheimSnrDb,
+  isInValidity,
   SHNIDMAN_VALIDITY,
   shnidmanSnrDb,
 } from "../../src/coverage/detectionApprox.ts";
@@ -220,6 +221,14 @@ describe("closed-form approximations against the exact functions", () => {
     console.info(`[PD9] Albersheim over its stated range: worst ${worstDb.toFixed(2)} dB at ${at}`);
     expect(worstDb).toBeLessThan(4.1);
     expect(worstDb).toBeGreaterThan(4.0);
+  });
+
+  it("[PD9] [PD10] the stated ranges are as published (inclusive)", () => {
+    expect(isInValidity(ALBERSHEIM_VALIDITY, 0.1, 1e-7, 8096)).toBe(true);
+    expect(isInValidity(ALBERSHEIM_VALIDITY, 0.95, 1e-6, 1)).toBe(false);
+    expect(isInValidity(ALBERSHEIM_VALIDITY, 0.5, 1e-9, 1)).toBe(false);
+    expect(isInValidity(SHNIDMAN_VALIDITY, 0.99, 1e-9, 100)).toBe(true);
+    expect(isInValidity(SHNIDMAN_VALIDITY, 0.5, 1e-6, 101)).toBe(false);
   });
 
   it("[PD9] Albersheim's Pd form inverts its SNR form", () => {
