@@ -1,0 +1,112 @@
+/** Small synthetic sites shared by the coverage tests (flat ground, walls, a rough surface). */
+import { readFileSync } from "node:fs";
+import type { PlacedRadar, TargetSpec } from "../../src/coverage/coverage.ts";
+import type { PreparedSite } from "../../src/coverage/evaluate.ts";
+import type { GridFrame } from "../../src/coverage/grid.ts";
+import type { RadarModel } from "../../src/coverage/radarModel.ts";
+
+export function demoRadar(id: "kalvori-x9" | "mossbee-58" | "zorvane-s24"): RadarModel {
+  const file = {
+    "kalvori-x9": "kalvori-x9-rotating-pulsed.json",
+    "mossbee-58": "mossbee-58-patch-fmcw.json",
+    "zorvane-s24": "zorvane-s24-staring-fmcw.json",
+  }[id];
+  return JSON.parse(readFileSync(new URL(`../../demo-sites/radars/${file}`, import.meta.url), "utf8"));
+}
+
+export const UTM33 = "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs";
+
+export function frameOf(width: number, height: number, cellSizeM: number): GridFrame {
+  return { width, height, originX: 500_000, originY: 4_500_000, cellSizeM, crs: UTM33 };
+}
+
+/** Centre of cell (col, row) in the frame, m. */
+export function cellXY(f: GridFrame, col: number, row: number): [number, number] {
+  return [f.originX + (col + 0.5) * f.cellSizeM, f.originY - (row + 0.5) * f.cellSizeM];
+}
+
+/** Deterministic rough ground: sums of sines, tens of metres of relief. */
+export function roughGround(f: GridFrame): Float32Array {
+  const g = new Float32Array(f.width * f.height);
+  for (let r = 0; r < f.height; r++)
+    for (let c = 0; c < f.width; c++) {
+      const x = c * f.cellSizeM;
+      const y = r * f.cellSizeM;
+      g[r * f.width + c] =
+        100 +
+        25 * Math.sin(x / 310 + 0.3) * Math.cos(y / 270) +
+        8 * Math.sin(x / 53 + y / 71) +
+        3 * Math.cos(x / 17 - y / 23);
+    }
+  return g;
+}
+
+export function placed(
+  model: RadarModel,
+  at: [number, number],
+  antennaHeightAslM: number,
+  extra: Partial<PlacedRadar> = {},
+): PlacedRadar {
+  return {
+    id: extra.id ?? model.id,
+    name: extra.name ?? model.name,
+    model,
+    scan: extra.scan ?? model.scan,
+    x: at[0],
+    y: at[1],
+    antennaHeightAslM,
+    boresightAzDeg: extra.boresightAzDeg ?? 0,
+    tiltDeg: extra.tiltDeg ?? 0,
+    ownFootprintRadiusM: extra.ownFootprintRadiusM ?? 0,
+  };
+}
+
+export const quad: TargetSpec & { name: string } = {
+  id: "quad",
+  name: "quad",
+  rcsDbsm: -20,
+  swerling: 1,
+  heightsAglM: [10, 30, 60],
+};
+export const fixedWing: TargetSpec & { name: string } = {
+  id: "fw",
+  name: "fixed wing",
+  rcsDbsm: -10,
+  swerling: 1,
+  heightsAglM: [30, 60],
+};
+
+/** A site on the given ground with obstruction tops (default none) and the whole grid protected. */
+export function siteOf(
+  f: GridFrame,
+  ground: Float32Array,
+  radars: PlacedRadar[],
+  opts: {
+    top?: Float32Array;
+    k?: number;
+    heights?: number[];
+    targets?: (TargetSpec & { name: string })[];
+  } = {},
+): PreparedSite {
+  const n = f.width * f.height;
+  const top = opts.top ?? new Float32Array(n);
+  const surface = new Float32Array(n);
+  for (let i = 0; i < n; i++) surface[i] = ground[i] + top[i];
+  const targets = opts.targets ?? [quad];
+  return {
+    name: "test",
+    frame: f,
+    ground,
+    surface,
+    obstructionTopAglM: top,
+    regions: { protectedArea: new Uint8Array(n).fill(1), approachRing: new Uint8Array(n) },
+    radars,
+    targets,
+    requirement: { requiredPd: 0.8, pfa: 1e-6, looks: 1, targetIds: targets.map((t) => t.id) },
+    heightsAglM: opts.heights ?? [10, 30, 60],
+    effectiveEarthFactor: opts.k ?? 4 / 3,
+    maskMode: "accurate",
+    groundSource: "flat",
+    warnings: [],
+  };
+}

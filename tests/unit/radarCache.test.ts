@@ -1,0 +1,96 @@
+import { describe, expect, it } from "vitest";
+import type { RadarCoverage } from "../../src/coverage/coverage.ts";
+import { evaluateSite, radarKey } from "../../src/coverage/evaluate.ts";
+import { hashRaster, hashValue, RadarResultCache, stableStringify } from "../../src/coverage/radarCache.ts";
+import { cellXY, demoRadar, frameOf, placed, roughGround, siteOf } from "./coverageFixtures.ts";
+
+function threeRadarSite() {
+  const f = frameOf(160, 160, 5);
+  const ground = roughGround(f);
+  const m = demoRadar("mossbee-58");
+  const radars = [
+    placed(m, cellXY(f, 40, 40), 140, { id: "a", boresightAzDeg: 135 }),
+    placed(m, cellXY(f, 120, 40), 140, { id: "b", boresightAzDeg: 225 }),
+    placed(demoRadar("zorvane-s24"), cellXY(f, 80, 120), 140, { id: "c", boresightAzDeg: 0 }),
+  ];
+  return siteOf(f, ground, radars);
+}
+
+describe("per-radar cache", () => {
+  it("[RC1] changing one radar's tilt recomputes that radar only; the others come from the cache unchanged", async () => {
+    const cache = new RadarResultCache<RadarCoverage>();
+    const site = threeRadarSite();
+    const first = await evaluateSite(site, { cache });
+    expect(first.computedRadarIds.sort()).toEqual(["a", "b", "c"]);
+    expect(cache.computed).toBe(3);
+
+    const again = await evaluateSite(site, { cache });
+    expect(again.computedRadarIds).toEqual([]);
+    expect(again.cachedRadarIds.sort()).toEqual(["a", "b", "c"]);
+
+    const moved = { ...site, radars: site.radars.map((r) => (r.id === "b" ? { ...r, tiltDeg: 5 } : r)) };
+    const third = await evaluateSite(moved, { cache });
+    expect(third.computedRadarIds).toEqual(["b"]);
+    expect(cache.computed).toBe(4);
+    // The unchanged radars are the very same results; the changed one differs.
+    expect(third.radars[0]).toBe(first.radars[0]);
+    expect(third.radars[2]).toBe(first.radars[2]);
+    expect(third.radars[1]).not.toBe(first.radars[1]);
+    // A full recomputation without the cache gives the same fused Pd.
+    const fresh = await evaluateSite(moved);
+    expect(Array.from(fresh.targets[0].heights[1].combinedPd)).toEqual(
+      Array.from(third.targets[0].heights[1].combinedPd),
+    );
+  });
+
+  it("[RC2] the key depends on everything the radar's result depends on", () => {
+    const site = threeRadarSite();
+    const base = radarKey(site, 0, "accurate");
+    expect(radarKey(site, 0, "accurate")).toBe(base);
+    expect(radarKey(site, 0, "fast")).not.toBe(base);
+    const variants = [
+      { ...site, heightsAglM: [10, 30] },
+      { ...site, effectiveEarthFactor: 1 },
+      { ...site, requirement: { ...site.requirement, pfa: 1e-5 } },
+      { ...site, targets: [{ ...site.targets[0], rcsDbsm: -19 }] },
+      { ...site, radars: [{ ...site.radars[0], x: site.radars[0].x + 1 }, ...site.radars.slice(1)] },
+      {
+        ...site,
+        radars: [
+          { ...site.radars[0], model: { ...site.radars[0].model, transmitter: { peakPowerW: 0.1 } } },
+          ...site.radars.slice(1),
+        ],
+      },
+    ];
+    for (const v of variants) expect(radarKey(v, 0, "accurate")).not.toBe(base);
+    // Another radar's change does not touch radar 0's key.
+    const other = { ...site, radars: [site.radars[0], { ...site.radars[1], tiltDeg: 9 }, site.radars[2]] };
+    expect(radarKey(other, 0, "accurate")).toBe(base);
+    // One changed surface cell changes the terrain identity.
+    const surface = site.surface.slice();
+    surface[1234] += 0.5;
+    expect(radarKey({ ...site, surface }, 0, "accurate")).not.toBe(base);
+  });
+
+  it("[RC3] stable text form: key order does not matter, NaN and Infinity stay distinct; raster hash sees one value", () => {
+    expect(stableStringify({ b: 1, a: [1, 2] })).toBe(stableStringify({ a: [1, 2], b: 1 }));
+    expect(hashValue({ x: Number.NaN })).not.toBe(hashValue({ x: null }));
+    expect(hashValue({ x: Number.POSITIVE_INFINITY })).not.toBe(hashValue({ x: Number.NEGATIVE_INFINITY }));
+    const a = new Float32Array(1000).fill(3);
+    const b = a.slice();
+    b[999] = 3.0001;
+    expect(hashRaster(a)).not.toBe(hashRaster(b));
+    expect(hashRaster(a)).toBe(hashRaster(a.slice()));
+  });
+
+  it("[RC4] the cache is bounded: the least recently used entry leaves first", () => {
+    const c = new RadarResultCache<number>(2);
+    c.set("a", 1);
+    c.set("b", 2);
+    expect(c.get("a")).toBe(1);
+    c.set("c", 3);
+    expect(c.has("b")).toBe(false);
+    expect(c.has("a")).toBe(true);
+    expect(c.size).toBe(2);
+  });
+});
