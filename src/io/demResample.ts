@@ -1,8 +1,9 @@
 /**
  * Resampling of a source elevation raster (any CRS proj4 handles) onto the site grid.
  *
- * For each target cell centre: transform (x, y) of the site frame to the source CRS with proj4,
- * then sample the source bilinearly at that point (pixel centres as nodes). A target centre that
+ * For each target cell centre: transform (x, y) of the site frame to the source CRS with proj4
+ * (exactly, or by linear interpolation along the row where an exact transform at each segment's
+ * middle agrees within 0.0001 source pixel), then sample the source bilinearly at that point (pixel centres as nodes). A target centre that
  * falls outside the source's pixel-centre lattice but still within its outer half-pixel rim takes
  * the value at the nearest lattice edge, as a raster covers its full pixel extent. NaN where the
  * point lies outside the source or any of the four neighbouring samples is nodata.
@@ -59,6 +60,60 @@ export function frameToSourceTransform(
 }
 
 /**
+ * Source lattice position (fractional column, row; pixel centres at integers) of every cell centre
+ * of one frame row. Exact proj4 transforms at every APPROX_STEP_CELLS-th cell and at the row's end;
+ * in between, linear interpolation, accepted only where an exact transform at the segment's middle
+ * agrees within APPROX_MAX_ERROR_PX (else every cell of the segment is transformed exactly). GDAL's
+ * warper interpolates the same way with a default tolerance of 0.125 pixel; this one is far stricter.
+ */
+function sourcePositionsOfRow(
+  frame: GridFrame,
+  source: SourceRaster,
+  row: number,
+  toSource: (x: number, y: number) => [number, number],
+  geographic: boolean,
+  cols: Float64Array,
+  rows: Float64Array,
+): void {
+  const y = frame.originY - (row + 0.5) * frame.cellSizeM;
+  const exact = (col: number) => {
+    const p = toSource(frame.originX + (col + 0.5) * frame.cellSizeM, y);
+    const sx = geographic ? wrapLongitude(p[0], source.originX) : p[0];
+    cols[col] = (sx - source.originX) / source.pixelSizeX - 0.5;
+    rows[col] = (source.originY - p[1]) / source.pixelSizeY - 0.5;
+  };
+  const last = frame.width - 1;
+  exact(0);
+  for (let a = 0; a < last; ) {
+    const b = Math.min(a + APPROX_STEP_CELLS, last);
+    exact(b);
+    if (b - a >= 2) {
+      const m = (a + b) >> 1;
+      exact(m);
+      const t = (m - a) / (b - a);
+      const errC = Math.abs(cols[a] + (cols[b] - cols[a]) * t - cols[m]);
+      const errR = Math.abs(rows[a] + (rows[b] - rows[a]) * t - rows[m]);
+      if (errC <= APPROX_MAX_ERROR_PX && errR <= APPROX_MAX_ERROR_PX) {
+        for (let j = a + 1; j < b; j++) {
+          if (j === m) continue;
+          const u = (j - a) / (b - a);
+          cols[j] = cols[a] + (cols[b] - cols[a]) * u;
+          rows[j] = rows[a] + (rows[b] - rows[a]) * u;
+        }
+      } else {
+        for (let j = a + 1; j < b; j++) if (j !== m) exact(j);
+      }
+    }
+    a = b;
+  }
+}
+
+/** Interpolation step along a row between exact transforms, cells (see sourcePositionsOfRow). */
+const APPROX_STEP_CELLS = 16;
+/** Largest accepted interpolation error of a source position, source pixels. */
+const APPROX_MAX_ERROR_PX = 1e-4;
+
+/**
  * Resample `source` onto `frame` bilinearly (see the file comment).
  * Output: a new Grid of the frame, m; NaN outside the source and next to nodata.
  * The fraction of target cells that received a value is returned beside it.
@@ -83,15 +138,14 @@ export function resampleToFrame(
   const colMax = source.width - 1;
   const rowMax = source.height - 1;
   const out = grid.data;
+  const cols = new Float64Array(frame.width);
+  const rows = new Float64Array(frame.width);
   let covered = 0;
   for (let row = 0; row < frame.height; row++) {
-    const y = frame.originY - (row + 0.5) * frame.cellSizeM;
+    sourcePositionsOfRow(frame, source, row, toSource, geographic, cols, rows);
     for (let col = 0; col < frame.width; col++) {
-      const x = frame.originX + (col + 0.5) * frame.cellSizeM;
-      let [sx, sy] = toSource(x, y);
-      if (geographic) sx = wrapLongitude(sx, source.originX);
-      const c0 = (sx - source.originX) / source.pixelSizeX - 0.5;
-      const r0 = (source.originY - sy) / source.pixelSizeY - 0.5;
+      const c0 = cols[col];
+      const r0 = rows[col];
       // Inside the raster's full extent (pixel edges) but beyond the centre lattice: clamp to the edge.
       if (!(c0 >= -0.5 && c0 <= colMax + 0.5 && r0 >= -0.5 && r0 <= rowMax + 0.5)) continue;
       const v = sampleBilinear(lattice, Math.min(colMax, Math.max(0, c0)), Math.min(rowMax, Math.max(0, r0)));

@@ -6,6 +6,7 @@
 import { readFileSync } from "node:fs";
 import { fileURLToPath } from "node:url";
 import { writeArrayBuffer } from "geotiff";
+import proj4 from "proj4";
 import { describe, expect, it } from "vitest";
 import { FOOT_M, MAX_DEM_HEADER_SIDE_CELLS, MAX_DEM_WINDOW_CELLS } from "../../src/coverage/constants.ts";
 import type { GridFrame } from "../../src/coverage/grid.ts";
@@ -434,5 +435,49 @@ describe("resampling edges", () => {
     const { grid, coveredFraction } = resampleToFrame(src, frame);
     expect(coveredFraction).toBe(1);
     expect(grid.data[0]).toBe(7);
+  });
+});
+
+describe("row interpolation of the transform", () => {
+  it("[DM1] interpolated source positions stay within 0.0001 pixel of exact proj4 transforms per cell", () => {
+    // Source values = column + row of the lattice, so a value error is a position error in pixels.
+    const n = 400;
+    const data = new Float32Array(n * n);
+    for (let r = 0; r < n; r++) for (let c = 0; c < n; c++) data[r * n + c] = c + r;
+    const source = {
+      data,
+      width: n,
+      height: n,
+      originX: 14.9,
+      originY: 47.0,
+      pixelSizeX: 0.0005,
+      pixelSizeY: 0.0005,
+      crs: "+proj=longlat +datum=WGS84 +no_defs",
+    };
+    // 37 columns: not a multiple of the interpolation step, so the last segment is short.
+    const site: GridFrame = {
+      width: 37,
+      height: 40,
+      originX: 495_000,
+      originY: 5_205_000,
+      cellSizeM: 97,
+      crs: UTM33,
+    };
+    const { grid } = resampleToFrame(source, site);
+    const toLonLat = proj4(UTM33, "EPSG:4326");
+    let worst = 0;
+    for (let row = 0; row < site.height; row++) {
+      for (let col = 0; col < site.width; col++) {
+        const [lon, lat] = toLonLat.forward([
+          site.originX + (col + 0.5) * 97,
+          site.originY - (row + 0.5) * 97,
+        ]);
+        const c = (lon - source.originX) / source.pixelSizeX - 0.5;
+        const r = (source.originY - lat) / source.pixelSizeY - 0.5;
+        worst = Math.max(worst, Math.abs(grid.data[row * site.width + col] - (c + r)));
+      }
+    }
+    // 0.0001 px on each axis, plus Float32 rounding of values below 800 (< 1e-4).
+    expect(worst).toBeLessThan(2e-4 + 1e-4);
   });
 });
