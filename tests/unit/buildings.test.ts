@@ -335,6 +335,35 @@ ${wood
     expect(treeStands.map((t) => t.id)).toEqual(["way/101"]);
   });
 
+  it("[BL14] OSM XML: a multipolygon relation (outer and inner ways) keeps its courtyard", () => {
+    const outer = square(0, -250, 100);
+    const inner = square(0, -250, 40);
+    const xml = `<osm version="0.6">
+${outer
+  .slice(0, 4)
+  .map((p, i) => nodeXml(i + 21, p))
+  .join("\n")}
+${inner
+  .slice(0, 4)
+  .map((p, i) => nodeXml(i + 31, p))
+  .join("\n")}
+<way id="200"><nd ref="21"/><nd ref="22"/><nd ref="23"/><nd ref="24"/><nd ref="21"/></way>
+<way id="201"><nd ref="31"/><nd ref="32"/><nd ref="33"/><nd ref="34"/><nd ref="31"/></way>
+<relation id="300"><member type="way" ref="200" role="outer"/><member type="way" ref="201" role="inner"/>
+<tag k="type" v="multipolygon"/><tag k="building" v="yes"/><tag k="building:levels" v="5"/></relation>
+</osm>`;
+    const { buildings } = parseBuildings(xml, "courtyard.osm", toGrid, { frame });
+    expect(buildings.map((b) => [b.id, b.heightM, b.rings.length])).toEqual([["relation/300", 15, 2]]);
+    const { obstructionTopAglM } = burnObstructions(flatGround(frame, 0), buildings, []);
+    const at = (dx: number, dy: number) =>
+      obstructionTopAglM[
+        Math.floor((frame.originY - (cy + dy)) / frame.cellSizeM) * frame.width +
+          Math.floor((cx + dx - frame.originX) / frame.cellSizeM)
+      ];
+    expect(at(0, -250)).toBe(0);
+    expect(at(35, -250)).toBe(15);
+  });
+
   it("[BL15] Overpass JSON reads the same as OSM XML", () => {
     const elements = [
       ...ring.slice(0, 4).map((p, i) => ({ type: "node", id: i + 1, lon: p[0], lat: p[1] })),
