@@ -64,19 +64,23 @@ function buffers(maxRays: number): RayBuffers {
 
 /**
  * Fills horizon slope (m/m) and obstacle distance (m) for every cell within range, accurate mode.
- * `outSlope` and `outObstacleM` arrive filled with NaN; nodata and out-of-range cells stay NaN.
+ * With `outDistanceM` (no range limit) every cell is written, NaN for nodata, and its distance too;
+ * without it the outputs arrive filled with NaN and only cells in range with data are written.
  */
 export function computeHorizonAccurate(
   s: SweepSetup,
   outSlope: Float32Array,
   outObstacleM: Float32Array,
+  outDistanceM: Float32Array | null,
 ): void {
   const w = s.width;
   const h = s.height;
   const oc = s.observerCol;
   const or = s.observerRow;
   const obsIdx = or * w + oc;
-  if (!Number.isNaN(s.z[obsIdx])) outSlope[obsIdx] = Number.NEGATIVE_INFINITY;
+  outSlope[obsIdx] = Number.isNaN(s.z[obsIdx]) ? Number.NaN : Number.NEGATIVE_INFINITY;
+  outObstacleM[obsIdx] = Number.NaN;
+  if (outDistanceM) outDistanceM[obsIdx] = 0;
   const rangeSteps = Math.floor(s.maxRangeM / s.cellSizeM);
   const triangles: Triangle[] = [
     { majorStride: 1, minorStride: w, majorSteps: w - 1 - oc, minorObs: or, minorLen: h, eastWest: true },
@@ -101,7 +105,7 @@ export function computeHorizonAccurate(
     for (let m0 = 1; m0 <= steps; m0 += BAND) {
       const nb = Math.min(BAND, steps - m0 + 1);
       advanceRays(s, t, steps, m0, nb, obsIdx, buf);
-      writeCells(s, t, steps, m0, nb, obsIdx, buf, outSlope, outObstacleM);
+      writeCells(s, t, steps, m0, nb, obsIdx, buf, outSlope, outObstacleM, outDistanceM);
     }
   }
 }
@@ -123,7 +127,6 @@ function advanceRays(
   const exclM = s.ownFootprintRadiusM;
   const { majorStride, minorStride, minorObs } = t;
   const minorLast = t.minorLen - 1;
-  const lastLine = t.majorSteps;
   const span = Math.ceil(steps * RAYS_PER_PERIMETER_CELL);
   const nRays = 2 * span + 1;
   const invSpan = 1 / span;
@@ -135,6 +138,7 @@ function advanceRays(
   const invLine = buf.invLine;
   for (let b = 0; b < nb; b++) invLine[b] = 1 / (m0 + b);
   const mEnd = m0 + nb;
+  const mStop = Math.min(mEnd, steps);
   for (let j = 0; j < nRays; j++) {
     const rayStep = (j - span) * invSpan;
     const lenM = cell * Math.sqrt(1 + rayStep * rayStep);
@@ -143,10 +147,10 @@ function advanceRays(
     let best = hz[j];
     let bestM = od[j];
     const k = j * BAND - m0;
-    for (let m = m0; m < mEnd; m++) {
+    // The triangle's last line is written but never sampled (nothing lies beyond it).
+    for (let m = m0; m < mStop; m++) {
       bh[k + m] = best;
       bo[k + m] = bestM;
-      if (m === steps) break;
       const y = minorObs + rayStep * m;
       if (!(y >= 0 && y <= minorLast)) continue;
       const lineBase = base + m * majorStride;
@@ -163,9 +167,9 @@ function advanceRays(
         best = slope;
         bestM = dist;
       }
-      // Sample where it crosses a minor line before major line m+1.
+      // Sample where it crosses a minor line before major line m+1 (m < steps ≤ majorSteps: it exists).
       const k1 = ((y + rayStep + 1) | 0) - 1;
-      if (k1 !== k0 && m < lastLine) {
+      if (k1 !== k0) {
         const kk = Math.max(k1, k0);
         if (kk >= 0 && kk <= minorLast) {
           const g = (kk - y) * invRayStep;
@@ -180,6 +184,10 @@ function advanceRays(
           }
         }
       }
+    }
+    if (mStop < mEnd) {
+      bh[k + mStop] = best;
+      bo[k + mStop] = bestM;
     }
     hz[j] = best;
     od[j] = bestM;
@@ -197,6 +205,7 @@ function writeCells(
   buf: RayBuffers,
   outSlope: Float32Array,
   outObstacleM: Float32Array,
+  outDistanceM: Float32Array | null,
 ): void {
   const z = s.z;
   const cell = s.cellSizeM;
@@ -226,7 +235,14 @@ function writeCells(
       for (let b = bStart; b < nb; b++) {
         const m = m0 + b;
         const oi = rowBase + m * majorStride;
-        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) continue;
+        if (outDistanceM) outDistanceM[oi] = Math.sqrt(m * m + q * q) * cell;
+        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) {
+          if (outDistanceM) {
+            outSlope[oi] = Number.NaN;
+            outObstacleM[oi] = Number.NaN;
+          }
+          continue;
+        }
         const u = q * rpm[b] + span;
         let j0 = u | 0;
         if (j0 > jMax) j0 = jMax;
@@ -251,7 +267,14 @@ function writeCells(
       const r = rpm[b];
       for (let q = lo; q <= hi; q++) {
         const oi = lineBase + q;
-        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) continue;
+        if (outDistanceM) outDistanceM[oi] = Math.sqrt(m * m + q * q) * cell;
+        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) {
+          if (outDistanceM) {
+            outSlope[oi] = Number.NaN;
+            outObstacleM[oi] = Number.NaN;
+          }
+          continue;
+        }
         const u = q * r + span;
         let j0 = u | 0;
         if (j0 > jMax) j0 = jMax;

@@ -23,9 +23,15 @@ interface RowBuffers {
 
 /**
  * Fills horizon slope (m/m) and obstacle distance (m) for every cell within range, fast mode.
- * `outSlope` and `outObstacleM` arrive filled with NaN; nodata and out-of-range cells stay NaN.
+ * With `outDistanceM` (no range limit) every cell is written, NaN for nodata, and its distance too;
+ * without it the outputs arrive filled with NaN and only cells in range with data are written.
  */
-export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObstacleM: Float32Array): void {
+export function computeHorizonFast(
+  s: SweepSetup,
+  outSlope: Float32Array,
+  outObstacleM: Float32Array,
+  outDistanceM: Float32Array | null,
+): void {
   const w = s.width;
   const bufs: RowBuffers = {
     lastHeight: new Float64Array(w),
@@ -35,18 +41,18 @@ export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObs
   };
   const inv = new Float64Array(Math.max(s.width, s.height) + 1);
   for (let i = 1; i < inv.length; i++) inv[i] = 1 / i;
-  sweepRow(s, bufs, inv, s.observerRow, outSlope, outObstacleM);
+  sweepRow(s, bufs, inv, s.observerRow, outSlope, outObstacleM, outDistanceM);
   const firstHeight = bufs.thisHeight.slice();
   const firstObstacle = bufs.thisObstacle.slice();
   for (let r = s.observerRow - 1; r >= 0; r--) {
     swap(bufs);
-    if (!sweepRow(s, bufs, inv, r, outSlope, outObstacleM)) break;
+    if (!sweepRow(s, bufs, inv, r, outSlope, outObstacleM, outDistanceM)) break;
   }
   bufs.thisHeight.set(firstHeight);
   bufs.thisObstacle.set(firstObstacle);
   for (let r = s.observerRow + 1; r < s.height; r++) {
     swap(bufs);
-    if (!sweepRow(s, bufs, inv, r, outSlope, outObstacleM)) break;
+    if (!sweepRow(s, bufs, inv, r, outSlope, outObstacleM, outDistanceM)) break;
   }
 }
 
@@ -67,6 +73,7 @@ function sweepRow(
   row: number,
   outSlope: Float32Array,
   outObstacleM: Float32Array,
+  outDistanceM: Float32Array | null,
 ): boolean {
   const w = s.width;
   const oc = s.observerCol;
@@ -107,6 +114,11 @@ function sweepRow(
       zp = last[oc] * ady * inv[ady - 1];
       zo = lastOd[oc];
     }
+    if (outDistanceM) {
+      outDistanceM[idx] = dist;
+      outSlope[idx] = Number.NaN;
+      outObstacleM[idx] = Number.NaN;
+    }
     if (ady === 0) {
       // The observer's own cell never obstructs (TM2).
       cur[oc] = NEG;
@@ -126,47 +138,64 @@ function sweepRow(
       }
     }
   }
-  // Right half (dir +1) and left half (dir −1).
+  // Right half (dir +1) and left half (dir −1). The values of the previous column (this row and the row
+  // nearer the observer) ride along in locals rather than being read back from the buffers.
   for (let dir = 1; dir >= -1; dir -= 2) {
-    const end = dir > 0 ? cHi : cLo;
-    for (let c = oc + dir; dir > 0 ? c <= end : c >= end; c += dir) {
-      const adx = dir > 0 ? c - oc : oc - c;
+    const reach = dir > 0 ? cHi - oc : oc - cLo;
+    let prevH = cur[oc];
+    let prevOd = curOd[oc];
+    let lastPrevH = last[oc];
+    let lastPrevOd = lastOd[oc];
+    for (let adx = 1; adx <= reach; adx++) {
+      const c = oc + dir * adx;
       const idx = base + c;
       const zc = z[idx];
+      const lastH = last[c];
+      const lastOdC = lastOd[c];
       const d2 = adx * adx + ady2;
       const rel = zc - antenna - d2 * curvCell2;
       let zp: number;
       let zo: number;
-      if (adx <= 1 && ady <= 1) {
-        zp = NEG;
-        zo = Number.NaN;
-      } else if (ady === 0) {
-        zp = cur[c - dir] * adx * inv[adx - 1];
-        zo = curOd[c - dir];
+      if (adx > ady) {
+        if (ady === 0) {
+          zp = adx === 1 ? NEG : prevH * adx * inv[adx - 1];
+          zo = prevOd;
+        } else if (adx === 1) {
+          zp = NEG; // ring 1: nothing lies between
+          zo = Number.NaN;
+        } else {
+          // Crosses column adx−1 between rows ady−1 (weight ady/adx) and ady.
+          zp = (lastPrevH * ady + prevH * (adx - ady)) * inv[adx - 1];
+          zo = 2 * ady < adx ? prevOd : lastPrevOd;
+        }
       } else if (adx === ady) {
-        zp = last[c - dir] * adx * inv[adx - 1];
-        zo = lastOd[c - dir];
-      } else if (adx > ady) {
-        // Crosses column adx−1 between rows ady−1 (weight ady/adx) and ady.
-        zp = (last[c - dir] * ady + cur[c - dir] * (adx - ady)) * inv[adx - 1];
-        zo = 2 * ady < adx ? curOd[c - dir] : lastOd[c - dir];
+        zp = adx === 1 ? NEG : lastPrevH * adx * inv[adx - 1];
+        zo = lastPrevOd;
       } else {
         // Crosses row ady−1 between columns adx−1 (weight adx/ady) and adx.
-        zp = (last[c - dir] * adx + last[c] * (ady - adx)) * inv[ady - 1];
-        zo = 2 * adx < ady ? lastOd[c] : lastOd[c - dir];
+        zp = (lastPrevH * adx + lastH * (ady - adx)) * inv[ady - 1];
+        zo = 2 * adx < ady ? lastOdC : lastPrevOd;
       }
-      const dCells = Math.sqrt(d2);
+      const dM = Math.sqrt(d2) * cell;
+      if (outDistanceM) outDistanceM[idx] = dM;
       if (!Number.isNaN(zc)) {
-        outSlope[idx] = zp / (dCells * cell);
+        outSlope[idx] = zp / dM;
         outObstacleM[idx] = zo;
+      } else if (outDistanceM) {
+        outSlope[idx] = Number.NaN;
+        outObstacleM[idx] = Number.NaN;
       }
       if (rel > zp && d2 > excl2) {
-        cur[c] = rel;
-        curOd[c] = dCells * cell;
+        prevH = rel;
+        prevOd = dM;
       } else {
-        cur[c] = zp;
-        curOd[c] = zo;
+        prevH = zp;
+        prevOd = zo;
       }
+      cur[c] = prevH;
+      curOd[c] = prevOd;
+      lastPrevH = lastH;
+      lastPrevOd = lastOdC;
     }
   }
   return true;

@@ -165,26 +165,36 @@ export function fillDistanceM(
  * Outputs in m per m and m. Out-of-domain numbers give an all-NaN result (the kernel stays total);
  * an observer outside the grid throws ObserverOutsideGridError.
  * Method: accurate = R2-class rays (Franklin & Ray 1994); fast = reference-plane sweep (Wang et al. 2000).
+ * `reuse`: a previous result of the same grid size whose arrays are overwritten (no allocation while a
+ * radar is dragged); otherwise new arrays are allocated.
  */
-export function computeHorizon(input: MaskInput): HorizonResult {
+export function computeHorizon(input: MaskInput, reuse?: HorizonResult): HorizonResult {
   const cell = observerCell(input);
   if (cell === null) throw new ObserverOutsideGridError(input.observerX, input.observerY);
   const g = input.surface;
   const n = g.width * g.height;
+  const setup = sweepSetup(input, cell.col, cell.row);
+  // Without a range limit the sweeps write every cell (distance too); otherwise start from NaN.
+  const writeAll = setup !== null && setup.maxRangeM === Number.POSITIVE_INFINITY;
+  const same = reuse !== undefined && reuse.width === g.width && reuse.height === g.height;
   const result: HorizonResult = {
-    horizonSlope: new Float32Array(n).fill(Number.NaN),
-    obstacleDistanceM: new Float32Array(n).fill(Number.NaN),
-    distanceM: new Float32Array(n),
+    horizonSlope: same ? reuse.horizonSlope : new Float32Array(n),
+    obstacleDistanceM: same ? reuse.obstacleDistanceM : new Float32Array(n),
+    distanceM: same ? reuse.distanceM : new Float32Array(n),
     width: g.width,
     height: g.height,
     observerCol: cell.col,
     observerRow: cell.row,
   };
-  fillDistanceM(result.distanceM, g, cell.col, cell.row);
-  const setup = sweepSetup(input, cell.col, cell.row);
+  if (!writeAll) {
+    result.horizonSlope.fill(Number.NaN);
+    result.obstacleDistanceM.fill(Number.NaN);
+  }
+  if (!writeAll) fillDistanceM(result.distanceM, g, cell.col, cell.row);
   if (setup === null) return result;
-  if (input.mode === "fast") computeHorizonFast(setup, result.horizonSlope, result.obstacleDistanceM);
-  else computeHorizonAccurate(setup, result.horizonSlope, result.obstacleDistanceM);
+  const dOut = writeAll ? result.distanceM : null;
+  if (input.mode === "fast") computeHorizonFast(setup, result.horizonSlope, result.obstacleDistanceM, dOut);
+  else computeHorizonAccurate(setup, result.horizonSlope, result.obstacleDistanceM, dOut);
   return result;
 }
 

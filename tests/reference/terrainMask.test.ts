@@ -214,3 +214,21 @@ describe("[TM5] nodata and range", () => {
     }
   });
 });
+
+describe("[TM1] reused buffers", () => {
+  it("[TM1] a result computed into reused arrays equals a fresh one (no stale cells), with and without range", () => {
+    const dem = syntheticDem({ width: 90, height: 70, cellSizeM: 10, seed: 9 });
+    for (const mode of ["accurate", "fast"] as const) {
+      for (const maxRangeM of [undefined, 350]) {
+        const first = computeHorizon({ ...inputAt(dem.surface, 10, 10, 5, mode), maxRangeM });
+        const second = { ...inputAt(dem.surface, 60, 50, 20, mode), maxRangeM };
+        const reused = computeHorizon(second, first);
+        const fresh = computeHorizon(second);
+        expect(reused.horizonSlope).toBe(first.horizonSlope);
+        expect(Array.from(reused.horizonSlope)).toEqual(Array.from(fresh.horizonSlope));
+        expect(Array.from(reused.obstacleDistanceM)).toEqual(Array.from(fresh.obstacleDistanceM));
+        expect(Array.from(reused.distanceM)).toEqual(Array.from(fresh.distanceM));
+      }
+    }
+  });
+});
