@@ -39,7 +39,7 @@ function isSwerlingCase(c: number): c is SwerlingCase {
 /**
  * Detection threshold for N looks summed after a square-law detector, from the false-alarm probability.
  * Noise alone makes the sum gamma distributed with shape N, so Pfa = Q(N, T) and T = Q⁻¹(N, Pfa)
- * (Richards, FRSP 2nd ed., eq. 6.50; DiFranco & Rubin, "Radar Detection", ch. 10).
+ * (Richards, FRSP 2nd ed., ch. 6; DiFranco & Rubin, "Radar Detection"; chapters from memory).
  *
  * Inputs: `pfa` in (0, 1); `looks` integer ≥ 1.
  * Output: threshold T in units of the per-look mean noise power (T = −ln Pfa for one look).
@@ -87,8 +87,8 @@ export function fluctuationShape(swerling: SwerlingCase, looks: number): number 
 /**
  * Exact probability of detection of N non-coherently integrated square-law looks, Swerling 0–4.
  * Case 0 is the generalised Marcum Q; the fluctuating cases are its average over the chi-square
- * RCS law, a negative-binomial mixture of incomplete gammas (Shnidman, IEEE Trans. AES 25(3), 1989,
- * eqs. 4 and 11; Richards FRSP 2nd ed. §6.3). Computed by {@link gammaMixtureSf}.
+ * RCS law, a negative-binomial mixture of incomplete gammas (Shnidman, IEEE Trans. Inf. Theory 35(2),
+ * 1989; Richards FRSP 2nd ed. ch. 6; from memory). Computed by {@link gammaMixtureSf}.
  *
  * Inputs: `snrLinear` ≥ 0 per look (linear; −10…+40 dB is the tested range, any finite value is
  * valid); `pfa` in (0, 1) (tested 1e-9…1e-3); `looks` integer ≥ 1 (tested 1…30); `swerling` 0–4.

@@ -27,8 +27,8 @@ export interface ApproxValidity {
 
 /**
  * Albersheim's stated range: 0.1 ≤ Pd ≤ 0.9, 1e-7 ≤ Pfa ≤ 1e-3, 1 ≤ N ≤ 8096, within 0.2 dB
- * (Albersheim, Proc. IEEE 69(3), 1981; Tufts & Cann, IEEE Trans. AES 19(4), 1983; Richards FRSP
- * 2nd ed. §6.2.4).
+ * (Albersheim, Proc. IEEE 69(7), 1981; Tufts & Cann, IEEE Trans. AES 19(4), 1983, from memory;
+ * Richards FRSP 2nd ed. eq. (6.87) and the text after it).
  */
 export const ALBERSHEIM_VALIDITY: ApproxValidity = {
   pdMin: 0.1,
@@ -42,7 +42,8 @@ export const ALBERSHEIM_VALIDITY: ApproxValidity = {
 
 /**
  * Shnidman's stated range: 0.1 ≤ Pd ≤ 0.99, 1e-9 ≤ Pfa ≤ 1e-3, 1 ≤ N ≤ 100, within 0.5 dB
- * (Shnidman, "Determination of required SNR values", IEEE Trans. AES 38(3), 2002).
+ * (Shnidman, "Determination of required SNR values", IEEE Trans. AES 38(3), 2002, from memory;
+ * Richards FRSP 2nd ed., text after eq. (6.112)).
  */
 export const SHNIDMAN_VALIDITY: ApproxValidity = {
   pdMin: 0.1,
@@ -76,7 +77,7 @@ export interface SteadyApproxParams {
   looks: number;
 }
 
-// Coefficients of Albersheim's equation (Albersheim 1981; Richards FRSP 2nd ed. §6.2.4, section number from memory).
+// Coefficients of Albersheim's equation (Albersheim 1981; Richards FRSP 2nd ed. eq. (6.87)).
 const ALB_PFA_NUMERATOR = 0.62;
 const ALB_AB = 0.12;
 const ALB_B = 1.7;
@@ -92,7 +93,7 @@ function albersheimSlope(looks: number): number {
 /**
  * Albersheim's equation: required per-look SNR for a steady target, N looks, from Pd and Pfa.
  * SNR_dB = −5 log10 N + (6.2 + 4.54/√(N + 0.44)) · log10(A + 0.12AB + 1.7B), A = ln(0.62/Pfa),
- * B = ln(Pd/(1 − Pd)) (Albersheim, Proc. IEEE 69(3), 1981; Richards FRSP 2nd ed. §6.2.4, section number from memory).
+ * B = ln(Pd/(1 − Pd)) (Albersheim, Proc. IEEE 69(7), 1981; Richards FRSP 2nd ed. eq. (6.87)).
  *
  * Inputs: `pd` in (0, 1), `pfa` in (0, 1), `looks` ≥ 1; meant for {@link ALBERSHEIM_VALIDITY}.
  * Measured against the exact square-law SNR (N ≤ 100): within 0.2 dB for Pd 0.5–0.7, 0.3 dB for
@@ -121,7 +122,7 @@ export interface AlbersheimPdParams {
 
 /**
  * Albersheim's equation solved for Pd: Z = (SNR_dB + 5 log10 N)/(6.2 + 4.54/√(N + 0.44)),
- * B = (10^Z − A)/(1.7 + 0.12A), Pd = 1/(1 + e^(−B)) (Albersheim 1981 inverted; Richards FRSP 2nd ed. §6.2.4, from memory).
+ * B = (10^Z − A)/(1.7 + 0.12A), Pd = 1/(1 + e^(−B)) (Albersheim 1981 solved for Pd; Richards FRSP 2nd ed. eq. (6.89)).
  *
  * Inputs: `snrDb` finite, `pfa` in (0, 1), `looks` ≥ 1; meaningful where the result falls inside
  * {@link ALBERSHEIM_VALIDITY}. Output: Pd in (0, 1). Edges: NaN or out-of-domain inputs give NaN.
@@ -147,7 +148,7 @@ export interface ShnidmanParams {
   swerling: SwerlingCase;
 }
 
-// Coefficients of Shnidman's equation (Shnidman 2002, eqs. 1–7; Richards FRSP 2nd ed. §6.3.5, from memory).
+// Coefficients of Shnidman's equation (Shnidman 2002; Richards FRSP 2nd ed. eqs. up to (6.112); coefficients from memory).
 const SHN_LOOKS_ALPHA_SWITCH = 40;
 const SHN_ALPHA_HIGH = 0.25;
 const SHN_ETA_SCALE = 0.8;
@@ -165,7 +166,7 @@ const SHN_C2_LOOKS_SCALE = 80;
  * Shnidman's equation: required per-look SNR for N square-law looks, Swerling 0–4, from Pd and Pfa.
  * η = √(−0.8 ln(4Pfa(1−Pfa))) + sgn(Pd − ½)·√(−0.8 ln(4Pd(1−Pd))), X∞ = η(η + 2√(N/2 + α − ¼)),
  * a fluctuation correction C_dB = C1 (Pd ≤ 0.872) or C1 + C2 (Pd > 0.872), polynomial in Pd over K, SNR = C·X∞/N (Shnidman, IEEE Trans. AES
- * 38(3), 2002; Richards FRSP 2nd ed. §6.3.5, section number from memory).
+ * 38(3), 2002, from memory; Richards FRSP 2nd ed. eqs. up to (6.112)).
  *
  * Inputs: `pd` in (0, 1), `pfa` in (0, 1), `looks` ≥ 1, `swerling` 0–4; meant for
  * {@link SHNIDMAN_VALIDITY}. Measured against the exact SNR (N ≤ 100): steady within 0.5 dB over the

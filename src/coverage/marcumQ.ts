@@ -5,7 +5,7 @@
  * A square-law sum of N looks, each with unit mean noise power, crosses the threshold x with
  * probability  Σ_k w_k · Q(N + k, x),  where w_k are the weights of the number k of "signal quanta":
  *  - Poisson(λ) for a steady signal of total energy λ (this is the generalised Marcum Q,
- *    Q_N(√(2λ), √(2x)); Shnidman, IEEE Trans. AES 25(3), 1989, eq. 4),
+ *    Q_N(√(2λ), √(2x)); Shnidman, IEEE Trans. Inf. Theory 35(2), 1989, from memory),
  *  - negative binomial (shape r, mean λ) when λ itself is gamma distributed with shape r, which is
  *    the chi-square target of 2r degrees of freedom (Swerling's and Weinstock's fluctuating targets:
  *    the gamma average of a Poisson law is negative binomial, Johnson, Kemp & Kotz,
@@ -61,8 +61,8 @@ function lnFactorial(n: number): number {
  * Method: Pd = Σ_{k≤K} w_k Q(N+k, x) + Σ_{k>K} w_k, with Q(a+1, x) = Q(a, x) + xᵃe⁻ˣ/Γ(a+1) summed
  * upwards (additions only) and K chosen so that the lower incomplete gamma P(N+K, x) < 1e-17; the
  * weight tail is 1 − Σ_{k≤K} w_k when that is above one half, else summed directly with a geometric
- * bound on the remainder. Relative error ≈ 1e-13 over the detection range (Shnidman 1989, eq. 4;
- * recurrence: Abramowitz & Stegun 6.5.21).
+ * bound on the remainder. Relative error ≈ 1e-13 over the detection range (Shnidman 1989;
+ * recurrence: Abramowitz & Stegun 6.5.21 in terms of Γ(a, x)).
  */
 export function gammaMixtureSf(p: GammaMixtureParams): number {
   const { order, x, mean, shape } = p;
@@ -145,7 +145,7 @@ export function gammaMixtureSf(p: GammaMixtureParams): number {
 
 /**
  * Generalised Marcum Q function Q_M(a, b): the probability that a noncentral chi-square variable of
- * 2M degrees of freedom and noncentrality a² exceeds b² (Marcum 1950; Shnidman 1989 eq. 4).
+ * 2M degrees of freedom and noncentrality a² exceeds b² (Marcum, IRE Trans. IT-6, 1960; Shnidman 1989).
  *
  * Inputs: `m` integer ≥ 1; `a` ≥ 0 (noncentrality amplitude); `b` ≥ 0 (threshold amplitude).
  * Output: probability in [0, 1]. Edges: b = 0 gives 1; a = 0 gives Q(M, b²/2); NaN or out of domain
