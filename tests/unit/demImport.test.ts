@@ -130,6 +130,48 @@ describe("GeoTIFF DEM", () => {
     expect(r.warnings.some((w) => /covers .* % of the site grid/.test(w))).toBe(true);
   });
 
+  it("[DM5] a ModelTransformation matrix georeferences like tie point + pixel scale; a rotated one is refused", async () => {
+    const base = makeTiff(planeSpec);
+    const v = new Float32Array(planeSpec.width * planeSpec.height);
+    for (let r = 0; r < planeSpec.height; r++)
+      for (let c = 0; c < planeSpec.width; c++) v[r * planeSpec.width + c] = planeSpec.values(c, r);
+    const matrix = (b: number) => [
+      5,
+      b,
+      0,
+      planeSpec.originX,
+      0,
+      -5,
+      0,
+      planeSpec.originY,
+      0,
+      0,
+      0,
+      0,
+      0,
+      0,
+      0,
+      1,
+    ];
+    const meta = (b: number) => ({
+      width: planeSpec.width,
+      height: planeSpec.height,
+      SampleFormat: [3],
+      BitsPerSample: [32],
+      ModelTransformation: matrix(b),
+      GTModelTypeGeoKey: 1,
+      GTRasterTypeGeoKey: 1,
+      ProjectedCSTypeGeoKey: 32633,
+    });
+    const a = await readGeoTiffDem(writeArrayBuffer(v, meta(0)), frame);
+    const b = await readGeoTiffDem(base, frame);
+    expect(Array.from(a.ground.data)).toEqual(Array.from(b.ground.data));
+    const e = await importError(
+      readGeoTiffDem(writeArrayBuffer(v, meta(0.5)), frame, { fileName: "rot.tif" }),
+    );
+    expect(e.field).toBe("ModelTransformation");
+  });
+
   it("[DM7] PixelIsPoint tie points name a pixel centre (shifted half a pixel, as GDAL reads them)", async () => {
     const asPoint = makeTiff({
       ...planeSpec,
