@@ -3,7 +3,7 @@
  * from the false-alarm probability, the exact probability of detection for Swerling cases 0–4, and
  * the inverse (required per-look SNR). Rules PD1–PD8 in docs/model-spec.md ("Detection").
  *
- * Conventions (Richards, "Fundamentals of Radar Signal Processing", 2nd ed., §6.2–6.3):
+ * Conventions (Richards, "Fundamentals of Radar Signal Processing", 2nd ed., ch. 6):
  * each look is the squared magnitude of one coherently integrated sample, normalised to unit mean
  * noise power; the test statistic is the sum of the N looks; SNR is the per-look (single-look) SNR
  * after coherent integration, a linear power ratio, as the radar equation gives it.

@@ -108,7 +108,7 @@ describe("detection fixtures (SciPy 1.10.1, gen_detection.py)", () => {
 });
 
 describe("detection closed forms and hand tables", () => {
-  it("[PD3] Swerling 1, one look: Pd = Pfa^(1/(1+SNR)) (Richards FRSP 2nd ed. §6.3, common practice)", () => {
+  it("[PD3] Swerling 1, one look: Pd = Pfa^(1/(1+SNR)) (Richards FRSP 2nd ed. ch. 6, common practice)", () => {
     // Exact identity; the series reproduces it to rounding (1e-12 relative).
     for (const pfa of [1e-3, 1e-6, 1e-9]) {
       for (const snrDb of [-10, 0, 10, 13, 21, 30, 40]) {
@@ -119,7 +119,7 @@ describe("detection closed forms and hand tables", () => {
     }
   });
 
-  it("[PD3] Swerling 2: Pd = Q(N, T/(1+SNR)) (Richards FRSP 2nd ed. §6.3, from memory)", () => {
+  it("[PD3] Swerling 2: Pd = Q(N, T/(1+SNR)) (Richards FRSP 2nd ed. ch. 6, from memory)", () => {
     // Each look is exponential with mean 1 + SNR: exact gamma law, evaluated with stdlib gammainc.
     for (const looks of [1, 4, 10, 30]) {
       for (const snrDb of [-10, 0, 6, 15, 30]) {
@@ -239,7 +239,7 @@ describe("closed-form approximations against the exact functions", () => {
   });
 
   // Shnidman (2002) claims 0.5 dB over 0.1 ≤ Pd ≤ 0.99, 1e-9 ≤ Pfa ≤ 1e-3, 1 ≤ N ≤ 100, "except at
-  // the extreme values of Pd for Swerling 1" (Richards FRSP 2nd ed. §6.2). Measured:
+  // the extreme values of Pd for Swerling 1" (Richards FRSP 2nd ed. ch. 6). Measured:
   const shnPds = [0.1, 0.2, 0.3, 0.5, 0.6, 0.7, 0.8, 0.872, 0.9, 0.95, 0.99];
   const shnPfas = [1e-3, 1e-4, 1e-5, 1e-6, 1e-7, 1e-8, 1e-9];
 

@@ -126,7 +126,7 @@ describe("detection properties", () => {
   });
 
   it("[PD3] a fluctuating target needs more SNR than a steady one at high Pd, less at low Pd", () => {
-    // Fluctuation loss is positive above Pd ≈ 0.4 and negative well below (Richards FRSP §6.3, common practice).
+    // Fluctuation loss is positive above Pd ≈ 0.4 and negative well below (Richards FRSP 2nd ed. ch. 6, common practice).
     for (const looks of [1, 10]) {
       const steadyHigh = requiredSnrDb({ pd: 0.9, pfa: 1e-6, looks, swerling: 0 });
       const steadyLow = requiredSnrDb({ pd: 0.1, pfa: 1e-6, looks, swerling: 0 });
