@@ -52,7 +52,7 @@ describe("GeoTIFF export", () => {
     const [data] = (await image.readRasters()) as unknown as [Float32Array];
     expect(image.getOrigin().slice(0, 2)).toEqual([band.frame.originX, band.frame.originY]);
     expect(image.getResolution().slice(0, 2)).toEqual([10, -10]);
-    const keys = image.getGeoKeys();
+    const keys = image.getGeoKeys()!;
     expect(keys.ProjectedCSTypeGeoKey).toBe(32753);
     expect(keys.GTRasterTypeGeoKey).toBe(1);
     expect(image.getGDALNoData()).toBeNaN();
@@ -156,7 +156,7 @@ describe("plan evaluate on the demo sites", () => {
     const overlap = await readTif(join(terminalOut, "overlap-quad-30m.tif"));
     expect(overlap.width).toBe(terminal.grid.width);
     expect(overlap.image.getOrigin()[0]).toBe(terminal.grid.originX);
-    expect(overlap.image.getGeoKeys().ProjectedCSTypeGeoKey).toBe(terminal.grid.epsg);
+    expect(overlap.image.getGeoKeys()!.ProjectedCSTypeGeoKey).toBe(terminal.grid.epsg);
     expect(Math.max(...overlap.data.filter((v) => !Number.isNaN(v)))).toBeGreaterThanOrEqual(2);
   });
 
@@ -219,7 +219,7 @@ describe("plan point and plan los", () => {
     expect(a.code).toBe(0);
     const lvh = await readTif(join(dir, "lvh.tif"));
     expect([lvh.width, lvh.height]).toEqual([600, 600]);
-    expect(lvh.image.getGeoKeys().ProjectedCSTypeGeoKey).toBe(32753);
+    expect(lvh.image.getGeoKeys()!.ProjectedCSTypeGeoKey).toBe(32753);
     expect(lvh.data[300 * 600 + 300]).toBe(0);
     // Behind the ridge crest (≈ 430 m east), 600 m east of the observer, the ground is hidden.
     expect(lvh.data[300 * 600 + 360]).toBeGreaterThan(10);
