@@ -474,10 +474,16 @@ export function parseBuildings(
     }
     const { rings, badCoordinate } = lonLatRings(polygons);
     if (badCoordinate) {
+      const [first, second] = badCoordinate;
+      // A second value beyond ±90 that would be a fine longitude, after a first that would be a fine latitude.
+      const swapped = Math.abs(first) <= DEG_LAT_MAX && Math.abs(second) <= DEG_LON_MAX;
       throw new ImportError(
         file,
-        `(${badCoordinate[0]}, ${badCoordinate[1]}) is not longitude/latitude in degrees; footprints must be ` +
-          "WGS 84 lon/lat (RFC 7946): reproject the file",
+        swapped
+          ? `(${first}, ${second}) has a latitude beyond ±90°: the coordinates appear to be in (latitude, ` +
+              "longitude) order. GeoJSON positions are (longitude, latitude) (RFC 7946)"
+          : `(${first}, ${second}) is not longitude/latitude in degrees; footprints must be ` +
+              "WGS 84 lon/lat (RFC 7946): reproject the file",
         `${path}.geometry.coordinates`,
       );
     }

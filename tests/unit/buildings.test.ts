@@ -170,6 +170,17 @@ describe("parseBuildings: GeoJSON", () => {
     );
     expect(e.message).toMatch(/^swapped\.geojson: .*\(latitude, longitude\) order/);
     expect(e.field).toBe("features[0].geometry.coordinates");
+    // Far east (lon > 90°): read in the wrong order the "latitude" is impossible, and the message says why.
+    const east = [
+      [31.2, 121.5],
+      [31.2, 121.6],
+      [31.3, 121.6],
+      [31.2, 121.5],
+    ];
+    const e2 = importError(() => parseBuildings(fc([polygonFeature({}, east)]), "east.geojson", toGrid));
+    expect(e2.message).toMatch(
+      /latitude beyond ±90°: the coordinates appear to be in \(latitude, longitude\) order/,
+    );
   });
 
   it("[BL7] footprints far from the site: all → refused with the distance; some → dropped with a note", () => {
