@@ -22,7 +22,7 @@ import type { SweepSetup } from "./terrainMask.ts";
 const RAYS_PER_PERIMETER_CELL = 1;
 
 /** Major lines per band (the ray state stays in registers across a band). */
-const BAND = 16;
+const BAND = 32;
 
 /** One triangle of the sweep: which axis advances (major) and how indices move. */
 interface Triangle {
