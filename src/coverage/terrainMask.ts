@@ -230,13 +230,12 @@ export function lowestVisibleHeightAglM(
     const s = hs[i];
     const d = dist[i];
     const g = gz[i];
-    if (!(!Number.isNaN(s) && !Number.isNaN(g))) {
-      res[i] = Number.NaN;
-      continue;
-    }
-    // -Infinity slope (nothing obstructs, also the observer's own cell) gives -Infinity → 0.
-    const v = s === Number.NEGATIVE_INFINITY ? 0 : antenna + d * d * curv + s * d - g;
-    res[i] = Math.max(v, 0);
+    const v = antenna + d * d * curv + s * d - g;
+    if (v > VISIBILITY_TOLERANCE_M) res[i] = v;
+    // Visible from the ground up; a -Infinity slope (nothing obstructs) lands here too.
+    else if (v <= VISIBILITY_TOLERANCE_M) res[i] = 0;
+    // NaN: nodata slope or ground, or the observer's own cell (-Infinity · 0).
+    else res[i] = s === Number.NEGATIVE_INFINITY && !Number.isNaN(g) ? 0 : Number.NaN;
   }
   return res;
 }
