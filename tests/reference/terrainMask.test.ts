@@ -232,3 +232,39 @@ describe("[TM1] reused buffers", () => {
     }
   });
 });
+
+describe("[TM8] degenerate grids and out-of-domain numbers", () => {
+  it("[TM8] 1×1, 1×5, 5×1 and 2×2 grids give a horizon for every data cell from every observer position", () => {
+    for (const [w, h] of [
+      [1, 1],
+      [1, 5],
+      [5, 1],
+      [2, 2],
+    ]) {
+      const g = grid(w, h, 10, (c, r) => 100 + ((c * 7 + r * 3) % 5));
+      for (let c = 0; c < w; c++)
+        for (let r = 0; r < h; r++)
+          for (const mode of ["accurate", "fast"] as const) {
+            const res = computeHorizon(inputAt(g, c, r, 3, mode));
+            expect(res.horizonSlope.every((v) => !Number.isNaN(v))).toBe(true);
+          }
+    }
+  });
+
+  it("[TM8] a non-finite antenna height, k ≤ 0 or a non-positive range give an all-NaN horizon, no exception", () => {
+    const g = grid(20, 20, 10, () => 100);
+    for (const bad of [
+      { antennaHeightAslM: Number.NaN },
+      { effectiveEarthFactor: 0 },
+      { effectiveEarthFactor: -1 },
+      { maxRangeM: 0 },
+      { ownFootprintRadiusM: -5 },
+    ]) {
+      for (const mode of ["accurate", "fast"] as const) {
+        const res = computeHorizon({ ...inputAt(g, 5, 5, 10, mode), ...bad });
+        expect(res.horizonSlope.every((v) => Number.isNaN(v))).toBe(true);
+        expect(res.distanceM[5 * 20 + 6]).toBeCloseTo(10, 6);
+      }
+    }
+  });
+});
