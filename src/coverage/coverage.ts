@@ -341,52 +341,63 @@ export function buildRadarKernel(input: {
   };
 }
 
-/** Allocate the outputs of one radar (pd 0, reason out of range, SNR NaN). */
-function allocateCoverage(input: RadarStageInput, lowest: Float32Array): RadarCoverage {
+/**
+ * Allocate the outputs of one radar, zeroed. The radar stage writes every cell: inside the square it
+ * visits cell by cell, outside it with fills (reason out of range, SNR and lowest height NaN).
+ */
+function allocateCoverage(input: RadarStageInput, reuse?: RadarCoverage): RadarCoverage {
   const n = input.frame.width * input.frame.height;
+  if (reuse !== undefined && fitsShape(reuse, input, n)) {
+    reuse.radarId = input.radar.id;
+    return reuse;
+  }
   return {
     radarId: input.radar.id,
     heightsAglM: [...input.heightsAglM],
     targetIds: input.targets.map((t) => t.id),
-    lowestVisibleHeightAglM: lowest,
+    lowestVisibleHeightAglM: new Float32Array(n),
     heights: input.heightsAglM.map((h) => ({
       heightAglM: h,
-      snrDbAt0Dbsm: new Float32Array(n).fill(Number.NaN),
+      snrDbAt0Dbsm: new Float32Array(n),
       targets: input.targets.map((t) =>
         t.heightsAglM.includes(h)
-          ? { pd: new Float32Array(n), reason: new Uint8Array(n).fill(Reason.outOfRange) }
+          ? { pd: new Float32Array(n), reason: new Uint8Array(n) }
           : { pd: null, reason: null },
       ),
     })),
   };
 }
 
-/**
- * Lowest visible height above ground per cell, m (terrainMask.ts rule TM5, restated on plain arrays):
- * max(0, H + d²·curv + σ·d − ground); 0 where nothing obstructs; NaN for nodata or out of range.
- */
-export function lowestVisibleHeightFromHorizon(
-  horizon: HorizonResult,
-  ground: Float32Array,
-  antennaHeightAslM: number,
-  curvaturePerM: number,
-): Float32Array {
-  const n = ground.length;
-  const out = new Float32Array(n);
-  const hs = horizon.horizonSlope;
-  const dist = horizon.distanceM;
-  for (let i = 0; i < n; i++) {
-    const s = hs[i];
-    const g = ground[i];
-    if (Number.isNaN(s) || Number.isNaN(g)) {
-      out[i] = Number.NaN;
-      continue;
-    }
-    const d = dist[i];
-    const v = s === Number.NEGATIVE_INFINITY ? 0 : antennaHeightAslM + d * d * curvaturePerM + s * d - g;
-    out[i] = Math.max(v, 0);
-  }
-  return out;
+/** Whether a previous result has exactly the arrays this input needs (same cells, heights, classes). */
+function fitsShape(r: RadarCoverage, input: RadarStageInput, n: number): boolean {
+  if (r.lowestVisibleHeightAglM.length !== n || r.heights.length !== input.heightsAglM.length) return false;
+  return (
+    r.heights.every(
+      (hc, k) =>
+        hc.heightAglM === input.heightsAglM[k] &&
+        hc.snrDbAt0Dbsm.length === n &&
+        hc.targets.length === input.targets.length &&
+        hc.targets.every(
+          (tc, t) => (tc.pd !== null) === input.targets[t].heightsAglM.includes(hc.heightAglM),
+        ),
+    ) && r.targetIds.every((id, t) => id === input.targets[t]?.id)
+  );
+}
+
+/** Mark [from, to) as outside the radar's range in every output. */
+function fillOutside(
+  from: number,
+  to: number,
+  lowest: Float32Array,
+  snrOut: Float32Array[],
+  pdOut: Float32Array[],
+  reasonOut: Uint8Array[],
+): void {
+  if (to <= from) return;
+  lowest.fill(Number.NaN, from, to);
+  for (const a of snrOut) a.fill(Number.NaN, from, to);
+  for (const a of pdOut) a.fill(0, from, to);
+  for (const a of reasonOut) a.fill(Reason.outOfRange, from, to);
 }
 
 /**
@@ -398,20 +409,18 @@ export function lowestVisibleHeightFromHorizon(
  * "inside an obstruction"; slant range below the blind zone "blind zone", above the maximum "out of
  * range"; outside the instrumented field "out of sector"; then Pd decides: covered, else masked when
  * the sight line is obstructed (v > 0), else too weak; beyond a sector edge "out of sector".
+ * `reuse`: a previous result of the same shape (cells, heights, classes) to overwrite instead of
+ * allocating (every cell is rewritten); ignored when the shape differs.
  */
 export function radarCoverageFromHorizon(
   input: RadarStageInput,
   kernel: RadarKernel,
   horizon: HorizonResult,
+  reuse?: RadarCoverage,
 ): RadarCoverage {
   const { frame, ground, obstructionTopAglM, radar } = input;
-  const lowest = lowestVisibleHeightFromHorizon(
-    horizon,
-    ground,
-    radar.antennaHeightAslM,
-    kernel.curvaturePerM,
-  );
-  const out = allocateCoverage(input, lowest);
+  const out = allocateCoverage(input, reuse);
+  const lowest = out.lowestVisibleHeightAglM;
   const w = frame.width;
   const hgt = frame.height;
   const cellM = frame.cellSizeM;
@@ -490,16 +499,26 @@ export function radarCoverageFromHorizon(
   const c0 = Math.max(0, oc - spanCells);
   const c1 = Math.min(w - 1, oc + spanCells);
 
+  fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
+  fillOutside((r1 + 1) * w, n, lowest, snrOut, pdOut, reasonOut);
   for (let row = r0; row <= r1; row++) {
     const northM = (orow - row) * cellM;
+    fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
+    fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
     for (let col = c0; col <= c1; col++) {
       const i = row * w + col;
       const d = dist[i];
-      if (!(d <= maxR)) continue;
       const g = ground[i];
       const sigma = hs[i];
-      if (Number.isNaN(g) || Number.isNaN(sigma)) {
-        for (let q = 0; q < nq; q++) reasonOut[q][i] = Reason.nodata;
+      if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
+        // Beyond the range (the horizon is NaN there too) or no data.
+        const code = d <= maxR ? Reason.nodata : Reason.outOfRange;
+        lowest[i] = Number.NaN;
+        for (let k = 0; k < nh; k++) snrOut[k][i] = Number.NaN;
+        for (let q = 0; q < nq; q++) {
+          pdOut[q][i] = 0;
+          reasonOut[q][i] = code;
+        }
         continue;
       }
       // Azimuth factors (height-independent).
@@ -514,6 +533,8 @@ export function radarCoverageFromHorizon(
       }
       const d2 = d * d;
       const base = g - H - d2 * curv;
+      // Lowest visible height (terrainMask.ts rule TM5): −base + σ·d, at least 0; 0 where nothing obstructs.
+      lowest[i] = sigma === Number.NEGATIVE_INFINITY ? 0 : Math.max(0, sigma * d - base);
       // Knife edge: v = Kv·s·(σ − Δh/d), Kv = √((2/λ)(1/s + 1/(d − s))); so v = va − vb·Δh.
       let va = -1e30;
       let vb = 0;
@@ -536,14 +557,22 @@ export function radarCoverageFromHorizon(
         else if (R2 > maxR2) code = Reason.outOfRange;
         else if (aTx < 0) code = Reason.outOfSector;
         if (code >= 0) {
-          for (let t = 0; t < nt; t++) reasonOut[q0 + t][i] = code;
+          snrOut[k][i] = Number.NaN;
+          for (let t = 0; t < nt; t++) {
+            pdOut[q0 + t][i] = 0;
+            reasonOut[q0 + t][i] = code;
+          }
           continue;
         }
         const invR = 1 / Math.sqrt(R2);
         const m = (dh * invR * elScale + elScale + 0.5) | 0;
         const eTx = elTx[m];
         if (eTx < 0) {
-          for (let t = 0; t < nt; t++) reasonOut[q0 + t][i] = Reason.outOfSector;
+          snrOut[k][i] = Number.NaN;
+          for (let t = 0; t < nt; t++) {
+            pdOut[q0 + t][i] = 0;
+            reasonOut[q0 + t][i] = Reason.outOfSector;
+          }
           continue;
         }
         let gt = aTx * eTx;

@@ -144,3 +144,40 @@ describe("reason codes", () => {
     for (let i = 0; i < n; i++) expect(rs[i] === Reason.covered).toBe(pd[i] >= 0.8);
   });
 });
+
+describe("output reuse", () => {
+  it("[CV9] writing into a previous result of the same shape gives exactly the fresh result", () => {
+    const f = frameOf(120, 120, 5);
+    const ground = roughGround(f);
+    const m = demoRadar("mossbee-58");
+    const a = placed(m, cellXY(f, 30, 30), 150, { id: "a", boresightAzDeg: 135 });
+    const b = placed(m, cellXY(f, 90, 80), 140, { id: "b", boresightAzDeg: 300 });
+    const site = siteOf(f, ground, [a, b]);
+    const run = (radar: typeof a, reuse?: ReturnType<typeof radarCoverageFromHorizon>) => {
+      const kernel = buildRadarKernel({ radar, targets: site.targets, requirement: site.requirement, effectiveEarthFactor: 4 / 3 });
+      const horizon = computeHorizon({
+        surface: { ...f, data: site.surface },
+        observerX: radar.x,
+        observerY: radar.y,
+        antennaHeightAslM: radar.antennaHeightAslM,
+        effectiveEarthFactor: 4 / 3,
+        maxRangeM: kernel.maxRangeM,
+        mode: "accurate",
+      });
+      return radarCoverageFromHorizon({ ...site, radar, effectiveEarthFactor: 4 / 3 }, kernel, horizon, reuse);
+    };
+    const fresh = run(b);
+    const old = run(a);
+    const reused = run(b, old);
+    expect(reused).toBe(old);
+    expect(reused.radarId).toBe("b");
+    const same = (x: ArrayLike<number>, y: ArrayLike<number>) =>
+      Array.from(x).every((v, i) => Object.is(v, y[i]) || (Number.isNaN(v) && Number.isNaN(y[i])));
+    expect(same(reused.lowestVisibleHeightAglM, fresh.lowestVisibleHeightAglM)).toBe(true);
+    for (let k = 0; k < 3; k++) {
+      expect(same(reused.heights[k].snrDbAt0Dbsm, fresh.heights[k].snrDbAt0Dbsm)).toBe(true);
+      expect(same(reused.heights[k].targets[0].pd!, fresh.heights[k].targets[0].pd!)).toBe(true);
+      expect(same(reused.heights[k].targets[0].reason!, fresh.heights[k].targets[0].reason!)).toBe(true);
+    }
+  });
+});

@@ -1,0 +1,232 @@
+/**
+ * Coverage benchmark: the radar stage (SNR + Pd + reason for 4 heights, horizon given) in ns per cell,
+ * and the full evaluation of a 10-radar, 3-height plan on 4 M cells (2048 × 2048 at 5 m, rough terrain
+ * with buildings), single-threaded and on 2 Node worker_threads via comlink. Medians and spreads
+ * (min–max) are printed, never asserted. Run alone with `npx tsx tests/bench/coverage.bench.ts`.
+ */
+import { Worker } from "node:worker_threads";
+import * as Comlink from "comlink";
+import nodeEndpoint from "comlink/dist/esm/node-adapter.mjs";
+import {
+  buildRadarKernel,
+  type PlacedRadar,
+  type RadarCoverage,
+  radarCoverageFromHorizon,
+} from "../../src/coverage/coverage.ts";
+import { evaluateSite, type PreparedSite, type RadarRunner } from "../../src/coverage/evaluate.ts";
+import type { RadarModel } from "../../src/coverage/radarModel.ts";
+import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts";
+import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
+import { demoRadar } from "../unit/coverageFixtures.ts";
+import type { CoverageWorkerApi } from "./coverageWorkerApi.ts";
+
+const SIDE = 2048;
+
+function stats(xs: number[]): { median: number; min: number; max: number } {
+  const s = [...xs].sort((a, b) => a - b);
+  return { median: s[Math.floor(s.length / 2)], min: s[0], max: s[s.length - 1] };
+}
+
+function fmt(x: { median: number; min: number; max: number }, digits = 1): string {
+  return `median ${x.median.toFixed(digits)} (min ${x.min.toFixed(digits)}, max ${x.max.toFixed(digits)})`;
+}
+
+function siteOn(
+  cellSizeM: number,
+  radars: (n: { frame: PreparedSite["frame"]; ground: Float32Array }) => PlacedRadar[],
+  heights: number[],
+): PreparedSite {
+  const dem = syntheticDem({ width: SIDE, height: SIDE, cellSizeM, seed: 7, buildings: 400 });
+  const frame = {
+    width: SIDE,
+    height: SIDE,
+    originX: 500_000,
+    originY: 4_600_000,
+    cellSizeM,
+    crs: "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs",
+  };
+  const n = SIDE * SIDE;
+  const ground = dem.ground.data;
+  const surface = dem.surface.data;
+  const top = new Float32Array(n);
+  for (let i = 0; i < n; i++) top[i] = surface[i] - ground[i];
+  const protectedArea = new Uint8Array(n);
+  const approachRing = new Uint8Array(n);
+  for (let r = 0; r < SIDE; r++)
+    for (let c = 0; c < SIDE; c++) {
+      const d = Math.hypot(r - SIDE / 2, c - SIDE / 2);
+      if (d < SIDE / 6) protectedArea[r * SIDE + c] = 1;
+      else if (d < SIDE / 3) approachRing[r * SIDE + c] = 1;
+    }
+  return {
+    name: "bench",
+    frame,
+    ground,
+    surface,
+    obstructionTopAglM: top,
+    regions: { protectedArea, approachRing },
+    radars: radars({ frame, ground }),
+    targets: [{ id: "quad", name: "quad", rcsDbsm: -20, swerling: 1, heightsAglM: heights }],
+    requirement: { requiredPd: 0.8, pfa: 1e-6, looks: 1, targetIds: ["quad"] },
+    heightsAglM: heights,
+    effectiveEarthFactor: 4 / 3,
+    maskMode: "accurate",
+    groundSource: "dem",
+    warnings: [],
+  };
+}
+
+function radarAt(
+  s: { frame: PreparedSite["frame"]; ground: Float32Array },
+  model: RadarModel,
+  col: number,
+  row: number,
+  boresightAzDeg: number,
+  id: string,
+): PlacedRadar {
+  const f = s.frame;
+  return {
+    id,
+    name: id,
+    model,
+    scan: model.scan,
+    x: f.originX + (col + 0.5) * f.cellSizeM,
+    y: f.originY - (row + 0.5) * f.cellSizeM,
+    antennaHeightAslM: s.ground[row * f.width + col] + 20,
+    boresightAzDeg,
+    tiltDeg: 0,
+    ownFootprintRadiusM: 0,
+  };
+}
+
+/** Radar stage alone: ns per cell for 4 heights, one class, every cell within range. */
+function benchStage(label: string, model: RadarModel, cellSizeM: number, runs: number): void {
+  const heights = [10, 30, 60, 100];
+  const site = siteOn(cellSizeM, (s) => [radarAt(s, model, SIDE / 2, SIDE / 2, 45, "r")], heights);
+  const radar = site.radars[0];
+  const kernel = buildRadarKernel({
+    radar,
+    targets: site.targets,
+    requirement: site.requirement,
+    effectiveEarthFactor: 4 / 3,
+  });
+  const horizon = computeHorizon({
+    surface: { ...site.frame, data: site.surface },
+    observerX: radar.x,
+    observerY: radar.y,
+    antennaHeightAslM: radar.antennaHeightAslM,
+    effectiveEarthFactor: 4 / 3,
+    mode: "accurate",
+  });
+  const input = { ...site, radar, effectiveEarthFactor: 4 / 3 };
+  const n = SIDE * SIDE;
+  const previous = radarCoverageFromHorizon(input, kernel, horizon); // warm-up (JIT)
+  const fresh: number[] = [];
+  const reused: number[] = [];
+  // Interleaved: new output arrays (allocation and first touch included), then writing into `previous`.
+  for (let r = 0; r < runs; r++) {
+    let t = performance.now();
+    radarCoverageFromHorizon(input, kernel, horizon);
+    fresh.push(((performance.now() - t) * 1e6) / n);
+    t = performance.now();
+    radarCoverageFromHorizon(input, kernel, horizon, previous);
+    reused.push(((performance.now() - t) * 1e6) / n);
+  }
+  console.log(
+    `coverage radar stage, ${label}, ${n} cells × 4 heights: new outputs ${fmt(stats(fresh))} ns/cell; ` +
+      `outputs reused ${fmt(stats(reused))} ns/cell; ${runs} runs each`,
+  );
+}
+
+function planRadars(s: { frame: PreparedSite["frame"]; ground: Float32Array }): PlacedRadar[] {
+  const kalvori = demoRadar("kalvori-x9");
+  const mossbee = demoRadar("mossbee-58");
+  const zorvane = demoRadar("zorvane-s24");
+  const c = SIDE / 2;
+  const q = SIDE / 4;
+  return [
+    radarAt(s, kalvori, c - q, c - q, 0, "k1"),
+    radarAt(s, kalvori, c + q, c + q, 0, "k2"),
+    radarAt(s, kalvori, c + q, c - q, 0, "k3"),
+    radarAt(s, mossbee, c - 40, c, 270, "m1"),
+    radarAt(s, mossbee, c + 40, c, 90, "m2"),
+    radarAt(s, mossbee, c, c - 40, 0, "m3"),
+    radarAt(s, mossbee, c, c + 40, 180, "m4"),
+    radarAt(s, zorvane, c - 100, c - 100, 315, "z1"),
+    radarAt(s, zorvane, c + 100, c + 100, 135, "z2"),
+    radarAt(s, zorvane, c - 100, c + 100, 225, "z3"),
+  ];
+}
+
+/** A runner that sends each radar to the next free worker. */
+function workerRunner(apis: Comlink.Remote<CoverageWorkerApi>[]): RadarRunner {
+  const free = [...apis];
+  const waiting: ((w: Comlink.Remote<CoverageWorkerApi>) => void)[] = [];
+  const take = (): Promise<Comlink.Remote<CoverageWorkerApi>> =>
+    free.length > 0 ? Promise.resolve(free.pop()!) : new Promise((res) => waiting.push(res));
+  const give = (w: Comlink.Remote<CoverageWorkerApi>) => {
+    const next = waiting.shift();
+    if (next) next(w);
+    else free.push(w);
+  };
+  return async (_site, index, mode: MaskMode): Promise<RadarCoverage> => {
+    const w = await take();
+    try {
+      return (await w.computeRadar(index, mode)) as RadarCoverage;
+    } finally {
+      give(w);
+    }
+  };
+}
+
+async function benchFull(runs: number): Promise<void> {
+  const site = siteOn(5, planRadars, [10, 30, 60]);
+  const n = SIDE * SIDE;
+  await evaluateSite(site); // warm-up (JIT, Pd tables)
+  const single: number[] = [];
+  const radarsMs: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    const t = performance.now();
+    const res = await evaluateSite(site);
+    single.push(performance.now() - t);
+    radarsMs.push(res.timingsMs.radars);
+  }
+  console.log(
+    `coverage full evaluation, 10 radars × 3 heights on ${n} cells, 1 thread: ${fmt(stats(single), 0)} ms ` +
+      `(radar stages ${fmt(stats(radarsMs), 0)} ms), ${runs} runs`,
+  );
+
+  const workers = [0, 1].map(() => new Worker(new URL("./coverageWorker.mjs", import.meta.url)));
+  const apis = workers.map((w) => Comlink.wrap<CoverageWorkerApi>(nodeEndpoint(w)));
+  try {
+    const tu = performance.now();
+    await Promise.all(apis.map((a) => a.setSite(site)));
+    const uploadMs = performance.now() - tu;
+    const runRadar = workerRunner(apis);
+    await evaluateSite(site, { runRadar }); // warm-up in the workers
+    const two: number[] = [];
+    for (let r = 0; r < runs; r++) {
+      const t = performance.now();
+      await evaluateSite(site, { runRadar });
+      two.push(performance.now() - t);
+    }
+    const s2 = stats(two);
+    console.log(
+      `coverage full evaluation, 2 workers (site posted once, ${uploadMs.toFixed(0)} ms): ${fmt(s2, 0)} ms; ` +
+        `speed-up ${(stats(single).median / s2.median).toFixed(2)} × over 1 thread`,
+    );
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
+}
+
+/** Prints the coverage figures; never asserts. */
+export async function run(): Promise<void> {
+  benchStage("rotating pulsed (kalvori-x9), 10 m cells", demoRadar("kalvori-x9"), 10, 7);
+  benchStage("staring FMCW (mossbee-58), 0.5 m cells", demoRadar("mossbee-58"), 0.5, 7);
+  await benchFull(5);
+}
+
+if (process.argv[1]?.endsWith("coverage.bench.ts")) {
+  await run();
+}
