@@ -26,6 +26,8 @@ export function useLeafletMap(container: RefObject<HTMLDivElement | null>, init:
       maxZoom: 21,
       minZoom: 3,
       preferCanvas: false,
+      // Drawing handlers for this map (the plugin is opt-in).
+      pmIgnore: false,
     });
     m.attributionControl.setPrefix(false);
     setMap(m);

@@ -15,6 +15,8 @@ export interface PlanStore {
   load: (plan: Plan) => void;
   /** What the last change was, for the status line. */
   lastChangeLabel: string;
+  /** Counts loads (open, new, restore), so views can react to a different plan but not to edits. */
+  loadCount: number;
 }
 
 /** How many changes can be undone. */
@@ -25,6 +27,7 @@ export const usePlanStore = create<PlanStore>()(
     (set) => ({
       plan: null,
       lastChangeLabel: "",
+      loadCount: 0,
       change: (update, label = "edit") =>
         set((s) => {
           if (!s.plan) return s;
@@ -32,7 +35,7 @@ export const usePlanStore = create<PlanStore>()(
           return next === s.plan ? s : { plan: next, lastChangeLabel: label };
         }),
       load: (plan) => {
-        set({ plan, lastChangeLabel: "opened" });
+        set((s) => ({ plan, lastChangeLabel: "opened", loadCount: s.loadCount + 1 }));
         usePlanStore.temporal.getState().clear();
       },
     }),

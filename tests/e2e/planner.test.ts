@@ -47,8 +47,11 @@ async function waitNewRun(p: Page, before: string): Promise<void> {
   await waitComputed(p);
 }
 
+/** Text of the first element with the test id, "" when there is none (never waits). */
 async function text(p: Page, testId: string): Promise<string> {
-  return (await p.getByTestId(testId).first().textContent()) ?? "";
+  const l = p.getByTestId(testId).first();
+  if ((await l.count()) === 0) return "";
+  return (await l.textContent({ timeout: 5_000 })) ?? "";
 }
 
 async function summaryFigures(p: Page): Promise<string> {
@@ -130,7 +133,7 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     const before = await shoot(page, "height-10");
     const t0 = Date.now();
     await page.getByTestId("height-60").click();
-    await expect.poll(() => page.getByTestId("height-60").getAttribute("aria-checked")).toBe("true");
+    await expect.poll(() => page.getByTestId("height-60").getAttribute("aria-pressed")).toBe("true");
     const switchMs = Date.now() - t0;
     const after = await shoot(page, "height-60");
     expect(readFileSync(before).equals(readFileSync(after))).toBe(false);
@@ -185,7 +188,10 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await openTab(page, "site");
     const areas0 = await page.getByTestId("area-list").locator("li").count();
     await page.getByTestId("tool-area").click();
+    // The drawing plugin loads on first use; its hint marker follows the pointer.
+    await page.waitForTimeout(1000);
     const b = await mapBox(page);
+    await page.mouse.move(b.x + b.width * 0.21, b.y + b.height * 0.21);
     const pts = [
       [0.2, 0.2],
       [0.32, 0.2],
@@ -197,7 +203,8 @@ describe.skipIf(!RUN)("planner in the browser", () => {
       await page.waitForTimeout(150);
     }
     await page.mouse.move(b.x + b.width * 0.25, b.y + b.height * 0.3);
-    await expect.poll(() => text(page, "live-measure")).toMatch(/area .*(m²|ha)/);
+    await shoot(page, "drawing-progress");
+    await expect.poll(() => text(page, "live-measure"), { timeout: 10_000 }).toMatch(/area .*(m²|ha)/);
     await shoot(page, "drawing");
     await page.mouse.click(b.x + b.width * pts[0][0], b.y + b.height * pts[0][1]);
     await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0 + 1);

@@ -78,7 +78,7 @@ export function AboutDialog(props: { open: boolean; onClose: () => void }) {
         ))}
       </ul>
       <TileServerForm />
-      <button type="button" onClick={props.onClose} autoFocus>
+      <button type="button" onClick={props.onClose}>
         Close
       </button>
     </dialog>

@@ -45,7 +45,7 @@ export function MapView(props: { onMap: (m: L.Map | null) => void; initialCentre
       }}
     >
       <div ref={ref} className="map" data-testid="map" />
-      {live && (
+      {live && live.vertices > 0 && (
         <div className="live-measure" role="status" data-testid="live-measure">
           {live.vertices} corners · outline{" "}
           {live.lengthM < 1000 ? `${live.lengthM.toFixed(0)} m` : `${(live.lengthM / 1000).toFixed(2)} km`} ·

@@ -18,6 +18,7 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
   const elapsed = useCoverage((s) => s.view?.elapsedMs);
   const problem = useCoverage((s) => s.problem);
   const [recent, setRecent] = useState<RecentPlan[]>([]);
+  // biome-ignore lint/correctness/useExhaustiveDependencies: reload the list when another plan is opened
   useEffect(() => {
     recentPlans()
       .then(setRecent)

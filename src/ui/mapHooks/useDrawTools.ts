@@ -11,7 +11,6 @@ import type { Feature, MultiPolygon, Polygon } from "geojson";
 import { useEffect, useState } from "react";
 import type { AreaGeometry } from "../../io/planSchema";
 import type L from "../../map/leaflet";
-import { loadGeoman } from "../../map/leaflet";
 import { azimuthAndDistance } from "../../map/localGeo";
 import { addBuilding, addProtectedArea, addTreeStand, replaceAreaGeometry } from "../planEdits";
 import { say, useSession } from "../session";
@@ -84,7 +83,6 @@ export function useDrawTools(map: L.Map | null): LiveMeasure | null {
   useEffect(() => {
     if (!map) return;
     if (tool !== "area" && tool !== "hole" && tool !== "building" && tool !== "tree") return;
-    let cancelled = false;
     let working: L.Polyline | null = null;
     const onMove = (e: L.LeafletMouseEvent) => {
       if (!working) return;
@@ -110,19 +108,18 @@ export function useDrawTools(map: L.Map | null): LiveMeasure | null {
       // Stay in the tool for the next shape.
       (map as PmMap).pm.enableDraw("Polygon", { snappable: true, continueDrawing: false });
     };
-    void loadGeoman().then(() => {
-      if (cancelled) return;
+    {
       const pm = (map as PmMap).pm;
       pm.setGlobalOptions({
         pathOptions: { color: tool === "area" || tool === "hole" ? "#111" : "#5a3d2b" },
       });
-      pm.enableDraw("Polygon", { snappable: true, continueDrawing: false });
+      // Listeners first: enableDraw fires pm:drawstart at once.
       map.on("pm:drawstart", onStart as unknown as L.LeafletEventHandlerFn);
       map.on("pm:create", onCreate as unknown as L.LeafletEventHandlerFn);
       map.on("mousemove", onMove);
-    });
+      pm.enableDraw("Polygon", { snappable: true, continueDrawing: false });
+    }
     return () => {
-      cancelled = true;
       map.off("pm:drawstart", onStart as unknown as L.LeafletEventHandlerFn);
       map.off("pm:create", onCreate as unknown as L.LeafletEventHandlerFn);
       map.off("mousemove", onMove);

@@ -5,12 +5,12 @@ import { usePlanStore } from "../store";
 
 export function useFitToSite(map: L.Map | null): void {
   const plan = usePlanStore((s) => s.plan);
-  const fitted = useRef<string | null>(null);
+  const loadCount = usePlanStore((s) => s.loadCount);
+  const fitted = useRef<number | null>(null);
   useEffect(() => {
     if (!map || !plan) return;
-    const key = `${plan.site.name}|${plan.protectedAreas.map((a) => a.id).join(",")}`;
-    if (fitted.current === key) return;
-    fitted.current = key;
+    if (fitted.current === loadCount) return;
+    fitted.current = loadCount;
     const pts: [number, number][] = [];
     for (const a of plan.protectedAreas) {
       const polys = a.geometry.type === "Polygon" ? [a.geometry.coordinates] : a.geometry.coordinates;
@@ -18,5 +18,5 @@ export function useFitToSite(map: L.Map | null): void {
     }
     for (const p of plan.posts) pts.push([p.position.latDeg, p.position.lonDeg]);
     if (pts.length > 0) map.fitBounds(L.latLngBounds(pts).pad(0.12), { animate: false });
-  }, [map, plan]);
+  }, [map, plan, loadCount]);
 }

@@ -63,13 +63,12 @@ export function ResultsPanel() {
       />
       <div className="field">
         <span id="height-label">Target height</span>
-        <div className="height-buttons" role="radiogroup" aria-labelledby="height-label">
+        <div className="height-buttons">
           {classHeights.map((h) => (
             <button
               key={h}
               type="button"
-              role="radio"
-              aria-checked={slice?.heightM === h}
+              aria-pressed={slice?.heightM === h}
               data-testid={`height-${h}`}
               onClick={() => s.set({ heightM: h })}
             >

@@ -70,7 +70,7 @@ export function SitePanel() {
         ))}
       </ul>
       <h3>Draw</h3>
-      <div className="tool-grid" role="group" aria-label="Drawing tools">
+      <fieldset className="tool-grid" aria-label="Drawing tools">
         {DRAW_TOOLS.map((t) => (
           <button
             key={t.tool}
@@ -86,7 +86,7 @@ export function SitePanel() {
             {t.label}
           </button>
         ))}
-      </div>
+      </fieldset>
       {DRAW_TOOLS.find((t) => t.tool === tool) && (
         <p className="muted">{DRAW_TOOLS.find((t) => t.tool === tool)?.hint}</p>
       )}
