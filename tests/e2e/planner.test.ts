@@ -153,7 +153,10 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     expect(budget).toMatch(/SNR/i);
     expect(await text(page, "point-combined-pd")).toMatch(/^\d\.\d{3}$/);
     await page.getByTestId("profile-chart").locator("svg").first().waitFor({ timeout: 30_000 });
-    await shoot(page, "inspect");
+    const inspectShot = await shoot(page, "inspect");
+    expect((await compareGolden(page, "inspect", inspectShot)).differingFraction).toBeLessThan(
+      GOLDEN_TOLERANCE,
+    );
     await page.keyboard.press("Escape");
     await openTab(page, "results");
   });
@@ -333,5 +336,27 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await waitComputed(page);
     const shot = await shoot(page, "reopened");
     expect(shot).toMatch(/reopened\.png$/);
+  });
+
+  it("replaces a crashed worker, tells the user, and keeps the plan", async () => {
+    await page.goto(`${h.baseUrl}?test=1`);
+    await waitComputed(page);
+    const site = await text(page, "site-name");
+    const status = await text(page, "run-status");
+    await page.evaluate(() =>
+      (window as unknown as { picketTest: { crashWorker(): Promise<void> } }).picketTest.crashWorker(),
+    );
+    await expect
+      .poll(
+        async () =>
+          (await page
+            .getByTestId("message-error")
+            .last()
+            .textContent()
+            .catch(() => "")) ?? "",
+      )
+      .toMatch(/worker crashed.*plan is intact/);
+    await waitNewRun(page, status);
+    expect(await text(page, "site-name")).toBe(site);
   });
 });
