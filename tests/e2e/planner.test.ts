@@ -165,14 +165,20 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await openTab(page, "posts");
     const postsBefore = await page.getByTestId("post-list").locator("li").count();
     const summary0 = await summaryFigures(page);
+    const gapArea0 = await text(page, "gap-area-10");
     const status0 = await text(page, "run-status");
     await page.getByTestId("tool-post").click();
     const b = await mapBox(page);
-    await page.mouse.click(b.x + b.width * 0.3, b.y + b.height * 0.75);
+    await page.mouse.click(b.x + b.width * 0.56, b.y + b.height * 0.53);
     await expect.poll(() => page.getByTestId("post-list").locator("li").count()).toBe(postsBefore + 1);
     await waitNewRun(page, status0);
+    // A short-range FMCW model: the pulsed default is blind within c·τ/2 of itself.
+    const statusModel = await text(page, "run-status");
+    await page.getByTestId("post-model").selectOption("mossbee-58");
+    await waitNewRun(page, statusModel);
     const summary1 = await summaryFigures(page);
     expect(summary1).not.toBe(summary0);
+    expect(await text(page, "gap-area-10")).not.toBe(gapArea0);
     const marker = page.locator(".post-mark", { hasText: `Post ${postsBefore + 1}` });
     const mb = await marker.boundingBox();
     if (!mb) throw new Error("new post not on the map");

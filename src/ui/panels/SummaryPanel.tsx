@@ -48,7 +48,13 @@ export function SummaryPanel() {
   const ofClass = view.slices.filter((s) => s.classId === slice.classId);
   const name = (id: string) => plan.posts.find((p) => p.id === id)?.name ?? id;
   return (
-    <section className="summary" aria-label="Summary" data-testid="summary">
+    <section
+      className="summary"
+      aria-label="Summary"
+      data-testid="summary"
+      data-generation={view.generation}
+      data-mask-mode={view.maskMode}
+    >
       <h3>Summary — {plan.targetClasses.find((t) => t.id === slice.classId)?.name}</h3>
       <table className="summary-table">
         <thead>
