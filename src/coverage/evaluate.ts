@@ -200,13 +200,15 @@ function maskInputFor(site: PreparedSite, radar: PlacedRadar, mode: MaskMode, ma
 
 /**
  * One radar's coverage in this thread: horizon sweep (terrainMask.ts) limited to the maximum
- * instrumented range, then the radar stage (coverage.ts). Throws ObserverOutsideGridError when the
- * radar stands outside the grid.
+ * instrumented range, then the radar stage (coverage.ts). `reuse`: a previous result of the same
+ * shape to overwrite (see radarCoverageFromHorizon). Throws ObserverOutsideGridError when the radar
+ * stands outside the grid.
  */
 export function computeRadarCoverage(
   site: PreparedSite,
   radarIndex: number,
   mode: MaskMode = site.maskMode,
+  reuse?: RadarCoverage,
 ): RadarCoverage {
   const radar = site.radars[radarIndex];
   const kernel = buildRadarKernel({
@@ -229,6 +231,7 @@ export function computeRadarCoverage(
     },
     kernel,
     horizon,
+    reuse,
   );
 }
 

@@ -56,34 +56,34 @@ export function fuseHeight(input: FusionInput): FusedHeight {
     throw new RangeError(`fusion takes at most ${NO_RADAR - 1} radars, got ${radarCount}`);
   const combinedPd = new Float32Array(n);
   const overlapCount = new Uint8Array(n);
-  const bestRadar = new Uint8Array(n).fill(NO_RADAR);
+  const bestRadar = new Uint8Array(n);
   const gap = new Uint8Array(n);
-  // Product of misses, accumulated radar by radar for memory locality.
-  const miss = new Float32Array(n).fill(1);
-  const bestPd = new Float32Array(n);
-  for (let r = 0; r < radarCount; r++) {
-    const pd = pdPerRadar[r];
-    for (let i = 0; i < n; i++) {
-      const p = pd[i];
-      if (!(p > 0)) continue;
-      miss[i] *= 1 - p;
-      if (p >= requiredPd) overlapCount[i]++;
-      if (p > bestPd[i]) {
-        bestPd[i] = p;
-        bestRadar[i] = r;
-      }
-    }
-  }
   const protectedArea = regions.protectedArea;
   const ring = regions.approachRing;
+  // Cell by cell across the radars: each Pd raster is read once, each output written once.
   for (let i = 0; i < n; i++) {
     if (cellState[i] !== CellState.valid) {
-      overlapCount[i] = 0;
       bestRadar[i] = NO_RADAR;
       continue;
     }
-    const pdc = 1 - miss[i];
+    let miss = 1;
+    let count = 0;
+    let best = NO_RADAR;
+    let bestPd = 0;
+    for (let r = 0; r < radarCount; r++) {
+      const p = pdPerRadar[r][i];
+      if (!(p > 0)) continue;
+      miss *= 1 - p;
+      if (p >= requiredPd) count++;
+      if (p > bestPd) {
+        bestPd = p;
+        best = r;
+      }
+    }
+    const pdc = 1 - miss;
     combinedPd[i] = pdc;
+    overlapCount[i] = count;
+    bestRadar[i] = best;
     if ((protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd) gap[i] = 1;
   }
   return { combinedPd, overlapCount, bestRadar, gap };

@@ -2,7 +2,7 @@
  * Coverage benchmark: the radar stage (SNR + Pd + reason for 4 heights, horizon given) in ns per cell,
  * and the full evaluation of a 10-radar, 3-height plan on 4 M cells (2048 × 2048 at 5 m, rough terrain
  * with buildings), single-threaded and on 2 Node worker_threads via comlink. Medians and spreads
- * (min–max) are printed, never asserted. Run alone with `npx tsx tests/bench/coverage.bench.ts`.
+ * (min–max) are printed, never asserted. Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|full]`.
  */
 import { Worker } from "node:worker_threads";
 import * as Comlink from "comlink";
@@ -215,18 +215,47 @@ async function benchFull(runs: number): Promise<void> {
       `coverage full evaluation, 2 workers (site posted once, ${uploadMs.toFixed(0)} ms): ${fmt(s2, 0)} ms; ` +
         `speed-up ${(stats(single).median / s2.median).toFixed(2)} × over 1 thread`,
     );
+    // Radar stages alone, each worker writing into its previous result buffers (no allocation, no
+    // transfer): the compute scaling of 1 against 2 workers.
+    const indices = site.radars.map((_, i) => i);
+    const inPlace = async (k: number) => {
+      const t = performance.now();
+      let next = 0;
+      await Promise.all(
+        apis.slice(0, k).map(async (a) => {
+          while (next < indices.length) await a.computeRadarInPlace(indices[next++], "accurate");
+        }),
+      );
+      return performance.now() - t;
+    };
+    await inPlace(2); // allocate and warm the kept buffers
+    const one: number[] = [];
+    const both: number[] = [];
+    for (let r = 0; r < runs; r++) {
+      one.push(await inPlace(1));
+      both.push(await inPlace(2));
+    }
+    const o1 = stats(one);
+    const o2 = stats(both);
+    console.log(
+      `coverage 10 radar stages into reused buffers: 1 worker ${fmt(o1, 0)} ms, 2 workers ${fmt(o2, 0)} ms; ` +
+        `speed-up ${(o1.median / o2.median).toFixed(2)} ×`,
+    );
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }
 }
 
-/** Prints the coverage figures; never asserts. */
-export async function run(): Promise<void> {
-  benchStage("rotating pulsed (kalvori-x9), 10 m cells", demoRadar("kalvori-x9"), 10, 7);
-  benchStage("staring FMCW (mossbee-58), 0.5 m cells", demoRadar("mossbee-58"), 0.5, 7);
-  await benchFull(5);
+/** Prints the coverage figures; never asserts. `parts`: "stage", "full" (default both). */
+export async function run(parts: string[] = ["stage", "full"]): Promise<void> {
+  if (parts.includes("stage")) {
+    benchStage("rotating pulsed (kalvori-x9), 10 m cells", demoRadar("kalvori-x9"), 10, 7);
+    benchStage("staring FMCW (mossbee-58), 0.5 m cells", demoRadar("mossbee-58"), 0.5, 7);
+  }
+  if (parts.includes("full")) await benchFull(5);
 }
 
 if (process.argv[1]?.endsWith("coverage.bench.ts")) {
-  await run();
+  const parts = process.argv.slice(2);
+  await run(parts.length > 0 ? parts : undefined);
 }

@@ -24,7 +24,16 @@ export function resultBuffers(r: RadarCoverage): ArrayBuffer[] {
   return [...out];
 }
 
+const kept = new Map<number, RadarCoverage>();
+
 const api = {
+  /** Diagnostic: compute radar `index` into this worker's previous result for it, return only the time. */
+  computeRadarInPlace(index: number, mode: MaskMode): number {
+    if (site === null) throw new Error("setSite first");
+    const t = performance.now();
+    kept.set(index, computeRadarCoverage(site, index, mode, kept.get(index)));
+    return performance.now() - t;
+  },
   setSite(s: PreparedSite): void {
     site = s;
   },
