@@ -94,6 +94,31 @@ describe("[TM7] accurate mode against the exact ray march (R3)", () => {
     expect(p99).toBeLessThanOrEqual(2.5);
   });
 
+  it("[TM3] a straight ridge 8 km out: the shadow behind it matches R3 and the curved-earth geometry", () => {
+    // Flat ground at 100 m, a 3-cell-wide ridge at 180 m across the grid at x = 8 km, antenna 20 m up.
+    const g = grid(1200, 200, 10, (c) => (c >= 800 && c < 803 ? 180 : 100));
+    const input = inputAt(g, 0, 100, 20, "accurate");
+    const h = computeHorizon(input);
+    const lv = lowestVisibleHeightAglM(h, g, input);
+    const curv = 1 / (2 * K * EARTH_RADIUS_M);
+    for (const [c, r] of [
+      [850, 100],
+      [1000, 130],
+      [1199, 60],
+      [1199, 199],
+    ]) {
+      // The ridge's steepest point is its near face top at x = 8 km along the ray (s = 800/c of d):
+      // LVH = H + d²·c + d·((Hr − H)/s − s·c) − ground (rule TM1 and TM5 geometry).
+      const d = Math.hypot(c, r - 100) * 10;
+      const s = (800 / c) * d;
+      const expected = 120 + d * d * curv + d * ((180 - 120) / s - s * curv) - 100;
+      expect(Math.abs(lv[r * 1200 + c] - expected)).toBeLessThanOrEqual(0.05);
+      const exact = rayMarchCell(input, c, r);
+      expect(Math.abs(exact.slope - h.horizonSlope[r * 1200 + c]) * d).toBeLessThanOrEqual(0.05);
+      expect(Math.abs(exact.obstacleDistanceM - s)).toBeLessThanOrEqual(1);
+    }
+  });
+
   it("[TM7] a cliff: plateau 60 m above the observer's plain, both sides agree with R3", () => {
     const g = grid(200, 160, 10, (c, r) => (c + 0.3 * r > 120 ? 260 : 200 + 0.01 * c));
     const input = inputAt(g, 40, 80, 10, "accurate");
