@@ -21,6 +21,9 @@ import type { SweepSetup } from "./terrainMask.ts";
  */
 const RAYS_PER_PERIMETER_CELL = 1;
 
+/** Crossing fractions at or above this are the next line's node (rounding margin of 1e-9 of a line). */
+const NODE_FRACTION_LIMIT = 1 - 1e-9;
+
 /** Major lines per band (the ray state stays in registers across a band). */
 const BAND = 32;
 
@@ -171,8 +174,10 @@ function advanceRays(
       const k1 = ((y + rayStep + 1) | 0) - 1;
       if (k1 !== k0) {
         const kk = Math.max(k1, k0);
-        if (kk >= 0 && kk <= minorLast) {
-          const g = (kk - y) * invRayStep;
+        const g = (kk - y) * invRayStep;
+        // g = 1 is the node on line m+1 itself (a cell centre, sampled there): only 0 ≤ g < 1 here,
+        // with a margin for the rounding of y + rayStep at exact nodes.
+        if (g < NODE_FRACTION_LIMIT && kk >= 0 && kk <= minorLast) {
           const ik = lineBase + kk * minorStride;
           const zp = z[ik];
           const zk = zp + (z[ik + majorStride] - zp) * g;

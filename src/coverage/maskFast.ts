@@ -167,6 +167,8 @@ function sweepRow(
           // Crosses column adx−1 between rows ady−1 (weight ady/adx) and ady.
           zp = (lastPrevH * ady + prevH * (adx - ady)) * inv[adx - 1];
           zo = 2 * ady < adx ? prevOd : lastPrevOd;
+          // The nearer neighbour saw nothing (nodata or footprint): the obstacle is the other one's.
+          if (Number.isNaN(zo)) zo = 2 * ady < adx ? lastPrevOd : prevOd;
         }
       } else if (adx === ady) {
         zp = adx === 1 ? NEG : lastPrevH * adx * inv[adx - 1];
@@ -175,7 +177,9 @@ function sweepRow(
         // Crosses row ady−1 between columns adx−1 (weight adx/ady) and adx.
         zp = (lastPrevH * adx + lastH * (ady - adx)) * inv[ady - 1];
         zo = 2 * adx < ady ? lastOdC : lastPrevOd;
+        if (Number.isNaN(zo)) zo = 2 * adx < ady ? lastPrevOd : lastOdC;
       }
+      if (!(zp > NEG)) zo = Number.NaN; // nothing obstructs: no obstacle distance
       const dM = Math.sqrt(d2) * cell;
       if (outDistanceM) outDistanceM[idx] = dM;
       if (!Number.isNaN(zc)) {

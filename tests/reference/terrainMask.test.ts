@@ -293,3 +293,25 @@ describe("[TM8] degenerate grids and out-of-domain numbers", () => {
     }
   });
 });
+
+describe("[TM6] obstacle distance", () => {
+  it("[TM6] the obstacle distance is NaN exactly where nothing obstructs and lies between observer and cell", () => {
+    const dem = syntheticDem({ width: 120, height: 90, cellSizeM: 10, seed: 4 });
+    for (let i = 0; i < 300; i++) dem.surface.data[(i * 7919) % (120 * 90)] = Number.NaN;
+    for (const mode of ["accurate", "fast"] as const) {
+      for (const ownFootprintRadiusM of [0, 35]) {
+        const input = { ...inputAt(dem.surface, 40, 50, 8, mode), ownFootprintRadiusM };
+        const h = computeHorizon(input);
+        for (let i = 0; i < h.horizonSlope.length; i++) {
+          const s = h.horizonSlope[i];
+          const od = h.obstacleDistanceM[i];
+          if (Number.isNaN(s) || s === Number.NEGATIVE_INFINITY) expect(Number.isNaN(od)).toBe(true);
+          else {
+            expect(od).toBeGreaterThan(ownFootprintRadiusM);
+            expect(od).toBeLessThan(h.distanceM[i]);
+          }
+        }
+      }
+    }
+  });
+});
