@@ -154,7 +154,12 @@ describe("output reuse", () => {
     const b = placed(m, cellXY(f, 90, 80), 140, { id: "b", boresightAzDeg: 300 });
     const site = siteOf(f, ground, [a, b]);
     const run = (radar: typeof a, reuse?: ReturnType<typeof radarCoverageFromHorizon>) => {
-      const kernel = buildRadarKernel({ radar, targets: site.targets, requirement: site.requirement, effectiveEarthFactor: 4 / 3 });
+      const kernel = buildRadarKernel({
+        radar,
+        targets: site.targets,
+        requirement: site.requirement,
+        effectiveEarthFactor: 4 / 3,
+      });
       const horizon = computeHorizon({
         surface: { ...f, data: site.surface },
         observerX: radar.x,
@@ -164,7 +169,12 @@ describe("output reuse", () => {
         maxRangeM: kernel.maxRangeM,
         mode: "accurate",
       });
-      return radarCoverageFromHorizon({ ...site, radar, effectiveEarthFactor: 4 / 3 }, kernel, horizon, reuse);
+      return radarCoverageFromHorizon(
+        { ...site, radar, effectiveEarthFactor: 4 / 3 },
+        kernel,
+        horizon,
+        reuse,
+      );
     };
     const fresh = run(b);
     const old = run(a);
