@@ -2,11 +2,17 @@
  * Coverage benchmark: the radar stage (SNR + Pd + reason for 4 heights, horizon given) in ns per cell,
  * and the full evaluation of a 10-radar, 3-height plan on 4 M cells (2048 × 2048 at 5 m, rough terrain
  * with buildings), single-threaded and on 2 Node worker_threads via comlink. Medians and spreads
- * (min–max) are printed, never asserted. Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|full]`.
+ * (min–max) are printed, never asserted; also `plan los` end to end against `gdal_viewshed -om GROUND`.
+ * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|full|los]`.
  */
+import { spawnSync } from "node:child_process";
+import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
 import { Worker } from "node:worker_threads";
 import * as Comlink from "comlink";
 import nodeEndpoint from "comlink/dist/esm/node-adapter.mjs";
+import { runPlan } from "../../src/cli/plan.ts";
 import {
   buildRadarKernel,
   type PlacedRadar,
@@ -16,6 +22,7 @@ import {
 import { evaluateSite, type PreparedSite, type RadarRunner } from "../../src/coverage/evaluate.ts";
 import type { RadarModel } from "../../src/coverage/radarModel.ts";
 import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts";
+import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
 import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
 import { demoRadar } from "../unit/coverageFixtures.ts";
 import type { CoverageWorkerApi } from "./coverageWorkerApi.ts";
@@ -246,13 +253,93 @@ async function benchFull(runs: number): Promise<void> {
   }
 }
 
-/** Prints the coverage figures; never asserts. `parts`: "stage", "full" (default both). */
-export async function run(parts: string[] = ["stage", "full"]): Promise<void> {
+/** Wall time of a command, ms, or NaN when it fails. */
+function timeCommand(cmd: string, args: string[]): number {
+  const t = performance.now();
+  const r = spawnSync(cmd, args, { stdio: "ignore" });
+  return r.status === 0 ? performance.now() - t : Number.NaN;
+}
+
+/**
+ * `plan los` end to end against `gdal_viewshed -om GROUND` on the same 4 M-cell DEM (GeoTIFF in and
+ * out, process start included), interleaved round by round; plus `plan los` in-process (no start-up).
+ */
+async function benchLos(runs: number): Promise<void> {
+  const have = spawnSync("gdal_viewshed", [], { stdio: "ignore" }).error === undefined;
+  const dem = syntheticDem({ width: SIDE, height: SIDE, cellSizeM: 10, seed: 7, buildings: 400 });
+  const dir = mkdtempSync(join(tmpdir(), "picket-los-bench-"));
+  try {
+    const demPath = join(dir, "dem.tif");
+    const frame = {
+      ...dem.surface,
+      originX: 500_000,
+      originY: 4_600_000,
+      crs: "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs",
+    };
+    writeFileSync(demPath, new Uint8Array(encodeGeoTiff({ data: dem.surface.data, frame })));
+    const x = frame.originX + 0.45 * SIDE * 10 + 5;
+    const y = frame.originY - 0.55 * SIDE * 10 - 5;
+    const losArgs = [
+      "los",
+      "--dem",
+      demPath,
+      "--at-xy",
+      `${x},${y}`,
+      "--mast-m",
+      "15",
+      "--out",
+      join(dir, "los.tif"),
+    ];
+    // GDAL's curvature coefficient for k = 4/3 (as in mask.bench.ts): cc = a_WGS84 / (k · a).
+    const cc = String(6_378_137 / ((4 / 3) * 6_371_000));
+    const gdalArgs = [
+      "-q",
+      "-om",
+      "GROUND",
+      "-oz",
+      "15",
+      "-ox",
+      String(x),
+      "-oy",
+      String(y),
+      "-cc",
+      cc,
+      demPath,
+      join(dir, "gdal.tif"),
+    ];
+    const cli: number[] = [];
+    const inProc: number[] = [];
+    const gdal: number[] = [];
+    await runPlan(losArgs); // warm-up
+    for (let r = 0; r < runs; r++) {
+      cli.push(timeCommand("npx", ["tsx", "src/cli/plan.ts", ...losArgs]));
+      let t = performance.now();
+      await runPlan(losArgs);
+      inProc.push(performance.now() - t);
+      if (have) gdal.push(timeCommand("gdal_viewshed", gdalArgs));
+      t = performance.now();
+    }
+    const c = stats(cli);
+    const i = stats(inProc);
+    let line = `plan los on ${SIDE * SIDE} cells (accurate): end to end ${fmt(c, 0)} ms, in-process ${fmt(i, 0)} ms`;
+    if (have) {
+      const g = stats(gdal);
+      line += `; gdal_viewshed -om GROUND ${fmt(g, 0)} ms; ratio gdal/ours ${(g.median / c.median).toFixed(2)} end to end, ${(g.median / i.median).toFixed(2)} in-process`;
+    } else line += "; gdal_viewshed not installed, comparison skipped";
+    console.log(`${line}; ${runs} rounds`);
+  } finally {
+    rmSync(dir, { recursive: true, force: true });
+  }
+}
+
+/** Prints the coverage figures; never asserts. `parts`: "stage", "full", "los" (default all). */
+export async function run(parts: string[] = ["stage", "full", "los"]): Promise<void> {
   if (parts.includes("stage")) {
     benchStage("rotating pulsed (kalvori-x9), 10 m cells", demoRadar("kalvori-x9"), 10, 7);
     benchStage("staring FMCW (mossbee-58), 0.5 m cells", demoRadar("mossbee-58"), 0.5, 7);
   }
   if (parts.includes("full")) await benchFull(5);
+  if (parts.includes("los")) await benchLos(5);
 }
 
 if (process.argv[1]?.endsWith("coverage.bench.ts")) {
