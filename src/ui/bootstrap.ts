@@ -7,7 +7,7 @@ import { restoreAutosave, startAutosave } from "./autosave";
 import { tileOrigin, useBasemap } from "./basemap";
 import { loadDemo } from "./demo";
 import { crashWorkerForTest, runEvaluation, scheduleEvaluation } from "./engine";
-import { say } from "./session";
+import { say, useSession } from "./session";
 import { redo, undo, usePlanStore } from "./store";
 
 function narrowImagePolicy(): void {
@@ -51,6 +51,11 @@ export async function bootstrap(): Promise<void> {
   });
   useAssets.subscribe((s, prev) => {
     if (s.dem !== prev.dem) scheduleEvaluation();
+  });
+  // The single-radar layer needs that radar's arrays (from the worker's cache: no recomputation).
+  useSession.subscribe((s, prev) => {
+    if (s.layer === "single" && (prev.layer !== "single" || s.singlePostId !== prev.singlePostId))
+      scheduleEvaluation();
   });
   window.addEventListener("keydown", (e) => {
     if (!(e.ctrlKey || e.metaKey) || isTyping(e.target)) return;

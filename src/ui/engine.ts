@@ -6,10 +6,17 @@
  */
 import type { Plan } from "../io/planSchema";
 import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
-import type { CoverageApi, DemPayload, EvaluateRequest, PointRequest } from "../workers/protocol";
+import type {
+  CoverageApi,
+  CoverageView,
+  DemPayload,
+  EvaluateRequest,
+  PointRequest,
+} from "../workers/protocol";
 import { useAssets } from "./assets";
 import { useCoverage } from "./coverageState";
-import { say } from "./session";
+import { selectedSlice } from "./selection";
+import { say, useSession } from "./session";
 import { usePlanStore } from "./store";
 
 let pool: WorkerPool<CoverageApi> | null = null;
@@ -42,6 +49,18 @@ export async function getPool(): Promise<WorkerPool<CoverageApi>> {
   return pool;
 }
 
+/** The terrain arrays last received, kept so that views of the same terrain need not carry them. */
+let terrain: { key: string; ground: Float32Array; obstruction: Float32Array } | null = null;
+
+function withTerrain(view: CoverageView): CoverageView {
+  if (view.groundAmslM.length > 0) {
+    terrain = { key: view.terrainKey, ground: view.groundAmslM, obstruction: view.obstructionTopAglM };
+    return view;
+  }
+  if (terrain?.key !== view.terrainKey) throw new Error("the coverage result came without its terrain");
+  return { ...view, groundAmslM: terrain.ground, obstructionTopAglM: terrain.obstruction };
+}
+
 const EVAL_SLOT = 0;
 const POINT_SLOT = -1;
 let generation = 0;
@@ -66,10 +85,13 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     plan,
     dem: demPayload(),
     ...(options.preview ? { maskMode: "fast" as const } : {}),
+    perRadarPostId: singleRadarShown(),
+    ...focusOf(),
+    ...(terrain ? { haveTerrainKey: terrain.key } : {}),
   };
   useCoverage.getState().set({ running: true, generation: g });
   try {
-    const view = await p.run("evaluate", g, "evaluate", [req], { slot: EVAL_SLOT });
+    const view = withTerrain(await p.run("evaluate", g, "evaluate", [req], { slot: EVAL_SLOT }));
     if (options.preview) useCoverage.getState().set({ preview: view, running: false, problem: null });
     else useCoverage.getState().set({ view, preview: null, running: false, problem: null });
   } catch (e) {
@@ -78,6 +100,22 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     if ((e as Error)?.name !== "WorkerCrashError")
       say("error", `The coverage could not be computed: ${errorText(e)}`);
   }
+}
+
+/** The class and height the map shows. */
+function focusOf(): { focus?: { classId: string; heightM: number } } {
+  const s = useSession.getState();
+  const view = useCoverage.getState().view;
+  const slice = selectedSlice(view, s.classId, s.heightM);
+  return slice ? { focus: { classId: slice.classId, heightM: slice.heightM } } : {};
+}
+
+/** The post whose own Pd the map shows (null unless the single-radar layer is on). */
+function singleRadarShown(): string | null {
+  const s = useSession.getState();
+  if (s.layer !== "single") return null;
+  const plan = usePlanStore.getState().plan;
+  return s.singlePostId ?? plan?.posts.find((p) => p.enabled)?.id ?? null;
 }
 
 let pending: ReturnType<typeof setTimeout> | null = null;

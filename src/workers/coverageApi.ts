@@ -4,13 +4,14 @@
  * (src/coverage/evaluate.ts) with a per-radar cache, so moving one post recomputes one radar.
  */
 import type { PlacedRadar, RadarCoverage } from "../coverage/coverage";
-import { evaluatePoint, evaluateSite, type PreparedSite } from "../coverage/evaluate";
+import { evaluatePoint, evaluateSite, type PreparedSite, siteTerrainId } from "../coverage/evaluate";
 import { linkBudget } from "../coverage/linkBudget";
 import { RadarResultCache } from "../coverage/radarCache";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
 import type { SiteGrid } from "../io/siteGrid";
 import { azimuthAndDistanceXY } from "./geometry";
+import { planKeyWithoutPlacement, previewSite } from "./preview";
 import { terrainProfile } from "./profile";
 import type {
   CoverageApi,
@@ -35,39 +36,81 @@ export class BadRequestError extends Error {
   override name = "BadRequestError";
 }
 
+/** The site limited to one class at one height (a preview computes only what the map shows). */
+function focusSite(site: PreparedSite, focus: { classId: string; heightM: number }): PreparedSite {
+  const target = site.targets.find((t) => t.id === focus.classId);
+  if (!target || !site.heightsAglM.includes(focus.heightM) || !target.heightsAglM.includes(focus.heightM))
+    return site;
+  return {
+    ...site,
+    targets: [{ ...target, heightsAglM: [focus.heightM] }],
+    heightsAglM: [focus.heightM],
+    requirement: {
+      ...site.requirement,
+      targetIds: site.requirement.targetIds.filter((id) => id === focus.classId),
+    },
+  };
+}
+
 export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | null } {
   const cache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
-  let prepared: { key: string; site: PreparedSite; warnings: string[]; grid: SiteGrid } | null = null;
+  let prepared: {
+    key: string;
+    placementFreeKey: string;
+    site: PreparedSite;
+    warnings: string[];
+    grid: SiteGrid;
+  } | null = null;
+
+  const parse = (planInput: unknown) => {
+    const parsed = parsePlan(planInput);
+    if (!parsed.ok) throw new BadRequestError(parsed.errors.map((e) => `${e.path}: ${e.message}`).join("; "));
+    return parsed.plan;
+  };
 
   const prepare = async (
     planInput: unknown,
     dem: DemPayload | null,
     maskMode?: "accurate" | "fast",
   ): Promise<PreparedSite> => {
-    const parsed = parsePlan(planInput);
-    if (!parsed.ok) {
-      throw new BadRequestError(parsed.errors.map((e) => `${e.path}: ${e.message}`).join("; "));
-    }
-    const plan = parsed.plan;
-    const key = JSON.stringify([plan, dem?.fileName ?? null, dem?.bytes.byteLength ?? 0]);
+    const plan = parse(planInput);
+    const demKey = [dem?.fileName ?? null, dem?.bytes.byteLength ?? 0];
+    const key = JSON.stringify([plan, demKey]);
+    const placementFreeKey = JSON.stringify([planKeyWithoutPlacement(plan), demKey]);
     let current = prepared;
-    if (current?.key !== key) {
-      const p = await preparePlan(plan, dem ? { fileName: dem.fileName, data: dem.bytes } : undefined);
-      current = { key, site: p.site, warnings: p.warnings, grid: p.grid };
-      prepared = current;
+    if (current?.key === key) return maskMode ? { ...current.site, maskMode } : current.site;
+    if (maskMode === "fast" && current) {
+      const quick = previewSite(plan, { ...current, placementFreeKey: current.placementFreeKey });
+      if (quick && placementFreeKey === current.placementFreeKey) return quick;
     }
-    return maskMode ? { ...current.site, maskMode } : current.site;
+    const p = await preparePlan(plan, dem ? { fileName: dem.fileName, data: dem.bytes } : undefined);
+    const site: PreparedSite = { ...p.site, terrainId: siteTerrainId(p.site) };
+    current = { key, placementFreeKey, site, warnings: p.warnings, grid: p.grid };
+    prepared = current;
+    return maskMode ? { ...site, maskMode } : site;
   };
 
   return {
     lastSite: () => prepared?.site ?? null,
     async evaluate(req: EvaluateRequest): Promise<CoverageView> {
       const t0 = now();
-      const site = await prepare(req.plan, req.dem, req.maskMode);
+      const full = await prepare(req.plan, req.dem, req.maskMode);
+      const site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
       const result = await evaluateSite(site, { cache, mode: site.maskMode });
       const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
       if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
-      return cloneView(toCoverageView(req.generation, site, result, notes, now() - t0));
+      const terrainKey = site.terrainId ?? siteTerrainId(site);
+      const withTerrain = terrainKey !== req.haveTerrainKey;
+      return cloneView(
+        toCoverageView(site, result, {
+          generation: req.generation,
+          notes,
+          elapsedMs: now() - t0,
+          terrainKey,
+          withTerrain,
+          perRadarPostId: req.perRadarPostId ?? null,
+        }),
+      );
     },
     async point(req: PointRequest): Promise<PointReply> {
       if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg)))

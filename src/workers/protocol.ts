@@ -20,6 +20,15 @@ export interface EvaluateRequest {
   dem: DemPayload | null;
   /** "fast" for previews while dragging; "accurate" otherwise (the plan's own setting when absent). */
   maskMode?: "accurate" | "fast";
+  /** The post whose single-radar Pd the map shows; only its per-radar arrays are sent (null: none). */
+  perRadarPostId?: string | null;
+  /** The terrainKey whose ground arrays the caller holds; they are not sent again. */
+  haveTerrainKey?: string;
+  /**
+   * The class and height shown on the map. A preview (maskMode "fast") computes only this slice; a full
+   * run computes every slice and outlines the gaps of this one.
+   */
+  focus?: { classId: string; heightM: number };
 }
 
 /** One target class at one height, fused over all enabled radars. */
@@ -32,7 +41,10 @@ export interface CoverageSlice {
   overlap: Uint8Array;
   /** 1 where a cell of the protected area or approach ring is below the required Pd. */
   gap: Uint8Array;
-  /** Per radar (order of CoverageView.radarPostIds), Pd per cell. */
+  /**
+   * Per radar (order of CoverageView.radarPostIds), Pd per cell; only the requested radar's array is
+   * filled, the others are empty (length 0).
+   */
   perRadarPd: Float32Array[];
   metrics: HeightMetrics;
 }
@@ -40,9 +52,14 @@ export interface CoverageSlice {
 export interface CoverageView {
   generation: number;
   frame: GridFrame;
-  /** Ground elevation above sea level per cell, m (NaN nodata), for the hillshade. */
+  /** Identity of the terrain rasters (ground, surface, obstruction tops) and frame. */
+  terrainKey: string;
+  /**
+   * Ground elevation above sea level per cell, m (NaN nodata), for the hillshade. Empty (length 0)
+   * when the terrain is the one sent before (same terrainKey): the receiver keeps the previous array.
+   */
   groundAmslM: Float32Array;
-  /** Obstruction (roof or canopy) top above ground per cell, m (0 where none). */
+  /** Obstruction (roof or canopy) top above ground per cell, m (0 where none); empty like groundAmslM. */
   obstructionTopAglM: Float32Array;
   /** Lowest visible height above ground per cell over all enabled radars, m (Infinity where none sees it). */
   lowestVisibleAglM: Float32Array;
@@ -143,5 +160,5 @@ export function viewTransferables(v: CoverageView): Transferable[] {
     list.push(s.combinedPd.buffer, s.overlap.buffer, s.gap.buffer);
     for (const p of s.perRadarPd) list.push(p.buffer);
   }
-  return [...new Set(list)] as Transferable[];
+  return [...new Set(list)].filter((b) => b.byteLength > 0) as Transferable[];
 }

@@ -5,18 +5,24 @@
 import type { PreparedSite, SiteResult } from "../coverage/evaluate";
 import type { CoverageSlice, CoverageView } from "./protocol";
 
-export function toCoverageView(
-  generation: number,
-  site: PreparedSite,
-  result: SiteResult,
-  notes: string[],
-  elapsedMs: number,
-): CoverageView {
+export interface ViewOptions {
+  generation: number;
+  notes: string[];
+  elapsedMs: number;
+  terrainKey: string;
+  /** Send the ground and obstruction arrays (false when the receiver has them for this terrainKey). */
+  withTerrain: boolean;
+  /** The one radar whose Pd arrays are sent. */
+  perRadarPostId: string | null;
+}
+
+export function toCoverageView(site: PreparedSite, result: SiteResult, o: ViewOptions): CoverageView {
   const slices: CoverageSlice[] = [];
   result.targets.forEach((t, ti) => {
     for (const h of t.heights) {
       const k = result.heightsAglM.indexOf(h.heightAglM);
       const perRadarPd = result.radars.map((r) => {
+        if (r.radarId !== o.perRadarPostId) return new Float32Array(0);
         const pd = r.heights[k]?.targets[ti]?.pd;
         return pd ?? new Float32Array(h.combinedPd.length);
       });
@@ -32,22 +38,27 @@ export function toCoverageView(
     }
   });
   return {
-    generation,
+    generation: o.generation,
     frame: result.frame,
-    groundAmslM: site.ground,
-    obstructionTopAglM: site.obstructionTopAglM,
+    terrainKey: o.terrainKey,
+    groundAmslM: o.withTerrain ? site.ground : new Float32Array(0),
+    obstructionTopAglM: o.withTerrain ? site.obstructionTopAglM : new Float32Array(0),
     lowestVisibleAglM: result.lowestVisibleHeightAglM,
     heightsM: [...result.heightsAglM],
     classIds: result.targets.map((t) => t.targetId),
     radarPostIds: [...result.radarIds],
     slices,
     maskMode: site.maskMode,
-    notes,
-    elapsedMs,
+    notes: o.notes,
+    elapsedMs: o.elapsedMs,
   };
 }
 
-/** Copies a view so that transferring it leaves the worker's cached arrays intact. */
+/**
+ * Copies the arrays of a view that the worker keeps (cached per-radar Pd, the site's terrain) so that
+ * transferring the view leaves its caches intact; the fused arrays are new in every run and move as
+ * they are.
+ */
 export function cloneView(v: CoverageView): CoverageView {
   const copies = new Map<ArrayBufferView, ArrayBufferView>();
   const c = <T extends Float32Array | Uint8Array>(a: T): T => {
@@ -62,13 +73,6 @@ export function cloneView(v: CoverageView): CoverageView {
     ...v,
     groundAmslM: c(v.groundAmslM),
     obstructionTopAglM: c(v.obstructionTopAglM),
-    lowestVisibleAglM: c(v.lowestVisibleAglM),
-    slices: v.slices.map((s) => ({
-      ...s,
-      combinedPd: c(s.combinedPd),
-      overlap: c(s.overlap),
-      gap: c(s.gap),
-      perRadarPd: s.perRadarPd.map(c),
-    })),
+    slices: v.slices.map((s) => ({ ...s, perRadarPd: s.perRadarPd.map(c) })),
   };
 }

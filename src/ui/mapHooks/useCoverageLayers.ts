@@ -17,6 +17,7 @@ export function useCoverageLayers(map: L.Map | null): void {
   useMapLayer(map, coverage);
   useMapLayer(map, gaps);
   const view = useCoverage(shownView);
+  const previewing = useCoverage((s) => s.preview !== null);
   const { layer, heightM, classId, singlePostId, showGaps } = useSession();
   const slice = selectedSlice(view, classId, heightM);
   const frame = view?.frame;
@@ -36,7 +37,12 @@ export function useCoverageLayers(map: L.Map | null): void {
     else if (layer === "lowest") values = view.lowestVisibleAglM;
     else if (layer === "single") {
       const k = Math.max(0, view.radarPostIds.indexOf(singlePostId ?? view.radarPostIds[0]));
-      values = slice.perRadarPd[k] ?? slice.combinedPd;
+      values = slice.perRadarPd[k] ?? new Float32Array(0);
+    }
+    if (values.length !== frame.width * frame.height) {
+      // The chosen radar's arrays are on their way (a run was scheduled when the layer changed).
+      coverage.setPaint(null);
+      return;
     }
     coverage.setPaint({
       frame,
@@ -52,6 +58,7 @@ export function useCoverageLayers(map: L.Map | null): void {
       gaps.setGaps(null, null, null, []);
       return;
     }
-    gaps.setGaps(frame, forward, slice.gap, gapOutlines(slice.gap, frame, inverse));
-  }, [slice, frame, forward, inverse, showGaps, gaps]);
+    // While dragging, the hatching follows at once; outlines and their areas come with the accurate run.
+    gaps.setGaps(frame, forward, slice.gap, previewing ? [] : gapOutlines(slice.gap, frame, inverse));
+  }, [slice, frame, forward, inverse, showGaps, gaps, previewing]);
 }

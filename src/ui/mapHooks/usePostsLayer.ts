@@ -108,6 +108,17 @@ export function usePostsLayer(map: L.Map | null): void {
               "info",
               `${post.name} is on a roof ${roof.heightM} m high: mounted at ${mast} m above ground (roof + ${ROOF_MAST_M} m mast). Change it under Posts.`,
             );
+          } else if (!roof && post?.mounting === "roof") {
+            usePlanStore
+              .getState()
+              .change(
+                (p) => updatePost(p, id, { position: { lonDeg, latDeg }, mounting: "ground" }),
+                "move post off a roof",
+              );
+            say(
+              "info",
+              `${post.name} is no longer on a building: now a ground mast of ${post.mastHeightM} m. Check the mast height under Posts.`,
+            );
           } else {
             usePlanStore
               .getState()

@@ -1,0 +1,171 @@
+/**
+ * Browser responsiveness of the planner (prints, never asserts): the production build in headless
+ * Chromium on the demo site scaled to about 1 million cells with 8 radars and 3 heights.
+ *   - drag preview: coverage updates shown per second while a post is dragged (fast masking);
+ *   - release: time from releasing the post to the accurate layers and summary;
+ *   - main thread: long tasks (> 50 ms) observed during the drag.
+ * Then the same plan at about 16 million cells (refused or timed, as the engine decides).
+ * Run: npx tsx tests/bench/browser.bench.ts
+ */
+import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { tmpdir } from "node:os";
+import { join } from "node:path";
+import type { Page } from "playwright-core";
+import type { Plan } from "../../src/io/planSchema";
+import { siteGridFrame } from "../../src/io/siteGrid";
+import { browserAvailable, ROOT, startHarness } from "../e2e/harness";
+
+const DRAG_STEPS = 30;
+const DRAG_STEP_MS = 100;
+
+function scaledPlan(targetCells: number): Plan {
+  const plan = JSON.parse(readFileSync(join(ROOT, "demo-sites/ridge-waterworks/plan.json"), "utf8")) as Plan;
+  const g = siteGridFrame({ ...plan, analysis: { ...plan.analysis, cellSizeM: 10 } });
+  const areaM2 = g.frame.width * g.frame.height * 100;
+  const cell = Math.sqrt(areaM2 / targetCells);
+  plan.analysis = { ...plan.analysis, cellSizeM: Math.round(cell * 100) / 100 };
+  let enabled = 0;
+  plan.posts = plan.posts.map((p) => ({ ...p, enabled: enabled++ < 8 }));
+  plan.site = { ...plan.site, name: `${plan.site.name} at ${(targetCells / 1e6).toFixed(0)} M cells` };
+  return plan;
+}
+
+async function status(page: Page): Promise<string> {
+  return (await page.getByTestId("run-status").textContent()) ?? "";
+}
+
+async function generation(page: Page): Promise<number> {
+  return Number(
+    (await page
+      .getByTestId("summary")
+      .getAttribute("data-generation")
+      .catch(() => "0")) ?? 0,
+  );
+}
+
+async function openPlan(page: Page, plan: Plan, dir: string): Promise<number> {
+  const file = join(dir, `bench-${plan.analysis.cellSizeM}.json`);
+  writeFileSync(file, JSON.stringify(plan));
+  const before = await generation(page);
+  const t0 = Date.now();
+  await page.getByTestId("import-input").setInputFiles(file);
+  await page.waitForFunction(
+    ({ name, before }) => {
+      const st = document.querySelector('[data-testid="run-status"]')?.textContent ?? "";
+      const gen = Number(
+        document.querySelector('[data-testid="summary"]')?.getAttribute("data-generation") ?? 0,
+      );
+      return (
+        document.querySelector('[data-testid="site-name"]')?.textContent === name &&
+        !/Computing/.test(st) &&
+        (/Not computed/.test(st) || gen > before)
+      );
+    },
+    { name: plan.site.name, before },
+    { timeout: 300_000 },
+  );
+  return Date.now() - t0;
+}
+
+async function dragOnce(page: Page) {
+  await page.evaluate(() => {
+    const w = window as unknown as { __long: number[]; __gens: number[] };
+    w.__long = [];
+    w.__gens = [];
+    new PerformanceObserver((l) => {
+      for (const e of l.getEntries()) w.__long.push(e.duration);
+    }).observe({ type: "longtask", buffered: false });
+    const s = document.querySelector('[data-testid="summary"]');
+    new MutationObserver(() => {
+      const g = Number(document.querySelector('[data-testid="summary"]')?.getAttribute("data-generation"));
+      w.__gens.push(performance.now() + g * 0);
+    }).observe(s?.parentElement ?? document.body, {
+      attributes: true,
+      subtree: true,
+      attributeFilter: ["data-generation"],
+    });
+  });
+  await page.getByTestId("tab-posts").click();
+  const marker = page.locator(".post-mark").nth(4);
+  const b = await marker.boundingBox();
+  if (!b) throw new Error("no post on screen");
+  const x0 = b.x + b.width / 2;
+  const y0 = b.y + b.height / 2;
+  await page.mouse.move(x0, y0);
+  await page.mouse.down();
+  const tDrag = Date.now();
+  for (let k = 1; k <= DRAG_STEPS; k++) {
+    await page.mouse.move(x0 + k * 3, y0 + Math.sin(k / 3) * 20);
+    await page.waitForTimeout(DRAG_STEP_MS);
+  }
+  const dragS = (Date.now() - tDrag) / 1000;
+  const updates = await page.evaluate(() => (window as unknown as { __gens: number[] }).__gens.length);
+  const tUp = await page.evaluate(() => performance.now());
+  await page.mouse.up();
+  await page.waitForFunction(
+    (t) => {
+      const s = document.querySelector('[data-testid="summary"]');
+      return (
+        s?.getAttribute("data-mask-mode") === "accurate" &&
+        (window as unknown as { __gens: number[] }).__gens.some((g) => g > t)
+      );
+    },
+    tUp,
+    { timeout: 120_000 },
+  );
+  const releaseMs = await page.evaluate(
+    (t) => Math.max(...(window as unknown as { __gens: number[] }).__gens.filter((g) => g > t)) - t,
+    tUp,
+  );
+  const longTasks = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
+  return { updatesPerS: updates / dragS, releaseMs, longTasks };
+}
+
+async function main() {
+  if (!browserAvailable()) return;
+  const dir = mkdtempSync(join(tmpdir(), "picket-bench-"));
+  const h = await startHarness();
+  try {
+    const page = h.page;
+    await page.goto(h.baseUrl);
+    await page.waitForFunction(
+      () => /Computed in/.test(document.querySelector('[data-testid="run-status"]')?.textContent ?? ""),
+      null,
+      {
+        timeout: 120_000,
+      },
+    );
+    const hint = page.getByTestId("hint-dismiss");
+    if (await hint.count()) await hint.click();
+    console.log(
+      `cores (navigator.hardwareConcurrency): ${await page.evaluate(() => navigator.hardwareConcurrency)}`,
+    );
+    for (const cells of [1e6, 16e6]) {
+      const plan = scaledPlan(cells);
+      const g = siteGridFrame(plan);
+      const openMs = await openPlan(page, plan, dir);
+      const st = await status(page);
+      console.log(
+        `\n${(g.cellCount / 1e6).toFixed(2)} M cells (${g.frame.width} × ${g.frame.height} of ${plan.analysis.cellSizeM} m), 8 radars, ${plan.analysis.targetHeightsM.length} heights`,
+      );
+      console.log(`  open and first accurate run: ${openMs} ms wall (${st.trim()})`);
+      if (!/Computed in/.test(st)) continue;
+      const d = await dragOnce(page);
+      const over = d.longTasks.filter((t) => t > 50);
+      console.log(`  drag preview: ${d.updatesPerS.toFixed(1)} updates/s (target ≥ 10 on 1 M cells)`);
+      console.log(
+        `  release → accurate layers and summary: ${d.releaseMs.toFixed(0)} ms (target < 150 ms on 1 M cells, < 1 s on 16 M)`,
+      );
+      console.log(
+        `  main-thread long tasks during the drag: ${over.length} over 50 ms${over.length ? ` (longest ${Math.max(...over).toFixed(0)} ms)` : ""}`,
+      );
+    }
+  } finally {
+    await h.stop();
+  }
+}
+
+main().catch((e) => {
+  console.error(e);
+  process.exitCode = 1;
+});
