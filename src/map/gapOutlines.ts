@@ -1,59 +1,48 @@
 /**
- * Outlines of the gaps (d3-contour on the 0/1 gap raster, threshold ½), as lon/lat polygons with their
- * areas in m² on the metric grid (shoelace on the outline in grid metres, holes subtracted). Contours
- * follow cell edges, so the area equals the gap's cell count × cell area.
+ * Gap outlines for the map: polygons in grid metres (src/workers/gapContours.ts) turned into Leaflet
+ * [lat, lon] rings with a label point and their area.
  */
-import { contours } from "d3-contour";
 import type { GridFrame } from "../coverage/grid";
+import { type GapPolygonXY, gapPolygonsXY } from "../workers/gapContours";
 
 export interface GapOutline {
   /** Rings as [lat, lon] (Leaflet order): outer first, then holes. */
   rings: [number, number][][];
   areaM2: number;
-  /** A point inside for the label, [lat, lon]. */
+  /** A point for the label, [lat, lon]. */
   labelAt: [number, number];
 }
 
-function ringAreaM2(ring: number[][], cellSizeM: number): number {
-  let s = 0;
-  for (let i = 0, j = ring.length - 1; i < ring.length; j = i++) {
-    s += (ring[j][0] + ring[i][0]) * (ring[j][1] - ring[i][1]);
-  }
-  return Math.abs(s / 2) * cellSizeM * cellSizeM;
+/** Converts polygons in grid metres to map outlines. */
+export function outlinesToLatLng(
+  polygons: GapPolygonXY[],
+  toLonLat: (x: number, y: number) => [number, number],
+): GapOutline[] {
+  return polygons.map((p) => {
+    const rings = p.rings.map((flat) => {
+      const ring: [number, number][] = [];
+      for (let i = 0; i + 1 < flat.length; i += 2) {
+        const [lon, lat] = toLonLat(flat[i], flat[i + 1]);
+        ring.push([lat, lon]);
+      }
+      return ring;
+    });
+    // Label at the outer ring's vertex mean (inside for the compact shapes gaps mostly have).
+    const outer = rings[0];
+    const lat = outer.reduce((a, q) => a + q[0], 0) / outer.length;
+    const lon = outer.reduce((a, q) => a + q[1], 0) / outer.length;
+    return { rings, areaM2: p.areaM2, labelAt: [lat, lon] as [number, number] };
+  });
 }
 
-/** Gap outlines, largest first, at most `limit` of them. */
+/** Gap outlines computed here (used when the worker did not send them for the shown slice). */
 export function gapOutlines(
   gap: Uint8Array,
   frame: GridFrame,
   toLonLat: (x: number, y: number) => [number, number],
   limit = 200,
 ): GapOutline[] {
-  const values = new Float64Array(gap.length);
-  for (let i = 0; i < gap.length; i++) values[i] = gap[i];
-  const [multi] = contours().size([frame.width, frame.height]).thresholds([0.5]).smooth(false)(
-    values as unknown as number[],
-  );
-  const out: GapOutline[] = [];
-  for (const polygon of multi.coordinates) {
-    const areaM2 = polygon.reduce(
-      (acc, ring, k) => acc + (k === 0 ? 1 : -1) * ringAreaM2(ring, frame.cellSizeM),
-      0,
-    );
-    const rings = polygon.map((ring) =>
-      ring.map(([c, r]) => {
-        const [lon, lat] = toLonLat(frame.originX + c * frame.cellSizeM, frame.originY - r * frame.cellSizeM);
-        return [lat, lon] as [number, number];
-      }),
-    );
-    // Label at the outer ring's vertex mean (inside for the compact shapes gaps mostly have).
-    const outer = rings[0];
-    const lat = outer.reduce((a, p) => a + p[0], 0) / outer.length;
-    const lon = outer.reduce((a, p) => a + p[1], 0) / outer.length;
-    out.push({ rings, areaM2, labelAt: [lat, lon] });
-  }
-  out.sort((a, b) => b.areaM2 - a.areaM2);
-  return out.slice(0, limit);
+  return outlinesToLatLng(gapPolygonsXY(gap, frame, limit), toLonLat);
 }
 
 /** An area for a label: m² below 1 ha, else hectares. */

@@ -10,6 +10,7 @@ import { RadarResultCache } from "../coverage/radarCache";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
 import type { SiteGrid } from "../io/siteGrid";
+import { gapPolygonsXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planKeyWithoutPlacement, previewSite } from "./preview";
 import { terrainProfile } from "./profile";
@@ -101,7 +102,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
       const terrainKey = site.terrainId ?? siteTerrainId(site);
       const withTerrain = terrainKey !== req.haveTerrainKey;
-      return cloneView(
+      const view = cloneView(
         toCoverageView(site, result, {
           generation: req.generation,
           notes,
@@ -111,6 +112,13 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           perRadarPostId: req.perRadarPostId ?? null,
         }),
       );
+      if (site.maskMode !== "fast" || !req.focus) {
+        const focused = view.slices.find(
+          (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
+        );
+        if (focused) focused.gapPolygons = gapPolygonsXY(focused.gap, view.frame);
+      }
+      return view;
     },
     async point(req: PointRequest): Promise<PointReply> {
       if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg)))

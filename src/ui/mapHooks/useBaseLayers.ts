@@ -2,7 +2,7 @@
  * The offline basemap: a hillshade of the site's ground (drawn from the DEM, or flat grey without one),
  * a graticule, and, only when the user set one, their tile server with its attribution.
  */
-import { useEffect, useMemo } from "react";
+import { useEffect, useMemo, useRef } from "react";
 import { GraticuleLayer } from "../../map/graticuleLayer";
 import { greyTable, hillshadeIndices } from "../../map/hillshade";
 import L from "../../map/leaflet";
@@ -18,10 +18,14 @@ export function useBaseLayers(map: L.Map | null, view: CoverageView | null): voi
   useMapLayer(map, hillshade);
   useMapLayer(map, graticule);
   const ground = view?.groundAmslM;
-  const frame = view?.frame;
+  // The frame object is new with every view; the hillshade only changes with the terrain.
+  const terrainKey = view?.terrainKey;
+  const frameRef = useRef(view?.frame);
+  frameRef.current = view?.frame;
   const table = useMemo(() => greyTable(), []);
   useEffect(() => {
-    if (!ground || !frame) return;
+    const frame = frameRef.current;
+    if (!ground || !frame || !terrainKey) return;
     hillshade.setPaint({
       frame,
       forward: forwardTo(frame.crs),
@@ -29,7 +33,7 @@ export function useBaseLayers(map: L.Map | null, view: CoverageView | null): voi
       table,
       pattern: "fill",
     });
-  }, [ground, frame, hillshade, table]);
+  }, [ground, terrainKey, hillshade, table]);
   const server = useBasemap((s) => s.server);
   const tiles = useMemo(() => (server ? tileLayerOf(server) : null), [server]);
   useMapLayer(map, tiles);

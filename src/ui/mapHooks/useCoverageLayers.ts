@@ -1,7 +1,7 @@
 /** The coverage raster and the gap layer for the selected layer, class and height. */
 import { useEffect, useMemo } from "react";
 import { GapLayer } from "../../map/gapLayer";
-import { gapOutlines } from "../../map/gapOutlines";
+import { gapOutlines, outlinesToLatLng } from "../../map/gapOutlines";
 import type L from "../../map/leaflet";
 import { forwardTo, inverseFrom } from "../../map/pixelToGrid";
 import { quantise, RasterLayer } from "../../map/rasterLayer";
@@ -21,8 +21,9 @@ export function useCoverageLayers(map: L.Map | null): void {
   const { layer, heightM, classId, singlePostId, showGaps } = useSession();
   const slice = selectedSlice(view, classId, heightM);
   const frame = view?.frame;
-  const forward = useMemo(() => (frame ? forwardTo(frame.crs) : null), [frame?.crs, frame]);
-  const inverse = useMemo(() => (frame ? inverseFrom(frame.crs) : null), [frame?.crs, frame]);
+  const crs = frame?.crs;
+  const forward = useMemo(() => (crs ? forwardTo(crs) : null), [crs]);
+  const inverse = useMemo(() => (crs ? inverseFrom(crs) : null), [crs]);
 
   useEffect(() => {
     if (!view || !slice || !frame || !forward) {
@@ -59,6 +60,11 @@ export function useCoverageLayers(map: L.Map | null): void {
       return;
     }
     // While dragging, the hatching follows at once; outlines and their areas come with the accurate run.
-    gaps.setGaps(frame, forward, slice.gap, previewing ? [] : gapOutlines(slice.gap, frame, inverse));
+    const outlines = previewing
+      ? []
+      : slice.gapPolygons
+        ? outlinesToLatLng(slice.gapPolygons, inverse)
+        : gapOutlines(slice.gap, frame, inverse);
+    gaps.setGaps(frame, forward, slice.gap, outlines);
   }, [slice, frame, forward, inverse, showGaps, gaps, previewing]);
 }
