@@ -239,6 +239,12 @@ function checkCancel(opts: EvaluateOptions): void {
   if (opts.signal?.aborted || opts.shouldCancel?.()) throw new CancelledError();
 }
 
+/** Resolve on a later turn of the event loop (a zero-delay timer: browsers, workers and Node all have one). */
+function yieldToEventLoop(): Promise<void> {
+  const timer = (globalThis as { setTimeout?: (fn: () => void, ms: number) => unknown }).setTimeout;
+  return new Promise((resolve) => (timer ? timer(resolve, 0) : resolve()));
+}
+
 /** Milliseconds from a monotonic clock where there is one (browsers, workers, Node), else Date.now(). */
 function now(): number {
   const perf = (globalThis as { performance?: { now(): number } }).performance;
@@ -255,6 +261,7 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   const t0 = now();
   const mode = opts.mode ?? site.maskMode;
   const runRadar: RadarRunner = opts.runRadar ?? (async (s, i, m) => computeRadarCoverage(s, i, m));
+
   const terrainId = siteTerrainId(site);
   const total = site.radars.length;
   const computedRadarIds: string[] = [];
@@ -262,30 +269,41 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   let done = 0;
   checkCancel(opts);
   opts.onProgress?.({ stage: "radars", done: 0, total });
-  const radars = await Promise.all(
-    site.radars.map(async (radar, i) => {
-      const key = opts.cache ? radarKey(site, i, mode, terrainId) : "";
-      const cached = opts.cache?.get(key);
-      let result: RadarCoverage;
-      if (cached !== undefined) {
-        opts.cache!.hits++;
-        cachedRadarIds.push(radar.id);
-        result = cached;
-      } else {
-        checkCancel(opts);
-        result = await runRadar(site, i, mode);
-        checkCancel(opts);
-        computedRadarIds.push(radar.id);
-        if (opts.cache) {
-          opts.cache.computed++;
-          opts.cache.set(key, result);
-        }
+  const one = async (radar: PlacedRadar, i: number): Promise<RadarCoverage> => {
+    const key = opts.cache ? radarKey(site, i, mode, terrainId) : "";
+    const cached = opts.cache?.get(key);
+    let result: RadarCoverage;
+    if (cached !== undefined) {
+      opts.cache!.hits++;
+      cachedRadarIds.push(radar.id);
+      result = cached;
+    } else {
+      checkCancel(opts);
+      result = await runRadar(site, i, mode);
+      checkCancel(opts);
+      computedRadarIds.push(radar.id);
+      if (opts.cache) {
+        opts.cache.computed++;
+        opts.cache.set(key, result);
       }
-      done++;
-      opts.onProgress?.({ stage: "radars", done, total, radarId: radar.id });
-      return result;
-    }),
-  );
+    }
+    done++;
+    opts.onProgress?.({ stage: "radars", done, total, radarId: radar.id });
+    return result;
+  };
+  let radars: RadarCoverage[];
+  if (opts.runRadar) {
+    // Workers: all radars in flight together.
+    radars = await Promise.all(site.radars.map(one));
+  } else {
+    // In this thread: one radar at a time, yielding between them so progress can be drawn and a
+    // cancel request (a message, a timer) can arrive.
+    radars = [];
+    for (let i = 0; i < site.radars.length; i++) {
+      radars.push(await one(site.radars[i], i));
+      if (i + 1 < site.radars.length) await yieldToEventLoop();
+    }
+  }
   const t1 = now();
 
   const n = site.frame.width * site.frame.height;

@@ -108,3 +108,20 @@ describe("evaluateSite", () => {
     expect(() => evaluatePoint(s, { x: x5, y: y5 }, -5)).toThrow(/heightAglM/);
   });
 });
+
+describe("cancel between radars", () => {
+  it("[EV4] a cancel raised while the first radar runs stops the run before the second (inline runner)", async () => {
+    const s = site();
+    let cancel = false;
+    const progress: number[] = [];
+    const run = evaluateSite(s, {
+      shouldCancel: () => cancel,
+      onProgress: (p) => {
+        if (p.stage === "radars") progress.push(p.done);
+        if (p.stage === "radars" && p.done === 1) cancel = true;
+      },
+    });
+    await expect(run).rejects.toBeInstanceOf(CancelledError);
+    expect(progress).toEqual([0, 1]);
+  });
+});
