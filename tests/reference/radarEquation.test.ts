@@ -32,6 +32,7 @@ import {
   maxUnambiguousVelocityMPerS,
   noiseBandwidthHz,
   rangeResolutionM,
+  signalBandwidthHz,
   unambiguousRangeM,
   velocityResolutionMPerS,
   wavelengthM,
@@ -320,5 +321,136 @@ describe("[RE3] a radar model to radar-equation parameters", () => {
     expect(p.rxGainDbi).toBe(16);
     expect(snrConstant(p)).toBeCloseTo(snrConstant({ ...p, rxGainDbi: 16 }), 12);
     expect(snrAtRange(p, 1000)).toBeGreaterThan(0);
+  });
+});
+
+describe("[RE9] textbook worked examples reproduced term by term", () => {
+  /** The link-budget rows of p at rangeM by id, dB in each row's own unit. */
+  function rowValues(p: RadarEquationParams, rangeM: number): Record<string, number> {
+    return Object.fromEntries(linkBudget(p, rangeM).rows.map((r) => [r.id, r.valueDb]));
+  }
+  /** Shift of every noise term, dB, between the exact Boltzmann constant and the 1.38e-23 J/K books print. */
+  const bookBoltzmannShiftDb = linearToDb(BOLTZMANN_J_PER_K / 1.38e-23);
+
+  // B. R. Mahafza and A. Z. Elsherbeni, MATLAB Simulations for Radar Systems Design, Chapman & Hall/CRC,
+  // 2004: worked solution of a pulsed-radar design in the detection chapter (the one that calls marcumsq;
+  // chapter 2 from memory, book page not shown in the copy read), radar equation Eq. (1.56) solved for Pt.
+  // Printed numbers: R_u = 12 km → f_r = 12.5 kHz; B = 2 MHz → τ = 1/B = 0.5 µs; required SNR
+  // 10^1.385 (13.85 dB); Pt = 10^1.385·(4π)³·12000⁴·1.38e-23·290·2e6·6.309·2.511 / (5000²·0.2²·1)
+  // = 126.61 W. So G = 5000, λ = 0.2 m, σ = 1 m², F = 6.309, L = 2.511, k = 1.38e-23 J/K.
+  const mahafza: RadarEquationParams = {
+    peakPowerW: 126.61,
+    pulseDurationS: 0.5e-6,
+    pulsesIntegrated: 1,
+    frequencyHz: SPEED_OF_LIGHT_M_PER_S / 0.2,
+    txGainDbi: linearToDb(5000),
+    rxGainDbi: linearToDb(5000),
+    rcsM2: 1,
+    noiseFigureDb: linearToDb(6.309),
+    systemLossDb: linearToDb(2.511),
+    noiseBandwidthHz: 2e6,
+  };
+  const mahafzaRangeM = 12e3;
+
+  it("[RE9][RE8] Mahafza & Elsherbeni (2004): the printed f_r = 12.5 kHz and τ = 0.5 µs", () => {
+    const w: PulsedWaveform = { kind: "pulsed", pulseWidthS: 0.5e-6, prfHz: 12.5e3, pulsesIntegrated: 1 };
+    // τ = 1/B: an uncompressed 0.5 µs pulse has B = 2 MHz, the book's bandwidth (exact arithmetic).
+    expect(Math.abs(signalBandwidthHz(w) - 2e6)).toBeLessThan(1e-6);
+    expect(noiseBandwidthHz(w)).toBe(signalBandwidthHz(w));
+    // f_r = c/(2·R_u) with the book's c = 3e8 m/s: at 12.5 kHz exact c gives R_u = 11 991.7 m, 0.07 % short.
+    expect(Math.abs(unambiguousRangeM(w) - mahafzaRangeM)).toBeLessThan(10);
+  });
+
+  it("[RE9][RE5] Mahafza & Elsherbeni (2004): each link-budget row equals the book's printed factor in dB", () => {
+    const v = rowValues(mahafza, mahafzaRangeM);
+    // Each printed factor in dB (hand arithmetic to 0.01 dB): Pt 126.61 W = 21.02 dBW; G = 5000 = 36.99 dBi
+    // (each way); λ² = 0.2² = −13.98 dB(m²); σ = 1 m² = 0 dBsm; (4π)³ = 32.98 dB; 12000⁴ = 163.17 dB(m⁴);
+    // k·T0·B·F = 1.38e-23·290·2e6·6.309 = −132.97 dBW; L = 2.511 = 4.00 dB; B·τ = 1 = 0 dB; one pulse = 0 dB.
+    // Rounding each to 0.01 dB leaves at most 0.005 dB; 0.006 dB covers it.
+    const printed: Partial<Record<LinkBudgetRowId, number>> = {
+      peakPower: 21.02,
+      txGain: 36.99,
+      rxGain: 36.99,
+      wavelengthSquared: -13.98,
+      rcs: 0,
+      fourPiCubed: 32.98,
+      rangeFourth: 163.17,
+      systemLoss: 4.0,
+      timeBandwidth: 0,
+      coherentIntegration: 0,
+    };
+    for (const [id, valueDb] of Object.entries(printed)) {
+      expect(Math.abs(v[id] - valueDb), id).toBeLessThan(0.006);
+    }
+    // The noise row differs from the book's k·T0·B·F only by the Boltzmann constant (1.38e-23 printed,
+    // 1.380649e-23 exact: 0.0020 dB); with that shift removed the two agree to floating-point rounding.
+    const bookNoiseDbw = linearToDb(1.38e-23 * 290 * 2e6 * 6.309);
+    expect(Math.abs(v.noisePower - bookNoiseDbw - bookBoltzmannShiftDb)).toBeLessThan(1e-9);
+    expect(Math.abs(bookNoiseDbw - -132.97)).toBeLessThan(0.006);
+  });
+
+  it("[RE9][RE4] Mahafza & Elsherbeni (2004): 126.61 W gives the required 13.85 dB at 12 km", () => {
+    const snrDb = snrAtRangeDb(mahafza, mahafzaRangeM);
+    // The book's answer holds for k = 1.38e-23; the exact constant lowers every SNR by 0.0020 dB. The printed
+    // 126.61 W carries five significant figures (±0.005 W = ±1.7e-4 dB), and F, L, G, λ are used exactly as
+    // printed, so after the constant shift 2e-4 dB is the whole budget.
+    expect(Math.abs(snrDb - (13.85 - bookBoltzmannShiftDb))).toBeLessThan(2e-4);
+    // Without the shift the answer still stands within the constant's 0.0020 dB (plus rounding).
+    expect(Math.abs(snrDb - 13.85)).toBeLessThan(bookBoltzmannShiftDb + 2e-4);
+    // The rows sum to the result (RE5), and the range for 13.85 dB is 12 km: the Boltzmann shift moves it
+    // by 12 km·(1 − 10^(−0.0020/40)) = 1.4 m, the power rounding by at most 0.12 m.
+    expect(Math.abs(sumOfTermsDb(linkBudget(mahafza, mahafzaRangeM)) - snrDb)).toBeLessThan(1e-9);
+    expect(Math.abs(rangeForSnr(mahafza, 13.85) - mahafzaRangeM)).toBeLessThan(2);
+  });
+
+  // An exercise with its printed answer (https://askfilo.com/user-question-answers-smart-solutions/
+  // problem-2-estimate-the-range-of-a-pulse-radar-system-which-3431313630363533, "Problem 2"; the page
+  // does not name the textbook it comes from): λ = 3 cm, Pt = 80 kW, G = 27 dB, T = 290 K, F = 10 dB,
+  // B = 5 MHz, σ = 60 m², output SNR ≥ 6 dB, k = 1.38e-23 J/K → "Ans: Rmax = 28.8 km".
+  const exercise: RadarEquationParams = {
+    peakPowerW: 80e3,
+    pulseDurationS: 1 / 5e6,
+    pulsesIntegrated: 1,
+    frequencyHz: SPEED_OF_LIGHT_M_PER_S / 0.03,
+    txGainDbi: 27,
+    rxGainDbi: 27,
+    rcsM2: 60,
+    noiseFigureDb: 10,
+    systemLossDb: 0,
+    noiseBandwidthHz: 5e6,
+  };
+
+  it("[RE9][RE5] printed-answer exercise (λ 3 cm, 80 kW, 27 dB, 60 m², F 10 dB, 5 MHz): rows at 28.8 km", () => {
+    const v = rowValues(exercise, 28.8e3);
+    // Hand arithmetic to 0.01 dB: 80 kW = 49.03 dBW; λ² = 0.03² = −30.46 dB(m²); 60 m² = 17.78 dBsm;
+    // (4π)³ = 32.98 dB; 28 800⁴ = 178.38 dB(m⁴); k·T0·B·F = −203.98 + 66.99 + 10 = −126.99 dBW.
+    // 49.03 + 27 + 27 − 30.46 + 17.78 − 32.98 − 178.38 + 126.99 = 5.98 dB, just under the 6 dB asked
+    // because 28.8 km is the answer rounded up. Rounding each row to 0.01 dB: 0.006 dB covers it.
+    const hand: Partial<Record<LinkBudgetRowId, number>> = {
+      peakPower: 49.03,
+      txGain: 27,
+      rxGain: 27,
+      wavelengthSquared: -30.46,
+      rcs: 17.78,
+      fourPiCubed: 32.98,
+      rangeFourth: 178.38,
+      noisePower: -126.99,
+      systemLoss: 0,
+      timeBandwidth: 0,
+    };
+    for (const [id, valueDb] of Object.entries(hand)) {
+      expect(Math.abs(v[id] - valueDb), id).toBeLessThan(0.006);
+    }
+    // Eight rows each within 0.005 dB of the hand values: the sum within 0.04 dB of 5.98 dB.
+    expect(Math.abs(v.snr - 5.98)).toBeLessThan(0.04);
+  });
+
+  it("[RE9][RE4] printed-answer exercise: Rmax = 28.8 km for 6 dB", () => {
+    const rangeM = rangeForSnr(exercise, 6);
+    // Printed to three significant figures (±50 m); the exact Boltzmann constant shortens the range by
+    // 28.8 km·(1 − (1.38/1.380649)^(1/4)) = 3.4 m. So 55 m bounds the difference.
+    expect(Math.abs(rangeM - 28.8e3)).toBeLessThan(55);
+    // At the range found the SNR is the required 6 dB (RE4 round trip).
+    expect(Math.abs(snrAtRangeDb(exercise, rangeM) - 6)).toBeLessThan(1e-9);
   });
 });
