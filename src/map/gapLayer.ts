@@ -4,7 +4,7 @@
  */
 import type { GridFrame } from "../coverage/grid";
 import { TABLE_SIZE } from "./colourTable";
-import { formatAreaM2, type GapOutline } from "./gapOutlines";
+import { formatAreaM2, type GapShapes } from "./gapOutlines";
 import L from "./leaflet";
 import type { Forward } from "./pixelToGrid";
 import { RasterLayer } from "./rasterLayer";
@@ -36,7 +36,7 @@ export class GapLayer extends L.LayerGroup {
     frame: GridFrame | null,
     forward: Forward | null,
     gap: Uint8Array | null,
-    outlines: GapOutline[],
+    shapes: GapShapes | null,
   ): void {
     this.outlines.clearLayers();
     if (!frame || !forward || !gap) {
@@ -46,20 +46,22 @@ export class GapLayer extends L.LayerGroup {
     const indices = new Int16Array(gap.length);
     for (let i = 0; i < gap.length; i++) indices[i] = gap[i] ? 0 : -1;
     this.hatch.setPaint({ frame, forward, indices, table: this.table, pattern: "hatch" });
-    outlines.forEach((o, k) => {
-      const poly = L.polygon(o.rings, { color: "#140a0a", weight: 1.5, fill: false, interactive: false });
-      this.outlines.addLayer(poly);
-      if (k < LABELLED_GAPS) {
-        const el = document.createElement("span");
-        el.textContent = formatAreaM2(o.areaM2);
-        this.outlines.addLayer(
-          L.marker(o.labelAt, {
-            interactive: false,
-            keyboard: false,
-            icon: L.divIcon({ className: "gap-label", html: el, iconSize: [0, 0] }),
-          }),
-        );
-      }
-    });
+    if (!shapes) return;
+    for (const rings of shapes.outlines) {
+      this.outlines.addLayer(
+        L.polygon(rings, { color: "#140a0a", weight: 1.5, fill: false, interactive: false }),
+      );
+    }
+    for (const label of shapes.labels.slice(0, LABELLED_GAPS)) {
+      const el = document.createElement("span");
+      el.textContent = formatAreaM2(label.areaM2);
+      this.outlines.addLayer(
+        L.marker(label.at, {
+          interactive: false,
+          keyboard: false,
+          icon: L.divIcon({ className: "gap-label", html: el, iconSize: [0, 0] }),
+        }),
+      );
+    }
   }
 }

@@ -1,48 +1,44 @@
 /**
- * Gap outlines for the map: polygons in grid metres (src/workers/gapContours.ts) turned into Leaflet
- * [lat, lon] rings with a label point and their area.
+ * Gap shapes for the map: outlines and labels in grid metres (src/workers/gapContours.ts) turned into
+ * Leaflet [lat, lon] coordinates.
  */
 import type { GridFrame } from "../coverage/grid";
-import { type GapPolygonXY, gapPolygonsXY } from "../workers/gapContours";
+import { type GapShapesXY, gapShapesXY } from "../workers/gapContours";
 
-export interface GapOutline {
-  /** Rings as [lat, lon] (Leaflet order): outer first, then holes. */
-  rings: [number, number][][];
-  areaM2: number;
-  /** A point for the label, [lat, lon]. */
-  labelAt: [number, number];
+export interface GapShapes {
+  /** Polygons, each as rings of [lat, lon] (outer first, then holes). */
+  outlines: [number, number][][][];
+  /** Largest first: where to write each gap's area, and the area, m². */
+  labels: { at: [number, number]; areaM2: number }[];
 }
 
-/** Converts polygons in grid metres to map outlines. */
-export function outlinesToLatLng(
-  polygons: GapPolygonXY[],
+export function shapesToLatLng(
+  s: GapShapesXY,
   toLonLat: (x: number, y: number) => [number, number],
-): GapOutline[] {
-  return polygons.map((p) => {
-    const rings = p.rings.map((flat) => {
-      const ring: [number, number][] = [];
-      for (let i = 0; i + 1 < flat.length; i += 2) {
-        const [lon, lat] = toLonLat(flat[i], flat[i + 1]);
-        ring.push([lat, lon]);
-      }
-      return ring;
-    });
-    // Label at the outer ring's vertex mean (inside for the compact shapes gaps mostly have).
-    const outer = rings[0];
-    const lat = outer.reduce((a, q) => a + q[0], 0) / outer.length;
-    const lon = outer.reduce((a, q) => a + q[1], 0) / outer.length;
-    return { rings, areaM2: p.areaM2, labelAt: [lat, lon] as [number, number] };
-  });
+): GapShapes {
+  const ll = (x: number, y: number): [number, number] => {
+    const [lon, lat] = toLonLat(x, y);
+    return [lat, lon];
+  };
+  return {
+    outlines: s.outlines.map((p) =>
+      p.rings.map((flat) => {
+        const ring: [number, number][] = [];
+        for (let i = 0; i + 1 < flat.length; i += 2) ring.push(ll(flat[i], flat[i + 1]));
+        return ring;
+      }),
+    ),
+    labels: s.labels.map((l) => ({ at: ll(l.x, l.y), areaM2: l.areaM2 })),
+  };
 }
 
-/** Gap outlines computed here (used when the worker did not send them for the shown slice). */
-export function gapOutlines(
+/** Gap shapes computed here (used when the worker did not send them for the shown slice). */
+export function gapShapes(
   gap: Uint8Array,
   frame: GridFrame,
   toLonLat: (x: number, y: number) => [number, number],
-  limit = 200,
-): GapOutline[] {
-  return outlinesToLatLng(gapPolygonsXY(gap, frame, limit), toLonLat);
+): GapShapes {
+  return shapesToLatLng(gapShapesXY(gap, frame), toLonLat);
 }
 
 /** An area for a label: m² below 1 ha, else hectares. */

@@ -10,7 +10,7 @@ import { RadarResultCache } from "../coverage/radarCache";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
 import type { SiteGrid } from "../io/siteGrid";
-import { gapPolygonsXY } from "./gapContours";
+import { gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planKeyWithoutPlacement, previewSite } from "./preview";
 import { terrainProfile } from "./profile";
@@ -116,7 +116,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         const focused = view.slices.find(
           (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
         );
-        if (focused) focused.gapPolygons = gapPolygonsXY(focused.gap, view.frame);
+        if (focused) focused.gapShapes = gapShapesXY(focused.gap, view.frame);
       }
       return view;
     },

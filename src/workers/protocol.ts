@@ -6,7 +6,7 @@
 import type { GridFrame } from "../coverage/grid";
 import type { HeightMetrics } from "../coverage/metrics";
 import type { Plan } from "../io/planSchema";
-import type { GapPolygonXY } from "./gapContours";
+import type { GapShapesXY } from "./gapContours";
 
 /** DEM bytes as the plan names them (terrain.ground.file). */
 export interface DemPayload {
@@ -48,8 +48,8 @@ export interface CoverageSlice {
    */
   perRadarPd: Float32Array[];
   metrics: HeightMetrics;
-  /** Gap outlines in grid metres, for the focused slice of a full run only. */
-  gapPolygons?: GapPolygonXY[];
+  /** Gap outlines and labels in grid metres, for the focused slice of a full run only. */
+  gapShapes?: GapShapesXY;
 }
 
 export interface CoverageView {
@@ -161,7 +161,7 @@ export function viewTransferables(v: CoverageView): Transferable[] {
   ];
   for (const s of v.slices) {
     list.push(s.combinedPd.buffer, s.overlap.buffer, s.gap.buffer);
-    for (const g of s.gapPolygons ?? []) for (const r of g.rings) list.push(r.buffer);
+    for (const g of s.gapShapes?.outlines ?? []) for (const r of g.rings) list.push(r.buffer);
     for (const p of s.perRadarPd) list.push(p.buffer);
   }
   return [...new Set(list)].filter((b) => b.byteLength > 0) as Transferable[];

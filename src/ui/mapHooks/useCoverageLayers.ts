@@ -1,7 +1,7 @@
 /** The coverage raster and the gap layer for the selected layer, class and height. */
 import { useEffect, useMemo } from "react";
 import { GapLayer } from "../../map/gapLayer";
-import { gapOutlines, outlinesToLatLng } from "../../map/gapOutlines";
+import { gapShapes, shapesToLatLng } from "../../map/gapOutlines";
 import type L from "../../map/leaflet";
 import { forwardTo, inverseFrom } from "../../map/pixelToGrid";
 import { quantise, RasterLayer } from "../../map/rasterLayer";
@@ -56,15 +56,15 @@ export function useCoverageLayers(map: L.Map | null): void {
 
   useEffect(() => {
     if (!slice || !frame || !forward || !inverse || !showGaps) {
-      gaps.setGaps(null, null, null, []);
+      gaps.setGaps(null, null, null, null);
       return;
     }
     // While dragging, the hatching follows at once; outlines and their areas come with the accurate run.
     const outlines = previewing
-      ? []
-      : slice.gapPolygons
-        ? outlinesToLatLng(slice.gapPolygons, inverse)
-        : gapOutlines(slice.gap, frame, inverse);
+      ? null
+      : slice.gapShapes
+        ? shapesToLatLng(slice.gapShapes, inverse)
+        : gapShapes(slice.gap, frame, inverse);
     gaps.setGaps(frame, forward, slice.gap, outlines);
   }, [slice, frame, forward, inverse, showGaps, gaps, previewing]);
 }

@@ -1,0 +1,107 @@
+// @vitest-environment jsdom
+import { describe, expect, it } from "vitest";
+import type { Grid, GridFrame } from "../../src/coverage/grid";
+import { hillshadeIndices } from "../../src/map/hillshade";
+import { importKindOf } from "../../src/ui/import/importFiles";
+import { layerScale, PD_SHOWN_FROM } from "../../src/ui/layerPaint";
+import { gapLabelsXY, gapOutlinesXY } from "../../src/workers/gapContours";
+
+const frame: GridFrame = {
+  width: 20,
+  height: 10,
+  originX: 1000,
+  originY: 5000,
+  cellSizeM: 5,
+  crs: "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs",
+};
+
+describe("gap shapes", () => {
+  it("label each 8-connected gap with its exact area (cell count × cell area), largest first", () => {
+    const gap = new Uint8Array(frame.width * frame.height);
+    // A 4 × 3 block with a 1-cell hole, a 2 × 1 block, and a cell touching it diagonally (same gap).
+    for (let r = 1; r <= 3; r++) for (let c = 2; c <= 5; c++) gap[r * frame.width + c] = 1;
+    gap[2 * frame.width + 3] = 0;
+    gap[7 * frame.width + 10] = 1;
+    gap[7 * frame.width + 11] = 1;
+    gap[8 * frame.width + 12] = 1;
+    const labels = gapLabelsXY(gap, frame);
+    expect(labels.map((l) => l.areaM2)).toEqual([11 * 25, 3 * 25]);
+    // The label sits on a gap cell's centre.
+    const col = (labels[0].x - frame.originX) / frame.cellSizeM - 0.5;
+    const row = (frame.originY - labels[0].y) / frame.cellSizeM - 0.5;
+    expect(gap[row * frame.width + col]).toBe(1);
+  });
+
+  it("outline the gaps in grid metres inside the gap's cell edges, with holes", () => {
+    const gap = new Uint8Array(frame.width * frame.height);
+    for (let r = 1; r <= 3; r++) for (let c = 2; c <= 5; c++) gap[r * frame.width + c] = 1;
+    gap[2 * frame.width + 3] = 0;
+    const [outline] = gapOutlinesXY(gap, frame);
+    expect(outline.rings).toHaveLength(2);
+    const xs = Array.from(outline.rings[0]).filter((_, i) => i % 2 === 0);
+    const ys = Array.from(outline.rings[0]).filter((_, i) => i % 2 === 1);
+    expect(Math.min(...xs)).toBeGreaterThanOrEqual(1010);
+    expect(Math.max(...xs)).toBeLessThanOrEqual(1030);
+    expect(Math.max(...ys)).toBeLessThanOrEqual(4995);
+    expect(Math.min(...ys)).toBeGreaterThanOrEqual(4980);
+  });
+
+  it("finds nothing without gaps", () => {
+    const none = new Uint8Array(frame.width * frame.height);
+    expect(gapOutlinesXY(none, frame)).toEqual([]);
+    expect(gapLabelsXY(none, frame)).toEqual([]);
+  });
+});
+
+describe("hillshade", () => {
+  const grid = (f: (c: number, r: number) => number): Grid => {
+    const data = new Float32Array(frame.width * frame.height);
+    for (let r = 0; r < frame.height; r++)
+      for (let c = 0; c < frame.width; c++) data[r * frame.width + c] = f(c, r);
+    return { ...frame, data };
+  };
+  it("shades flat ground uniformly at cos(45°) of full light, nodata transparent", () => {
+    const g = grid(() => 100);
+    g.data[5] = Number.NaN;
+    const s = hillshadeIndices(g);
+    expect(s[5]).toBe(-1);
+    expect(s[50]).toBe(Math.round(Math.cos(Math.PI / 4) * 255));
+  });
+  it("lights a slope facing north-west more than one facing south-east", () => {
+    // Height rising to the south-east: the surface faces north-west, towards the light.
+    const nw = hillshadeIndices(grid((c, r) => 2 * (c + r)));
+    const se = hillshadeIndices(grid((c, r) => -2 * (c + r)));
+    const i = 5 * frame.width + 10;
+    expect(nw[i]).toBeGreaterThan(se[i]);
+  });
+});
+
+describe("layer scales and import kinds", () => {
+  it("leaves Pd below the shown threshold and NaN transparent; overlap 0 transparent", () => {
+    const pd = layerScale("combined", 3, 100);
+    expect(pd.toIndex(0)).toBe(-1);
+    expect(pd.toIndex(PD_SHOWN_FROM / 2)).toBe(-1);
+    expect(pd.toIndex(1)).toBe(255);
+    expect(pd.title).toMatch(/Pd/);
+    const ov = layerScale("overlap", 3, 100);
+    expect(ov.toIndex(0)).toBe(-1);
+    expect(ov.toIndex(2)).toBe(2);
+    expect(ov.stops.map((s) => s.label)).toEqual(["1", "2", "3"]);
+    const low = layerScale("lowest", 3, 100);
+    expect(low.toIndex(Number.POSITIVE_INFINITY)).toBe(-1);
+    expect(low.toIndex(50)).toBe(128);
+    expect(low.title).toMatch(/m above ground/);
+  });
+  it("tells the kind of an imported file from its name and head", () => {
+    expect(importKindOf("DEM.TIF")).toBe("dem-geotiff");
+    expect(importKindOf("N47E015.hgt")).toBe("dem-hgt");
+    expect(importKindOf("site.asc")).toBe("dem-asc");
+    expect(importKindOf("posts.csv")).toBe("posts");
+    expect(importKindOf("bundle.zip")).toBe("bundle");
+    expect(importKindOf("roofs.kmz")).toBe("buildings");
+    expect(importKindOf("export.osm")).toBe("buildings");
+    expect(importKindOf("plan.json", '{ "version": 1, "site": {}, "posts": [] }')).toBe("plan");
+    expect(importKindOf("houses.json", '{ "type": "FeatureCollection" }')).toBe("buildings");
+    expect(importKindOf("notes.docx")).toBe("unknown");
+  });
+});
