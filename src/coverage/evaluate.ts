@@ -105,8 +105,16 @@ export interface EvaluateProgress {
   radarId?: string;
 }
 
-/** Computes one radar's coverage: inline by default, or on a worker. */
-export type RadarRunner = (site: PreparedSite, radarIndex: number, mode: MaskMode) => Promise<RadarCoverage>;
+/**
+ * Computes one radar's coverage: inline by default, or on a worker. `reuse`, when given, is a result
+ * of the same shape whose arrays may be overwritten (and, for a worker, transferred).
+ */
+export type RadarRunner = (
+  site: PreparedSite,
+  radarIndex: number,
+  mode: MaskMode,
+  reuse?: RadarCoverage,
+) => Promise<RadarCoverage>;
 
 export interface EvaluateOptions {
   /** Masking mode; default the site's. */
@@ -120,6 +128,12 @@ export interface EvaluateOptions {
   cache?: RadarResultCache<RadarCoverage>;
   /** How a radar is computed (default computeRadarCoverage in this thread). Runs are started together. */
   runRadar?: RadarRunner;
+  /**
+   * A previous result of this site that the caller no longer needs: each recomputed radar writes into
+   * that radar's old arrays (same id, same shape) instead of allocating new ones. Never pass a result
+   * whose radars are still held by a cache or shown elsewhere: their arrays are overwritten.
+   */
+  previous?: SiteResult;
 }
 
 /** A run stopped by its caller (recognise it by name across worker boundaries). */
@@ -260,7 +274,9 @@ function now(): number {
 export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {}): Promise<SiteResult> {
   const t0 = now();
   const mode = opts.mode ?? site.maskMode;
-  const runRadar: RadarRunner = opts.runRadar ?? (async (s, i, m) => computeRadarCoverage(s, i, m));
+  const runRadar: RadarRunner =
+    opts.runRadar ?? (async (s, i, m, reuse) => computeRadarCoverage(s, i, m, reuse));
+  const previousById = new Map((opts.previous?.radars ?? []).map((r) => [r.radarId, r]));
 
   const terrainId = siteTerrainId(site);
   const total = site.radars.length;
@@ -279,7 +295,7 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
       result = cached;
     } else {
       checkCancel(opts);
-      result = await runRadar(site, i, mode);
+      result = await runRadar(site, i, mode, previousById.get(radar.id));
       checkCancel(opts);
       computedRadarIds.push(radar.id);
       if (opts.cache) {

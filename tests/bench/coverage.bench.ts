@@ -25,7 +25,7 @@ import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts
 import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
 import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
 import { demoRadar } from "../unit/coverageFixtures.ts";
-import type { CoverageWorkerApi } from "./coverageWorkerApi.ts";
+import { type CoverageWorkerApi, resultBuffers } from "./coverageWorkerApi.ts";
 
 const SIDE = 2048;
 
@@ -176,10 +176,11 @@ function workerRunner(apis: Comlink.Remote<CoverageWorkerApi>[]): RadarRunner {
     if (next) next(w);
     else free.push(w);
   };
-  return async (_site, index, mode: MaskMode): Promise<RadarCoverage> => {
+  return async (_site, index, mode: MaskMode, reuse?: RadarCoverage): Promise<RadarCoverage> => {
     const w = await take();
     try {
-      return (await w.computeRadar(index, mode)) as RadarCoverage;
+      const sent = reuse ? Comlink.transfer(reuse, resultBuffers(reuse)) : undefined;
+      return (await w.computeRadar(index, mode, sent)) as RadarCoverage;
     } finally {
       give(w);
     }
@@ -202,6 +203,17 @@ async function benchFull(runs: number): Promise<void> {
     `coverage full evaluation, 10 radars × 3 heights on ${n} cells, 1 thread: ${fmt(stats(single), 0)} ms ` +
       `(radar stages ${fmt(stats(radarsMs), 0)} ms), ${runs} runs`,
   );
+  // The same, each run writing into the previous run's radar arrays (how the app re-evaluates).
+  let previous = await evaluateSite(site);
+  const singleReuse: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    const t = performance.now();
+    previous = await evaluateSite(site, { previous });
+    singleReuse.push(performance.now() - t);
+  }
+  console.log(
+    `coverage full evaluation, 1 thread, previous result's arrays reused: ${fmt(stats(singleReuse), 0)} ms`,
+  );
 
   const workers = [0, 1].map(() => new Worker(new URL("./coverageWorker.mjs", import.meta.url)));
   const apis = workers.map((w) => Comlink.wrap<CoverageWorkerApi>(nodeEndpoint(w)));
@@ -221,6 +233,18 @@ async function benchFull(runs: number): Promise<void> {
     console.log(
       `coverage full evaluation, 2 workers (site posted once, ${uploadMs.toFixed(0)} ms): ${fmt(s2, 0)} ms; ` +
         `speed-up ${(stats(single).median / s2.median).toFixed(2)} × over 1 thread`,
+    );
+    let prev2 = await evaluateSite(site, { runRadar });
+    const twoReuse: number[] = [];
+    for (let r = 0; r < runs; r++) {
+      const t = performance.now();
+      prev2 = await evaluateSite(site, { runRadar, previous: prev2 });
+      twoReuse.push(performance.now() - t);
+    }
+    const s2r = stats(twoReuse);
+    console.log(
+      `coverage full evaluation, 2 workers, previous result's arrays sent back and reused: ${fmt(s2r, 0)} ms; ` +
+        `speed-up ${(stats(singleReuse).median / s2r.median).toFixed(2)} × over 1 thread reusing`,
     );
     // Radar stages alone, each worker writing into its previous result buffers (no allocation, no
     // transfer): the compute scaling of 1 against 2 workers.

@@ -37,9 +37,10 @@ const api = {
   setSite(s: PreparedSite): void {
     site = s;
   },
-  computeRadar(index: number, mode: MaskMode): RadarCoverage {
+  /** Compute radar `index`, into `reuse`'s arrays when given (they arrive transferred); transfer back. */
+  computeRadar(index: number, mode: MaskMode, reuse?: RadarCoverage): RadarCoverage {
     if (site === null) throw new Error("setSite first");
-    const r = computeRadarCoverage(site, index, mode);
+    const r = computeRadarCoverage(site, index, mode, reuse);
     return Comlink.transfer(r, resultBuffers(r));
   },
 };

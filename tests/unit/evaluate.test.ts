@@ -125,3 +125,21 @@ describe("cancel between radars", () => {
     expect(progress).toEqual([0, 1]);
   });
 });
+
+describe("re-evaluation into a previous result", () => {
+  it("[EV5] with `previous`, each radar writes into its old arrays and the fused result is unchanged", async () => {
+    const s = site();
+    const first = await evaluateSite(s);
+    const pdBefore = Array.from(first.targets[0].heights[0].combinedPd);
+    const oldArray = first.radars[1].heights[0].targets[0].pd;
+    const moved = { ...s, radars: s.radars.map((r, i) => (i === 1 ? { ...r, tiltDeg: 2 } : r)) };
+    const second = await evaluateSite(moved, { previous: first });
+    expect(second.radars[1].heights[0].targets[0].pd).toBe(oldArray);
+    const fresh = await evaluateSite(moved);
+    expect(Array.from(second.targets[0].heights[0].combinedPd)).toEqual(
+      Array.from(fresh.targets[0].heights[0].combinedPd),
+    );
+    const back = await evaluateSite(s, { previous: second });
+    expect(Array.from(back.targets[0].heights[0].combinedPd)).toEqual(pdBefore);
+  });
+});
