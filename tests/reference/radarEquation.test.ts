@@ -20,7 +20,7 @@ import {
   snrConstant,
 } from "../../src/coverage/radarEquation.ts";
 import type { FmcwWaveform, PulsedWaveform, RadarModel } from "../../src/coverage/radarModel.ts";
-import { dbToLinear, linearToDb, wToDbm } from "../../src/coverage/units.ts";
+import { dbmToW, dbToLinear, linearToDb, wToDbm, wToDbw } from "../../src/coverage/units.ts";
 import {
   averagePowerW,
   blindZoneM,
@@ -452,5 +452,65 @@ describe("[RE9] textbook worked examples reproduced term by term", () => {
     expect(Math.abs(rangeM - 28.8e3)).toBeLessThan(55);
     // At the range found the SNR is the required 6 dB (RE4 round trip).
     expect(Math.abs(snrAtRangeDb(exercise, rangeM) - 6)).toBeLessThan(1e-9);
+  });
+
+  // D. M. Pozar, Microwave Engineering, 4th ed., Wiley, 2012, Example 14.7, received-power form
+  // P_r = P_t·G²·λ²·σ/((4π)³·R⁴): 10 GHz, P_t = 2 kW, G = 28 dB, σ = 12 m², minimum detectable signal
+  // −90 dBm. Example number and inputs as quoted by a worked solution of it
+  // (https://de.scribd.com/document/487889600/Solution-to-Microwave-Engineering-Pozar-chapter-14-example-7-with-MATLAB),
+  // which computes R_max = 8.110657e3 m with c = 299 792 856 m/s; the book's printed answer, about
+  // 8.1 km, is from memory.
+  const pozar: RadarEquationParams = {
+    peakPowerW: 2e3,
+    pulseDurationS: 1e-6,
+    pulsesIntegrated: 1,
+    frequencyHz: 10e9,
+    txGainDbi: 28,
+    rxGainDbi: 28,
+    rcsM2: 12,
+    noiseFigureDb: 0,
+    systemLossDb: 0,
+  };
+  const pozarMinSignalDbw = wToDbw(dbmToW(-90));
+  /** Rows of the received-power form: everything in the link budget up to and including R⁴. */
+  const receivedPowerRows: LinkBudgetRowId[] = [
+    "peakPower",
+    "txGain",
+    "rxGain",
+    "wavelengthSquared",
+    "rcs",
+    "fourPiCubed",
+    "rangeFourth",
+  ];
+
+  it("[RE9][RE5] Pozar 4th ed. Example 14.7: received power from the link-budget rows, and R_max", () => {
+    // R_max from the SNR functions: the minimum detectable signal over the noise row is the SNR to ask for
+    // (any bandwidth and noise figure give the same range).
+    const noiseDbw = rowValues(pozar, 1e3).noisePower;
+    const rMaxM = rangeForSnr(pozar, pozarMinSignalDbw - noiseDbw);
+    // The quoted solution's 8 110.657 m used c = 299 792 856 m/s; R ∝ λ^(1/2), so exact c gives
+    // 8 110.652 m. 0.01 m covers that difference; the 8.1 km printed answer (from memory) holds to 0.05 km.
+    expect(Math.abs(rMaxM - 8110.652)).toBeLessThan(0.01);
+    expect(Math.abs(rMaxM - 8.1e3)).toBeLessThan(50);
+    // Term by term at R_max: 2 kW = 33.01 dBW; G = 28 dBi each way; λ² = (c/10 GHz)² = −30.46 dB(m²);
+    // 12 m² = 10.79 dBsm; (4π)³ = 32.98 dB; R_max⁴ = 156.36 dB(m⁴) (hand arithmetic to 0.01 dB, 0.006 dB
+    // covers the rounding). The signed rows add up to the minimum detectable signal, −120 dBW = −90 dBm.
+    const budget = linkBudget(pozar, rMaxM);
+    const v = rowValues(pozar, rMaxM);
+    const hand: Partial<Record<LinkBudgetRowId, number>> = {
+      peakPower: 33.01,
+      txGain: 28,
+      rxGain: 28,
+      wavelengthSquared: -30.46,
+      rcs: 10.79,
+      fourPiCubed: 32.98,
+      rangeFourth: 156.36,
+    };
+    for (const [id, valueDb] of Object.entries(hand)) {
+      expect(Math.abs(v[id] - valueDb), id).toBeLessThan(0.006);
+    }
+    let receivedDbw = 0;
+    for (const r of budget.rows) if (receivedPowerRows.includes(r.id)) receivedDbw += r.contributionDb;
+    expect(Math.abs(wToDbm(dbToLinear(receivedDbw)) - -90)).toBeLessThan(1e-9);
   });
 });
