@@ -122,6 +122,15 @@ export class PostsLayer extends L.LayerGroup {
         );
       }
       if (this.display.showExposure && p.exposureDistanceM > 0) {
+        const label = document.createElement("span");
+        label.textContent = `RF ${p.exposureDistanceM < 10 ? p.exposureDistanceM.toFixed(1) : Math.round(p.exposureDistanceM)} m`;
+        this.outlines.addLayer(
+          L.marker([p.latDeg, p.lonDeg], {
+            interactive: false,
+            keyboard: false,
+            icon: L.divIcon({ className: "exposure-label", html: label, iconSize: [0, 0] }),
+          }),
+        );
         this.outlines.addLayer(
           L.polygon(arcLatLngs(p.lonDeg, p.latDeg, 0, 360, p.exposureDistanceM, 6), {
             color: "#8b1e3f",

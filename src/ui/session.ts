@@ -52,6 +52,8 @@ export interface SessionState {
 let nextMessageId = 1;
 /** Messages kept on screen at once (older ones drop off). */
 const MESSAGE_LIMIT = 5;
+/** How long a note stays on screen, ms. */
+const INFO_MESSAGE_MS = 12_000;
 
 export const useSession = create<SessionState>()((set) => ({
   heightM: null,
@@ -70,10 +72,14 @@ export const useSession = create<SessionState>()((set) => ({
   newBuildingHeightM: 10,
   newCanopyHeightM: 15,
   set: (patch) => set(patch),
-  say: (kind, text, details) =>
-    set((s) => ({
-      messages: [...s.messages, { id: nextMessageId++, kind, text, details }].slice(-MESSAGE_LIMIT),
-    })),
+  say: (kind, text, details) => {
+    const id = nextMessageId++;
+    set((s) => ({ messages: [...s.messages, { id, kind, text, details }].slice(-MESSAGE_LIMIT) }));
+    // Notes go away by themselves; warnings and errors stay until dismissed.
+    if (kind === "info" && typeof setTimeout !== "undefined") {
+      setTimeout(() => set((s) => ({ messages: s.messages.filter((m) => m.id !== id) })), INFO_MESSAGE_MS);
+    }
+  },
   dismiss: (id) => set((s) => ({ messages: s.messages.filter((m) => m.id !== id) })),
 }));
 

@@ -233,6 +233,85 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0 + 1);
   });
 
+  it("cuts a hole in the new protected area", async () => {
+    await openTab(page, "site");
+    const areaItem = page.getByTestId("area-list").locator("li").last();
+    expect(await areaItem.textContent()).toMatch(/0 hole/);
+    await page.getByTestId("tool-hole").click();
+    await page.waitForTimeout(500);
+    const b = await mapBox(page);
+    const pts = [
+      [0.24, 0.24],
+      [0.28, 0.24],
+      [0.28, 0.28],
+      [0.24, 0.28],
+      [0.24, 0.24],
+    ];
+    for (const [fx, fy] of pts) {
+      await page.mouse.click(b.x + b.width * fx, b.y + b.height * fy);
+      await page.waitForTimeout(150);
+    }
+    await expect.poll(async () => (await areaItem.textContent()) ?? "").toMatch(/1 hole/);
+    await page.keyboard.press("Escape");
+    await shoot(page, "hole");
+  });
+
+  it("switches layers, shows exposure circles and the safety cautions", async () => {
+    await openTab(page, "results");
+    for (const layer of ["overlap", "lowest", "single", "combined"]) {
+      const status = await text(page, "run-status");
+      await page.getByTestId(`layer-${layer}`).check();
+      if (layer === "single") await waitNewRun(page, status);
+      await expect
+        .poll(() => text(page, "legend"))
+        .toMatch(
+          layer === "overlap"
+            ? /Radars meeting/
+            : layer === "lowest"
+              ? /Lowest visible height \(m above ground\)/
+              : /Pd/,
+        );
+      await page.waitForTimeout(300);
+      await shoot(page, `layer-${layer}`);
+    }
+    await page.getByTestId("show-exposure").check();
+    await page.waitForTimeout(300);
+    await shoot(page, "exposure");
+    await page.getByTestId("show-exposure").uncheck();
+    await page.getByTestId("about").click();
+    await expect.poll(() => text(page, "safety-cautions")).toMatch(/spectrum authorisation/);
+    await expect.poll(() => text(page, "safety-cautions")).toMatch(/work at height/);
+    await shoot(page, "about");
+    await page.keyboard.press("Escape");
+  });
+
+  it("imports posts from a CSV dropped on the map, naming the bad rows", async () => {
+    await openTab(page, "posts");
+    const before = await page.getByTestId("post-list").locator("li").count();
+    const plan = JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8"));
+    const [lon, lat] = plan.protectedAreas[0].geometry.coordinates[0][0] as number[];
+    const csv = `name,lat,lon,mast_height_m\nDropped A,${lat},${lon},9\nBad row,${lat},999,9\n`;
+    await page.evaluate((content) => {
+      const dt = new DataTransfer();
+      dt.items.add(new File([content], "drop-posts.csv", { type: "text/csv" }));
+      const target = document.querySelector(".map-wrap") as HTMLElement;
+      target.dispatchEvent(new DragEvent("dragover", { dataTransfer: dt, bubbles: true, cancelable: true }));
+      target.dispatchEvent(new DragEvent("drop", { dataTransfer: dt, bubbles: true, cancelable: true }));
+    }, csv);
+    await expect.poll(() => page.getByTestId("post-list").locator("li").count()).toBe(before + 1);
+    await expect
+      .poll(
+        async () =>
+          (await page
+            .getByTestId("message-warning")
+            .last()
+            .textContent()
+            .catch(() => "")) ?? "",
+      )
+      .toMatch(/1 post.*1 row\(s\) skipped/);
+    expect(await page.locator(".messages").textContent()).toMatch(/row 3, column lon/);
+  });
+
   it("imports a DEM and a buildings file", async () => {
     await openTab(page, "site");
     const dem = join(work, "ridge-copy.tif");
