@@ -7,9 +7,10 @@ import type { PlacedRadar, RadarCoverage } from "../coverage/coverage";
 import { evaluatePoint, evaluateSite, type PreparedSite, siteTerrainId } from "../coverage/evaluate";
 import { linkBudget } from "../coverage/linkBudget";
 import { RadarResultCache } from "../coverage/radarCache";
+import type { Plan } from "../io/planSchema";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
-import type { SiteGrid } from "../io/siteGrid";
+import { type SiteGrid, siteGridFrame } from "../io/siteGrid";
 import { gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planKeyWithoutPlacement, previewSite } from "./preview";
@@ -53,20 +54,83 @@ function focusSite(site: PreparedSite, focus: { classId: string; heightM: number
   };
 }
 
+/** Previews run on at most this many cells: a larger grid is previewed on a coarser one (same extent). */
+export const PREVIEW_MAX_CELLS = 250_000;
+/** Memory the per-radar cache may hold, bytes (entries are sized from the grid). */
+export const RADAR_CACHE_BUDGET_BYTES = 768 * 1024 * 1024;
+/** Bytes one radar's result takes per cell, per height and class (SNR 4, Pd 4, reason 1) besides 4 for the lowest visible height. */
+const RADAR_RESULT_BYTES = { perCell: 4, perHeight: 4, perHeightClass: 5 };
+
+interface PreparedSlot {
+  key: string;
+  placementFreeKey: string;
+  site: PreparedSite;
+  warnings: string[];
+  grid: SiteGrid;
+}
+
+function postName(plan: Plan, id: string): string {
+  return plan.posts.find((p) => p.id === id)?.name ?? id;
+}
+
+/** The plan on a coarser grid for previews of a large site, or null when the grid is small enough. */
+function coarsePlanOf(plan: Plan): Plan | null {
+  const g = siteGridFrame(plan);
+  if (g.cellCount <= PREVIEW_MAX_CELLS) return null;
+  const factor = Math.sqrt(g.cellCount / PREVIEW_MAX_CELLS);
+  const cellSizeM = Math.ceil(g.frame.cellSizeM * factor * 100) / 100;
+  return { ...plan, analysis: { ...plan.analysis, cellSizeM } };
+}
+
+function cacheEntriesFor(site: PreparedSite): number {
+  const cells = site.frame.width * site.frame.height;
+  const h = site.heightsAglM.length;
+  const perEntry =
+    cells *
+    (RADAR_RESULT_BYTES.perCell +
+      h * (RADAR_RESULT_BYTES.perHeight + site.targets.length * RADAR_RESULT_BYTES.perHeightClass));
+  const fit = Math.floor(RADAR_CACHE_BUDGET_BYTES / Math.max(1, perEntry));
+  return Math.max(site.radars.length + 2, Math.min(RADAR_CACHE_ENTRIES, fit));
+}
+
 export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | null } {
-  const cache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
-  let prepared: {
-    key: string;
-    placementFreeKey: string;
-    site: PreparedSite;
-    warnings: string[];
-    grid: SiteGrid;
-  } | null = null;
+  let cache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
+  /** The full-resolution site of the last run, and the coarse one of the last preview of a large site. */
+  let prepared: PreparedSlot | null = null;
+  let coarse: PreparedSlot | null = null;
 
   const parse = (planInput: unknown) => {
     const parsed = parsePlan(planInput);
     if (!parsed.ok) throw new BadRequestError(parsed.errors.map((e) => `${e.path}: ${e.message}`).join("; "));
     return parsed.plan;
+  };
+
+  const prepareSlot = async (
+    plan: Plan,
+    dem: DemPayload | null,
+    slot: PreparedSlot | null,
+    preview: boolean,
+  ): Promise<{ slot: PreparedSlot; site: PreparedSite }> => {
+    const demKey = [dem?.fileName ?? null, dem?.bytes.byteLength ?? 0];
+    const key = JSON.stringify([plan, demKey]);
+    const placementFreeKey = JSON.stringify([planKeyWithoutPlacement(plan), demKey]);
+    if (slot?.key === key) return { slot, site: slot.site };
+    if (slot && placementFreeKey === slot.placementFreeKey) {
+      // Only posts moved or turned: place them again on the prepared terrain (roof posts: previews only).
+      const quick = previewSite(plan, slot, preview);
+      if (quick) {
+        const stale = (w: string) => quick.movedIds.some((id) => w.includes(`(${postName(plan, id)})`));
+        const site: PreparedSite = {
+          ...quick.site,
+          warnings: [...quick.site.warnings.filter((w) => !stale(w)), ...quick.warnings],
+        };
+        const warnings = [...slot.warnings.filter((w) => !stale(w)), ...quick.warnings];
+        return { slot: preview ? slot : { key, placementFreeKey, site, warnings, grid: slot.grid }, site };
+      }
+    }
+    const p = await preparePlan(plan, dem ? { fileName: dem.fileName, data: dem.bytes } : undefined);
+    const site: PreparedSite = { ...p.site, terrainId: siteTerrainId(p.site) };
+    return { slot: { key, placementFreeKey, site, warnings: p.warnings, grid: p.grid }, site };
   };
 
   const prepare = async (
@@ -75,20 +139,21 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     maskMode?: "accurate" | "fast",
   ): Promise<PreparedSite> => {
     const plan = parse(planInput);
-    const demKey = [dem?.fileName ?? null, dem?.bytes.byteLength ?? 0];
-    const key = JSON.stringify([plan, demKey]);
-    const placementFreeKey = JSON.stringify([planKeyWithoutPlacement(plan), demKey]);
-    let current = prepared;
-    if (current?.key === key) return maskMode ? { ...current.site, maskMode } : current.site;
-    if (maskMode === "fast" && current) {
-      const quick = previewSite(plan, { ...current, placementFreeKey: current.placementFreeKey });
-      if (quick && placementFreeKey === current.placementFreeKey) return quick;
+    if (maskMode === "fast") {
+      const coarsePlan = coarsePlanOf(plan);
+      if (coarsePlan) {
+        const r = await prepareSlot(coarsePlan, dem, coarse, true);
+        coarse = r.slot;
+        return { ...r.site, maskMode };
+      }
     }
-    const p = await preparePlan(plan, dem ? { fileName: dem.fileName, data: dem.bytes } : undefined);
-    const site: PreparedSite = { ...p.site, terrainId: siteTerrainId(p.site) };
-    current = { key, placementFreeKey, site, warnings: p.warnings, grid: p.grid };
-    prepared = current;
-    return maskMode ? { ...site, maskMode } : site;
+    const r = await prepareSlot(plan, dem, prepared, maskMode === "fast");
+    if (r.slot !== prepared) {
+      prepared = r.slot;
+      const entries = cacheEntriesFor(r.site);
+      if (entries !== cache.maxEntries) cache = new RadarResultCache<RadarCoverage>(entries);
+    }
+    return maskMode ? { ...r.site, maskMode } : r.site;
   };
 
   return {
@@ -99,6 +164,9 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       const site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
       const result = await evaluateSite(site, { cache, mode: site.maskMode });
       const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
+      if (site.frame.cellSizeM !== prepared?.site.frame.cellSizeM) {
+        notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
+      }
       if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
       const terrainKey = site.terrainId ?? siteTerrainId(site);
       const withTerrain = terrainKey !== req.haveTerrainKey;

@@ -19,7 +19,8 @@ export function MapView(props: { onMap: (m: L.Map | null) => void; initialCentre
   const map = useLeafletMap(ref, { centerLatLon: props.initialCentre, zoom: 15 });
   const onMap = props.onMap;
   useEffect(() => onMap(map), [map, onMap]);
-  const view = useCoverage(shownView);
+  // The basemap follows the full-resolution results, not the (possibly coarser) drag preview.
+  const view = useCoverage((s) => s.view);
   useBaseLayers(map, view);
   useCoverageLayers(map);
   useSiteLayers(map);
