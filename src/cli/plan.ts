@@ -224,7 +224,7 @@ async function pointCommand(planPath: string, o: Opts): Promise<void> {
     process.stdout.write(`${JSON.stringify({ lat: at.lat, lon: at.lon, ...res }, null, 2)}\n`);
     return;
   }
-  const f1 = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : String(v));
+  const f1 = (v: number) => (Number.isFinite(v) ? v.toFixed(1) : Number.isNaN(v) ? "–" : v > 0 ? "∞" : "−∞");
   const lines = [
     `${site.name}: point ${at.lat}, ${at.lon} (grid ${x.toFixed(1)} E, ${y.toFixed(1)} N), ${heightAglM} m above ground ${f1(res.groundM)} m ASL` +
       (res.obstructionTopAglM > 0 ? `, under a roof or canopy top of ${f1(res.obstructionTopAglM)} m` : ""),
