@@ -67,14 +67,12 @@ function buffers(maxRays: number): RayBuffers {
 
 /**
  * Fills horizon slope (m/m) and obstacle distance (m) for every cell within range, accurate mode.
- * With `outDistanceM` (no range limit) every cell is written, NaN for nodata, and its distance too;
- * without it the outputs arrive filled with NaN and only cells in range with data are written.
+ * Cells in range are written (NaN for nodata); cells beyond the range are not.
  */
 export function computeHorizonAccurate(
   s: SweepSetup,
   outSlope: Float32Array,
   outObstacleM: Float32Array,
-  outDistanceM: Float32Array | null,
 ): void {
   const w = s.width;
   const h = s.height;
@@ -83,7 +81,6 @@ export function computeHorizonAccurate(
   const obsIdx = or * w + oc;
   outSlope[obsIdx] = Number.isNaN(s.z[obsIdx]) ? Number.NaN : Number.NEGATIVE_INFINITY;
   outObstacleM[obsIdx] = Number.NaN;
-  if (outDistanceM) outDistanceM[obsIdx] = 0;
   const rangeSteps = Math.floor(s.maxRangeM / s.cellSizeM);
   const triangles: Triangle[] = [
     { majorStride: 1, minorStride: w, majorSteps: w - 1 - oc, minorObs: or, minorLen: h, eastWest: true },
@@ -108,7 +105,7 @@ export function computeHorizonAccurate(
     for (let m0 = 1; m0 <= steps; m0 += BAND) {
       const nb = Math.min(BAND, steps - m0 + 1);
       advanceRays(s, t, steps, m0, nb, obsIdx, buf);
-      writeCells(s, t, steps, m0, nb, obsIdx, buf, outSlope, outObstacleM, outDistanceM);
+      writeCells(s, t, steps, m0, nb, obsIdx, buf, outSlope, outObstacleM);
     }
   }
 }
@@ -210,7 +207,6 @@ function writeCells(
   buf: RayBuffers,
   outSlope: Float32Array,
   outObstacleM: Float32Array,
-  outDistanceM: Float32Array | null,
 ): void {
   const z = s.z;
   const cell = s.cellSizeM;
@@ -240,12 +236,9 @@ function writeCells(
       for (let b = bStart; b < nb; b++) {
         const m = m0 + b;
         const oi = rowBase + m * majorStride;
-        if (outDistanceM) outDistanceM[oi] = Math.sqrt(m * m + q * q) * cell;
         if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) {
-          if (outDistanceM) {
-            outSlope[oi] = Number.NaN;
-            outObstacleM[oi] = Number.NaN;
-          }
+          outSlope[oi] = Number.NaN;
+          outObstacleM[oi] = Number.NaN;
           continue;
         }
         const u = q * rpm[b] + span;
@@ -272,12 +265,9 @@ function writeCells(
       const r = rpm[b];
       for (let q = lo; q <= hi; q++) {
         const oi = lineBase + q;
-        if (outDistanceM) outDistanceM[oi] = Math.sqrt(m * m + q * q) * cell;
         if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) {
-          if (outDistanceM) {
-            outSlope[oi] = Number.NaN;
-            outObstacleM[oi] = Number.NaN;
-          }
+          outSlope[oi] = Number.NaN;
+          outObstacleM[oi] = Number.NaN;
           continue;
         }
         const u = q * r + span;

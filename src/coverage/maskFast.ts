@@ -1,101 +1,158 @@
 /**
  * Fast masking sweep: one outward raster pass of the reference-plane family (Wang, Robinson & White,
  * "Generating viewsheds without using sightlines", PE&RS 66(1), 2000; XDraw, Franklin & Ray 1994).
- * Rows are visited from the observer's row outward (north, then south), each row from the observer's
- * column outward. Every cell keeps its "observable height" — the larger of its own curvature-corrected
- * height and the sight-line height projected through the two neighbours nearer the observer — and a cell's
- * horizon is that projection: the line from the antenna through the point where the sight line crosses the
- * previous grid line, interpolated between the two cells it passes between. Rules TM1–TM7, TM9 in
- * docs/model-spec.md.
+ * Rows are visited from the observer's row outward, the row |dy| rows north and the row |dy| rows south
+ * together, each row from the observer's column outward. Every cell keeps its "observable height" — the
+ * larger of its own curvature-corrected height and the sight-line height projected through the two
+ * neighbours nearer the observer — and a cell's horizon is that projection: the line from the antenna
+ * through the point where the sight line crosses the previous grid line, interpolated between the two
+ * cells it passes between. Rules TM1–TM7, TM9 in docs/model-spec.md.
+ *
+ * Speed: the distance, its reciprocal, the curvature drop and the interpolation weights depend only on
+ * (|dx|, |dy|), so they are tabulated once per |dy| (one interleaved array) and serve the four cells
+ * (±dx, ±dy). Each half row is split where the sight line changes the grid line it crosses (|dx| < |dy|,
+ * the diagonal, |dx| > |dy|) and where the nearer of the two neighbours changes, so the inner loops carry
+ * no branch on geometry; a row's observable heights and obstacle distances share one interleaved array.
+ * Few arrays per loop keep their bases and lengths in registers.
  */
 
 import type { SweepSetup } from "./terrainMask.ts";
 
-/** Row buffers reused across rows (no allocation in the hot loops). */
-interface RowBuffers {
-  /** Observable height of the row nearer the observer, m relative to the antenna. */
-  lastHeight: Float64Array;
-  /** Distance of the obstruction that set lastHeight, m. */
-  lastObstacle: Float64Array;
-  thisHeight: Float64Array;
-  thisObstacle: Float64Array;
-}
+/** Table entries per |dx|: level, 1/distance, distance, two interpolation weights. */
+const TS = 5;
+/** Antenna height plus the curvature drop, m ASL: a cell's height relative to the antenna is z − level. */
+const T_LEVEL = 0;
+/** 1 / distance, m⁻¹. */
+const T_INV_DIST = 1;
+/** Distance from the observer, m. */
+const T_DIST = 2;
+/** Weight of the neighbour on the previous row and column (|dx|−1, |dy|−1). */
+const T_W_DIAG = 3;
+/** Weight of the other neighbour: (|dx|, |dy|−1) where |dx| < |dy|, (|dx|−1, |dy|) where |dx| > |dy|. */
+const T_W_SIDE = 4;
 
 /**
- * Fills horizon slope (m/m) and obstacle distance (m) for every cell within range, fast mode.
- * With `outDistanceM` (no range limit) every cell is written, NaN for nodata, and its distance too;
- * without it the outputs arrive filled with NaN and only cells in range with data are written.
+ * Row buffers of one direction (north or south), reused across rows: per column c the observable height
+ * (m relative to the antenna) at [2c] and the distance of the obstruction that set it (m) at [2c + 1].
  */
-export function computeHorizonFast(
-  s: SweepSetup,
-  outSlope: Float32Array,
-  outObstacleM: Float32Array,
-  outDistanceM: Float32Array | null,
-): void {
-  const w = s.width;
-  const bufs: RowBuffers = {
-    lastHeight: new Float64Array(w),
-    lastObstacle: new Float64Array(w),
-    thisHeight: new Float64Array(w),
-    thisObstacle: new Float64Array(w),
-  };
-  const inv = new Float64Array(Math.max(s.width, s.height) + 1);
-  for (let i = 1; i < inv.length; i++) inv[i] = 1 / i;
-  sweepRow(s, bufs, inv, s.observerRow, outSlope, outObstacleM, outDistanceM);
-  const firstHeight = bufs.thisHeight.slice();
-  const firstObstacle = bufs.thisObstacle.slice();
-  for (let r = s.observerRow - 1; r >= 0; r--) {
-    swap(bufs);
-    if (!sweepRow(s, bufs, inv, r, outSlope, outObstacleM, outDistanceM)) break;
-  }
-  bufs.thisHeight.set(firstHeight);
-  bufs.thisObstacle.set(firstObstacle);
-  for (let r = s.observerRow + 1; r < s.height; r++) {
-    swap(bufs);
-    if (!sweepRow(s, bufs, inv, r, outSlope, outObstacleM, outDistanceM)) break;
-  }
+interface RowBuffers {
+  last: Float64Array;
+  current: Float64Array;
+}
+
+function rowBuffers(w: number): RowBuffers {
+  return { last: new Float64Array(2 * w), current: new Float64Array(2 * w) };
 }
 
 function swap(b: RowBuffers): void {
-  const h = b.lastHeight;
-  b.lastHeight = b.thisHeight;
-  b.thisHeight = h;
-  const o = b.lastObstacle;
-  b.lastObstacle = b.thisObstacle;
-  b.thisObstacle = o;
+  const t = b.last;
+  b.last = b.current;
+  b.current = t;
 }
 
-/** One row; returns false when the whole row lies beyond the maximum range (farther rows do too). */
-function sweepRow(
+/**
+ * Fills horizon slope (m/m) and obstacle distance (m) for every cell within range, fast mode: NaN for
+ * nodata cells, -Infinity / NaN where nothing obstructs. Cells beyond the range are not written.
+ */
+export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObstacleM: Float32Array): void {
+  const w = s.width;
+  const oc = s.observerCol;
+  const or = s.observerRow;
+  const cell = s.cellSizeM;
+  const north = rowBuffers(w);
+  const south = rowBuffers(w);
+  const reachMax = Math.max(oc, w - 1 - oc);
+  const table = new Float64Array(TS * (reachMax + 1));
+  const inv = new Float64Array(Math.max(s.width, s.height) + 1);
+  for (let i = 1; i < inv.length; i++) inv[i] = 1 / i;
+  const rangeCells = s.maxRangeM / cell;
+  const exclCells = s.ownFootprintRadiusM / cell;
+  const excl2 = exclCells * exclCells;
+  const nNorth = or;
+  const nSouth = s.height - 1 - or;
+  const lastRow = Math.min(Math.max(nNorth, nSouth), Math.floor(rangeCells));
+  for (let ady = 0; ady <= lastRow; ady++) {
+    // Columns within range on this row.
+    const halfSpan = Number.isFinite(rangeCells)
+      ? Math.floor(Math.sqrt(rangeCells * rangeCells - ady * ady))
+      : reachMax;
+    const reach = Math.min(halfSpan, reachMax);
+    const cLo = Math.max(0, oc - halfSpan);
+    const cHi = Math.min(w - 1, oc + halfSpan);
+    fillRowTable(table, inv, reach, ady, s);
+    // Rows inside the footprint (and the first two) take the general path with every test.
+    const general = ady <= 1 || ady * ady <= excl2;
+    if (ady === 0) {
+      sweepRowGeneral(s, north, table, inv, or, cLo, cHi, outSlope, outObstacleM);
+      south.current.set(north.current);
+      continue;
+    }
+    if (ady <= nNorth) {
+      swap(north);
+      if (general) sweepRowGeneral(s, north, table, inv, or - ady, cLo, cHi, outSlope, outObstacleM);
+      else sweepRow(s, north, table, inv, or - ady, cLo, cHi, outSlope, outObstacleM);
+    }
+    if (ady <= nSouth) {
+      swap(south);
+      if (general) sweepRowGeneral(s, south, table, inv, or + ady, cLo, cHi, outSlope, outObstacleM);
+      else sweepRow(s, south, table, inv, or + ady, cLo, cHi, outSlope, outObstacleM);
+    }
+  }
+}
+
+/**
+ * The table of row |dy| = ady for |dx| = 0..reach. The drop is taken from the distance rather than from
+ * dx² + dy²: V8 writes vsqrtsd into a register it also merges from, and with that ordering the square root
+ * does not wait on the previous iteration's division.
+ */
+function fillRowTable(t: Float64Array, inv: Float64Array, reach: number, ady: number, s: SweepSetup): void {
+  const cell = s.cellSizeM;
+  const curv = s.curvaturePerM;
+  const antenna = s.antennaHeightAslM;
+  const ady2 = ady * ady;
+  const invSteep = ady > 1 ? inv[ady - 1] : 0;
+  for (let adx = 0, k = 0; adx <= reach; adx++, k += TS) {
+    const dM = Math.sqrt(adx * adx + ady2) * cell;
+    t[k + T_LEVEL] = antenna + dM * dM * curv;
+    t[k + T_INV_DIST] = 1 / dM;
+    t[k + T_DIST] = dM;
+    if (adx < ady) {
+      // Crosses row |dy|−1 between columns |dx|−1 (weight |dx|/(|dy|−1)) and |dx|.
+      t[k + T_W_DIAG] = adx * invSteep;
+      t[k + T_W_SIDE] = (ady - adx) * invSteep;
+    } else if (adx === ady) {
+      t[k + T_W_DIAG] = ady * invSteep;
+      t[k + T_W_SIDE] = 0;
+    } else {
+      // Crosses column |dx|−1 between rows |dy|−1 (weight |dy|/(|dx|−1)) and |dy|.
+      const invShallow = inv[adx - 1];
+      t[k + T_W_DIAG] = ady * invShallow;
+      t[k + T_W_SIDE] = (adx - ady) * invShallow;
+    }
+  }
+}
+
+/** One row with every test (observer's row, ring 1, footprint rows). */
+function sweepRowGeneral(
   s: SweepSetup,
   b: RowBuffers,
+  t: Float64Array,
   inv: Float64Array,
   row: number,
+  cLo: number,
+  cHi: number,
   outSlope: Float32Array,
   outObstacleM: Float32Array,
-  outDistanceM: Float32Array | null,
-): boolean {
+): void {
   const w = s.width;
   const oc = s.observerCol;
   const cell = s.cellSizeM;
   const ady = Math.abs(row - s.observerRow);
-  const rangeCells = s.maxRangeM / cell;
-  if (ady > rangeCells) return false;
-  // Columns within range on this row.
-  const halfSpan = Number.isFinite(rangeCells)
-    ? Math.floor(Math.sqrt(rangeCells * rangeCells - ady * ady))
-    : w;
-  const cLo = Math.max(0, oc - halfSpan);
-  const cHi = Math.min(w - 1, oc + halfSpan);
   const z = s.z;
   const base = row * w;
-  const antenna = s.antennaHeightAslM;
-  const curvCell2 = s.curvaturePerM * cell * cell;
   const excl2 = (s.ownFootprintRadiusM / cell) * (s.ownFootprintRadiusM / cell);
-  const last = b.lastHeight;
-  const lastOd = b.lastObstacle;
-  const cur = b.thisHeight;
-  const curOd = b.thisObstacle;
+  const last = b.last;
+  const cur = b.current;
   const ady2 = ady * ady;
   const NEG = Number.NEGATIVE_INFINITY;
 
@@ -103,38 +160,34 @@ function sweepRow(
   {
     const idx = base + oc;
     const zc = z[idx];
-    const dist = ady * cell;
-    const rel = zc - antenna - ady2 * curvCell2;
+    const rel = zc - t[T_LEVEL];
     let zp: number;
     let zo: number;
     if (ady <= 1) {
       zp = NEG;
       zo = Number.NaN;
     } else {
-      zp = last[oc] * ady * inv[ady - 1];
-      zo = lastOd[oc];
+      zp = last[2 * oc] * ady * inv[ady - 1];
+      zo = last[2 * oc + 1];
     }
-    if (outDistanceM) {
-      outDistanceM[idx] = dist;
-      outSlope[idx] = Number.NaN;
-      outObstacleM[idx] = Number.NaN;
-    }
+    outSlope[idx] = Number.NaN;
+    outObstacleM[idx] = Number.NaN;
     if (ady === 0) {
       // The observer's own cell never obstructs (TM2).
-      cur[oc] = NEG;
-      curOd[oc] = Number.NaN;
+      cur[2 * oc] = NEG;
+      cur[2 * oc + 1] = Number.NaN;
       if (!Number.isNaN(zc)) outSlope[idx] = NEG;
     } else {
       if (!Number.isNaN(zc)) {
-        outSlope[idx] = (zp * inv[ady]) / cell;
+        outSlope[idx] = zp * t[T_INV_DIST];
         outObstacleM[idx] = zo;
       }
       if (rel > zp && ady2 > excl2) {
-        cur[oc] = rel;
-        curOd[oc] = dist;
+        cur[2 * oc] = rel;
+        cur[2 * oc + 1] = t[T_DIST];
       } else {
-        cur[oc] = zp;
-        curOd[oc] = zo;
+        cur[2 * oc] = zp;
+        cur[2 * oc + 1] = zo;
       }
     }
   }
@@ -142,33 +195,28 @@ function sweepRow(
   // nearer the observer) ride along in locals rather than being read back from the buffers.
   for (let dir = 1; dir >= -1; dir -= 2) {
     const reach = dir > 0 ? cHi - oc : oc - cLo;
-    let prevH = cur[oc];
-    let prevOd = curOd[oc];
-    let lastPrevH = last[oc];
-    let lastPrevOd = lastOd[oc];
+    let prevH = cur[2 * oc];
+    let prevOd = cur[2 * oc + 1];
+    let lastPrevH = last[2 * oc];
+    let lastPrevOd = last[2 * oc + 1];
     for (let adx = 1; adx <= reach; adx++) {
       const c = oc + dir * adx;
       const idx = base + c;
       const zc = z[idx];
-      const lastH = last[c];
-      const lastOdC = lastOd[c];
+      const lastH = last[2 * c];
+      const lastOdC = last[2 * c + 1];
       const d2 = adx * adx + ady2;
-      const rel = zc - antenna - d2 * curvCell2;
+      const rel = zc - t[TS * adx + T_LEVEL];
       let zp: number;
       let zo: number;
       if (adx > ady) {
         if (ady === 0) {
           zp = adx === 1 ? NEG : prevH * adx * inv[adx - 1];
           zo = prevOd;
-        } else if (adx === 1) {
-          zp = NEG; // ring 1: nothing lies between
-          zo = Number.NaN;
         } else {
           // Crosses column adx−1 between rows ady−1 (weight ady/adx) and ady.
           zp = (lastPrevH * ady + prevH * (adx - ady)) * inv[adx - 1];
           zo = 2 * ady < adx ? prevOd : lastPrevOd;
-          // The nearer neighbour saw nothing (nodata or footprint): the obstacle is the other one's.
-          if (Number.isNaN(zo)) zo = 2 * ady < adx ? lastPrevOd : prevOd;
         }
       } else if (adx === ady) {
         zp = adx === 1 ? NEG : lastPrevH * adx * inv[adx - 1];
@@ -177,30 +225,216 @@ function sweepRow(
         // Crosses row ady−1 between columns adx−1 (weight adx/ady) and adx.
         zp = (lastPrevH * adx + lastH * (ady - adx)) * inv[ady - 1];
         zo = 2 * adx < ady ? lastOdC : lastPrevOd;
-        if (Number.isNaN(zo)) zo = 2 * adx < ady ? lastPrevOd : lastOdC;
       }
-      if (!(zp > NEG)) zo = Number.NaN; // nothing obstructs: no obstacle distance
-      const dM = Math.sqrt(d2) * cell;
-      if (outDistanceM) outDistanceM[idx] = dM;
+      // Nothing obstructs: no obstacle distance. (A neighbour that saw nothing has a -Infinity height,
+      // so the projection is -Infinity whenever the nearer neighbour's obstacle distance is NaN.)
+      if (!(zp > NEG)) zo = Number.NaN;
       if (!Number.isNaN(zc)) {
-        outSlope[idx] = zp / dM;
+        outSlope[idx] = zp * t[TS * adx + T_INV_DIST];
         outObstacleM[idx] = zo;
-      } else if (outDistanceM) {
+      } else {
         outSlope[idx] = Number.NaN;
         outObstacleM[idx] = Number.NaN;
       }
       if (rel > zp && d2 > excl2) {
         prevH = rel;
-        prevOd = dM;
+        prevOd = t[TS * adx + T_DIST];
       } else {
         prevH = zp;
         prevOd = zo;
       }
-      cur[c] = prevH;
-      curOd[c] = prevOd;
+      cur[2 * c] = prevH;
+      cur[2 * c + 1] = prevOd;
       lastPrevH = lastH;
       lastPrevOd = lastOdC;
     }
   }
-  return true;
+}
+
+/**
+ * One row at |dy| ≥ 2 outside the footprint: the half rows in segments with no geometry test inside.
+ * A nodata cell (NaN) writes NaN through `zc − zc` and never raises the observable height (NaN > x is false).
+ */
+function sweepRow(
+  s: SweepSetup,
+  b: RowBuffers,
+  t: Float64Array,
+  inv: Float64Array,
+  row: number,
+  cLo: number,
+  cHi: number,
+  outSlope: Float32Array,
+  outObstacleM: Float32Array,
+): void {
+  const oc = s.observerCol;
+  const ady = Math.abs(row - s.observerRow);
+  const z = s.z;
+  const base = row * s.width;
+  const last = b.last;
+  const cur = b.current;
+  // Literals: TurboFan folds them to float constants (a Number.* property load is unboxed in the loop).
+  const NEG = -Infinity;
+  const NAN = NaN;
+  // Table offsets as locals: TurboFan folds them, where module constants are reloaded on every access.
+  const tLevel = T_LEVEL;
+  const tInvDist = T_INV_DIST;
+  const tDist = T_DIST;
+  const tWDiag = T_W_DIAG;
+  const tWSide = T_W_SIDE;
+  const ts = TS;
+
+  // Observer's column: straight out along the column.
+  {
+    const idx = base + oc;
+    const zc = z[idx];
+    const rel = zc - t[tLevel];
+    const zp = last[2 * oc] * ady * inv[ady - 1];
+    const zo = last[2 * oc + 1];
+    const nan = zc - zc;
+    outSlope[idx] = zp * t[tInvDist] + nan;
+    outObstacleM[idx] = zo + nan;
+    const up = rel > zp;
+    cur[2 * oc] = up ? rel : zp;
+    cur[2 * oc + 1] = up ? t[tDist] : zo;
+  }
+  const halfSteep = (ady + 1) >> 1; // |dx| < halfSteep ⇔ 2|dx| < |dy|
+  for (let dir = 1; dir >= -1; dir -= 2) {
+    const reach = dir > 0 ? cHi - oc : oc - cLo;
+    const dir2 = 2 * dir;
+    let lastPrevH = last[2 * oc];
+    let lastPrevOd = last[2 * oc + 1];
+    let idx = base + oc;
+    let cb = 2 * oc;
+    let k = 0;
+    // Steep part, |dx| < |dy|: the sight line crosses row |dy|−1 between columns |dx|−1 and |dx|.
+    const steepEnd = Math.min(ady - 1, reach);
+    const nearEnd = Math.min(halfSteep - 1, steepEnd);
+    // Nearer neighbour: the same column of the previous row.
+    for (let adx = 1; adx <= nearEnd; adx++) {
+      idx += dir;
+      cb += dir2;
+      k += ts;
+      const zc = z[idx];
+      const lastH = last[cb];
+      const lastOdC = last[cb + 1];
+      const rel = zc - t[k + tLevel];
+      const zp = lastPrevH * t[k + tWDiag] + lastH * t[k + tWSide];
+      const zo = zp > NEG ? lastOdC : NAN;
+      const nan = zc - zc;
+      outSlope[idx] = zp * t[k + tInvDist] + nan;
+      outObstacleM[idx] = zo + nan;
+      if (rel > zp) {
+        cur[cb] = rel;
+        cur[cb + 1] = t[k + tDist];
+      } else {
+        cur[cb] = zp;
+        cur[cb + 1] = zo;
+      }
+      lastPrevH = lastH;
+      lastPrevOd = lastOdC;
+    }
+    // Nearer neighbour: the previous column of the previous row.
+    for (let adx = nearEnd + 1; adx <= steepEnd; adx++) {
+      idx += dir;
+      cb += dir2;
+      k += ts;
+      const zc = z[idx];
+      const lastH = last[cb];
+      const lastOdC = last[cb + 1];
+      const rel = zc - t[k + tLevel];
+      const zp = lastPrevH * t[k + tWDiag] + lastH * t[k + tWSide];
+      const zo = zp > NEG ? lastPrevOd : NAN;
+      const nan = zc - zc;
+      outSlope[idx] = zp * t[k + tInvDist] + nan;
+      outObstacleM[idx] = zo + nan;
+      if (rel > zp) {
+        cur[cb] = rel;
+        cur[cb + 1] = t[k + tDist];
+      } else {
+        cur[cb] = zp;
+        cur[cb + 1] = zo;
+      }
+      lastPrevH = lastH;
+      lastPrevOd = lastOdC;
+    }
+    if (reach < ady) continue;
+    // Diagonal: straight through the previous diagonal cell.
+    let prevH: number;
+    let prevOd: number;
+    {
+      idx += dir;
+      cb += dir2;
+      k += ts;
+      const zc = z[idx];
+      const rel = zc - t[k + tLevel];
+      const zp = lastPrevH * t[k + tWDiag];
+      const zo = lastPrevOd;
+      const nan = zc - zc;
+      outSlope[idx] = zp * t[k + tInvDist] + nan;
+      outObstacleM[idx] = zo + nan;
+      if (rel > zp) {
+        prevH = rel;
+        prevOd = t[k + tDist];
+      } else {
+        prevH = zp;
+        prevOd = zo;
+      }
+      cur[cb] = prevH;
+      cur[cb + 1] = prevOd;
+      lastPrevH = last[cb];
+      lastPrevOd = last[cb + 1];
+    }
+    // Shallow part, |dx| > |dy|: the sight line crosses column |dx|−1 between rows |dy|−1 and |dy|.
+    const farStart = Math.min(2 * ady, reach); // 2|dy| < |dx| beyond
+    // Nearer neighbour: the previous column of the previous row.
+    for (let adx = ady + 1; adx <= farStart; adx++) {
+      idx += dir;
+      cb += dir2;
+      k += ts;
+      const zc = z[idx];
+      const lastH = last[cb];
+      const lastOdC = last[cb + 1];
+      const rel = zc - t[k + tLevel];
+      const zp = lastPrevH * t[k + tWDiag] + prevH * t[k + tWSide];
+      const zo = zp > NEG ? lastPrevOd : NAN;
+      const nan = zc - zc;
+      outSlope[idx] = zp * t[k + tInvDist] + nan;
+      outObstacleM[idx] = zo + nan;
+      if (rel > zp) {
+        prevH = rel;
+        prevOd = t[k + tDist];
+      } else {
+        prevH = zp;
+        prevOd = zo;
+      }
+      cur[cb] = prevH;
+      cur[cb + 1] = prevOd;
+      lastPrevH = lastH;
+      lastPrevOd = lastOdC;
+    }
+    // Nearer neighbour: the previous column of this row.
+    for (let adx = farStart + 1; adx <= reach; adx++) {
+      idx += dir;
+      cb += dir2;
+      k += ts;
+      const zc = z[idx];
+      const lastH = last[cb];
+      const rel = zc - t[k + tLevel];
+      const zp = lastPrevH * t[k + tWDiag] + prevH * t[k + tWSide];
+      const zo = zp > NEG ? prevOd : NAN;
+      const nan = zc - zc;
+      outSlope[idx] = zp * t[k + tInvDist] + nan;
+      outObstacleM[idx] = zo + nan;
+      if (rel > zp) {
+        prevH = rel;
+        prevOd = t[k + tDist];
+      } else {
+        prevH = zp;
+        prevOd = zo;
+      }
+      cur[cb] = prevH;
+      cur[cb + 1] = prevOd;
+      lastPrevH = lastH;
+    }
+  }
 }

@@ -157,6 +157,29 @@ export function fillDistanceM(
   }
 }
 
+/** Where a result's distance array stands: filled lazily, on first read, for the observer it belongs to. */
+interface DistanceState {
+  buffer: Float32Array | null;
+  filled: boolean;
+  width: number;
+  height: number;
+  cellSizeM: number;
+  col: number;
+  row: number;
+}
+
+/** Distance state of every result computeHorizon returned (a reused result hands its state on). */
+const distanceStates = new WeakMap<HorizonResult, DistanceState>();
+
+function distanceOf(st: DistanceState): Float32Array {
+  if (!st.filled) {
+    st.buffer ??= new Float32Array(st.width * st.height);
+    fillDistanceM(st.buffer, st, st.col, st.row);
+    st.filled = true;
+  }
+  return st.buffer as Float32Array;
+}
+
 /**
  * Horizon sweep for one observer: per cell the curvature-corrected slope of the steepest obstruction
  * between the antenna and the cell, and its distance (docs/model-spec.md TM1–TM9).
@@ -165,8 +188,10 @@ export function fillDistanceM(
  * Outputs in m per m and m. Out-of-domain numbers give an all-NaN result (the kernel stays total);
  * an observer outside the grid throws ObserverOutsideGridError.
  * Method: accurate = R2-class rays (Franklin & Ray 1994); fast = reference-plane sweep (Wang et al. 2000).
+ * `distanceM` depends on the cell alone, not on the terrain: it is filled on first read (the derived
+ * functions below never read it), so a caller that computes the distance itself pays nothing for it.
  * `reuse`: a previous result of the same grid size whose arrays are overwritten (no allocation while a
- * radar is dragged); otherwise new arrays are allocated.
+ * radar is dragged; the previous result then reads as the new one); otherwise new arrays are allocated.
  */
 export function computeHorizon(input: MaskInput, reuse?: HorizonResult): HorizonResult {
   const cell = observerCell(input);
@@ -174,28 +199,58 @@ export function computeHorizon(input: MaskInput, reuse?: HorizonResult): Horizon
   const g = input.surface;
   const n = g.width * g.height;
   const setup = sweepSetup(input, cell.col, cell.row);
-  // Without a range limit the sweeps write every cell (distance too); otherwise start from NaN.
+  // Without a range limit the sweeps write every cell; otherwise start from NaN.
   const writeAll = setup !== null && setup.maxRangeM === Number.POSITIVE_INFINITY;
   const same = reuse !== undefined && reuse.width === g.width && reuse.height === g.height;
+  const horizonSlope = same ? reuse.horizonSlope : new Float32Array(n);
+  const obstacleDistanceM = same ? reuse.obstacleDistanceM : new Float32Array(n);
+  let st = same ? distanceStates.get(reuse) : undefined;
+  if (st === undefined) {
+    st = {
+      buffer: same ? reuse.distanceM : null,
+      filled: false,
+      width: g.width,
+      height: g.height,
+      cellSizeM: g.cellSizeM,
+      col: cell.col,
+      row: cell.row,
+    };
+  } else if (st.col !== cell.col || st.row !== cell.row || st.cellSizeM !== g.cellSizeM) {
+    st.filled = false;
+    st.col = cell.col;
+    st.row = cell.row;
+    st.cellSizeM = g.cellSizeM;
+  }
+  const state = st;
   const result: HorizonResult = {
-    horizonSlope: same ? reuse.horizonSlope : new Float32Array(n),
-    obstacleDistanceM: same ? reuse.obstacleDistanceM : new Float32Array(n),
-    distanceM: same ? reuse.distanceM : new Float32Array(n),
+    horizonSlope,
+    obstacleDistanceM,
+    get distanceM(): Float32Array {
+      return distanceOf(state);
+    },
+    set distanceM(v: Float32Array) {
+      state.buffer = v;
+      state.filled = true;
+    },
     width: g.width,
     height: g.height,
     observerCol: cell.col,
     observerRow: cell.row,
   };
+  distanceStates.set(result, state);
   if (!writeAll) {
-    result.horizonSlope.fill(Number.NaN);
-    result.obstacleDistanceM.fill(Number.NaN);
+    horizonSlope.fill(Number.NaN);
+    obstacleDistanceM.fill(Number.NaN);
   }
-  if (!writeAll) fillDistanceM(result.distanceM, g, cell.col, cell.row);
   if (setup === null) return result;
-  const dOut = writeAll ? result.distanceM : null;
-  if (input.mode === "fast") computeHorizonFast(setup, result.horizonSlope, result.obstacleDistanceM, dOut);
-  else computeHorizonAccurate(setup, result.horizonSlope, result.obstacleDistanceM, dOut);
+  if (input.mode === "fast") computeHorizonFast(setup, horizonSlope, obstacleDistanceM);
+  else computeHorizonAccurate(setup, horizonSlope, obstacleDistanceM);
   return result;
+}
+
+/** Cell size of the frame a horizon was computed on (the ground grid's when the result is not ours). */
+function cellSizeOf(h: HorizonResult, ground: Grid): number {
+  return distanceStates.get(h)?.cellSizeM ?? ground.cellSizeM;
 }
 
 function checkSizes(h: HorizonResult, ground: Grid): void {
@@ -224,18 +279,24 @@ export function lowestVisibleHeightAglM(
   const antenna = input.antennaHeightAslM;
   const curv = curvatureFactorPerM(input.effectiveEarthFactor);
   const hs = h.horizonSlope;
-  const dist = h.distanceM;
   const gz = ground.data;
-  for (let i = 0; i < n; i++) {
-    const s = hs[i];
-    const d = dist[i];
-    const g = gz[i];
-    const v = antenna + d * d * curv + s * d - g;
-    if (v > VISIBILITY_TOLERANCE_M) res[i] = v;
-    // Visible from the ground up; a -Infinity slope (nothing obstructs) lands here too.
-    else if (v <= VISIBILITY_TOLERANCE_M) res[i] = 0;
-    // NaN: nodata slope or ground, or the observer's own cell (-Infinity · 0).
-    else res[i] = s === Number.NEGATIVE_INFINITY && !Number.isNaN(g) ? 0 : Number.NaN;
+  const w = h.width;
+  const cell = cellSizeOf(h, ground);
+  for (let r = 0; r < h.height; r++) {
+    const dy = r - h.observerRow;
+    const dy2 = dy * dy;
+    for (let q = 0, i = r * w, dx = -h.observerCol; q < w; q++, i++, dx++) {
+      const s = hs[i];
+      // The distance as distanceM holds it (Float32).
+      const d = Math.fround(Math.sqrt(dx * dx + dy2) * cell);
+      const g = gz[i];
+      const v = antenna + d * d * curv + s * d - g;
+      if (v > VISIBILITY_TOLERANCE_M) res[i] = v;
+      // Visible from the ground up; a -Infinity slope (nothing obstructs) lands here too.
+      else if (v <= VISIBILITY_TOLERANCE_M) res[i] = 0;
+      // NaN: nodata slope or ground, or the observer's own cell (-Infinity · 0).
+      else res[i] = s === Number.NEGATIVE_INFINITY && !Number.isNaN(g) ? 0 : Number.NaN;
+    }
   }
   return res;
 }
@@ -257,7 +318,9 @@ export function isVisible(
   const g = ground.data[index];
   if (!(!Number.isNaN(s) && !Number.isNaN(g) && Number.isFinite(targetHeightAglM))) return false;
   if (s === Number.NEGATIVE_INFINITY) return true;
-  const d = h.distanceM[index];
+  const dx = (index % h.width) - h.observerCol;
+  const dy = Math.floor(index / h.width) - h.observerRow;
+  const d = Math.fround(Math.sqrt(dx * dx + dy * dy) * cellSizeOf(h, ground));
   const curv = curvatureFactorPerM(input.effectiveEarthFactor);
   return input.antennaHeightAslM + d * d * curv + s * d - g <= targetHeightAglM + VISIBILITY_TOLERANCE_M;
 }
@@ -283,16 +346,21 @@ export function visibleMask(
   const antenna = input.antennaHeightAslM;
   const curv = curvatureFactorPerM(input.effectiveEarthFactor);
   const hs = h.horizonSlope;
-  const dist = h.distanceM;
   const gz = ground.data;
   const limit = targetHeightAglM + VISIBILITY_TOLERANCE_M;
-  for (let i = 0; i < n; i++) {
-    const s = hs[i];
-    const d = dist[i];
-    const g = gz[i];
-    const need = antenna + d * d * curv + s * d - g;
-    // NaN compares false → hidden; -Infinity slope gives -Infinity need → visible (when ground exists).
-    res[i] = need <= limit || (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) ? 1 : 0;
+  const w = h.width;
+  const cell = cellSizeOf(h, ground);
+  for (let r = 0; r < h.height; r++) {
+    const dy = r - h.observerRow;
+    const dy2 = dy * dy;
+    for (let q = 0, i = r * w, dx = -h.observerCol; q < w; q++, i++, dx++) {
+      const s = hs[i];
+      const d = Math.fround(Math.sqrt(dx * dx + dy2) * cell);
+      const g = gz[i];
+      const need = antenna + d * d * curv + s * d - g;
+      // NaN compares false → hidden; -Infinity slope gives -Infinity need → visible (when ground exists).
+      res[i] = need <= limit || (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) ? 1 : 0;
+    }
   }
   return res;
 }
@@ -318,19 +386,24 @@ export function obstructionClearanceM(
   const antenna = input.antennaHeightAslM;
   const curv = curvatureFactorPerM(input.effectiveEarthFactor);
   const hs = h.horizonSlope;
-  const dist = h.distanceM;
   const od = h.obstacleDistanceM;
   const gz = ground.data;
-  for (let i = 0; i < n; i++) {
-    const s = hs[i];
-    const g = gz[i];
-    if (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) {
-      res[i] = Number.NEGATIVE_INFINITY;
-      continue;
+  const w = h.width;
+  const cell = cellSizeOf(h, ground);
+  for (let r = 0; r < h.height; r++) {
+    const dy = r - h.observerRow;
+    const dy2 = dy * dy;
+    for (let q = 0, i = r * w, dx = -h.observerCol; q < w; q++, i++, dx++) {
+      const s = hs[i];
+      const g = gz[i];
+      if (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) {
+        res[i] = Number.NEGATIVE_INFINITY;
+        continue;
+      }
+      const d = Math.fround(Math.sqrt(dx * dx + dy2) * cell);
+      const targetSlope = (g + targetHeightAglM - antenna - d * d * curv) / d;
+      res[i] = od[i] * (s - targetSlope);
     }
-    const d = dist[i];
-    const targetSlope = (g + targetHeightAglM - antenna - d * d * curv) / d;
-    res[i] = od[i] * (s - targetSlope);
   }
   return res;
 }
