@@ -5,7 +5,7 @@
  * uses it as it is. Errors the user must fix are PrepareError with the plan path first.
  */
 import type { PlacedRadar } from "../coverage/coverage.ts";
-import type { PreparedSite } from "../coverage/evaluate.ts";
+import { type PreparedSite, siteTerrainId } from "../coverage/evaluate.ts";
 import { type Grid, sampleBilinear, xToCol, yToRow } from "../coverage/grid.ts";
 import type { RadarModel, ScanMode } from "../coverage/radarModel.ts";
 import { buildRegionMasks, type PolygonXY, type RingXY } from "../coverage/regionMask.ts";
@@ -271,5 +271,7 @@ export async function preparePlan(plan: Plan, dem?: LoadedDem): Promise<Prepared
     groundSource: source,
     warnings,
   };
+  // Hash the terrain once here, not on every evaluation (the per-radar cache keys include it).
+  site.terrainId = siteTerrainId(site);
   return { site, grid, warnings };
 }
