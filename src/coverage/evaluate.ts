@@ -58,7 +58,10 @@ export interface PreparedSite {
   maskMode: MaskMode;
   /** "dem" when the ground came from a DEM, "flat" when none was given (say so in results). */
   groundSource: "dem" | "flat";
-  /** Identity of ground, surface and obstruction tops (computed when absent). */
+  /**
+   * Identity of ground, surface and obstruction tops (set by preparePlan, computed when absent). A caller
+   * that changes those arrays in place must clear it, or cached radars would be taken as still valid.
+   */
   terrainId?: string;
   /** Warnings gathered while preparing (import, placement), shown with the results. */
   warnings: string[];
