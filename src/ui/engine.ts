@@ -49,16 +49,26 @@ export async function getPool(): Promise<WorkerPool<CoverageApi>> {
   return pool;
 }
 
-/** The terrain arrays last received, kept so that views of the same terrain need not carry them. */
-let terrain: { key: string; ground: Float32Array; obstruction: Float32Array } | null = null;
+interface TerrainArrays {
+  key: string;
+  ground: Float32Array;
+  obstruction: Float32Array;
+}
 
-function withTerrain(view: CoverageView): CoverageView {
+/**
+ * The terrain arrays last received, for full runs and for previews apart (a preview of a large site
+ * runs on a coarser grid), so that views of the same terrain need not carry them again.
+ */
+const terrains: { full: TerrainArrays | null; preview: TerrainArrays | null } = { full: null, preview: null };
+
+function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView {
   if (view.groundAmslM.length > 0) {
-    terrain = { key: view.terrainKey, ground: view.groundAmslM, obstruction: view.obstructionTopAglM };
+    terrains[kind] = { key: view.terrainKey, ground: view.groundAmslM, obstruction: view.obstructionTopAglM };
     return view;
   }
-  if (terrain?.key !== view.terrainKey) throw new Error("the coverage result came without its terrain");
-  return { ...view, groundAmslM: terrain.ground, obstructionTopAglM: terrain.obstruction };
+  const t = terrains[kind];
+  if (t?.key !== view.terrainKey) throw new Error("the coverage result came without its terrain");
+  return { ...view, groundAmslM: t.ground, obstructionTopAglM: t.obstruction };
 }
 
 const EVAL_SLOT = 0;
@@ -80,6 +90,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   if (!plan) return;
   const g = ++generation;
   const p = await getPool();
+  const kind = options.preview ? "preview" : "full";
   const req: EvaluateRequest = {
     generation: g,
     plan,
@@ -87,11 +98,11 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     ...(options.preview ? { maskMode: "fast" as const } : {}),
     perRadarPostId: singleRadarShown(),
     ...focusOf(),
-    ...(terrain ? { haveTerrainKey: terrain.key } : {}),
+    ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
   };
   useCoverage.getState().set({ running: true, generation: g });
   try {
-    const view = withTerrain(await p.run("evaluate", g, "evaluate", [req], { slot: EVAL_SLOT }));
+    const view = withTerrain(await p.run("evaluate", g, "evaluate", [req], { slot: EVAL_SLOT }), kind);
     if (options.preview) useCoverage.getState().set({ preview: view, running: false, problem: null });
     else useCoverage.getState().set({ view, preview: null, running: false, problem: null });
   } catch (e) {

@@ -67,7 +67,24 @@ async function openPlan(page: Page, plan: Plan, dir: string): Promise<number> {
   return Date.now() - t0;
 }
 
-async function dragOnce(page: Page) {
+/** The enabled ground post nearest the middle of the protected area (moving it keeps the grid frame). */
+function groundPostName(plan: Plan): string {
+  const ring =
+    plan.protectedAreas[0].geometry.type === "Polygon"
+      ? plan.protectedAreas[0].geometry.coordinates[0]
+      : plan.protectedAreas[0].geometry.coordinates[0][0];
+  const lon = ring.reduce((a, p) => a + p[0], 0) / ring.length;
+  const lat = ring.reduce((a, p) => a + p[1], 0) / ring.length;
+  const posts = plan.posts.filter((p) => p.enabled && p.mounting === "ground");
+  posts.sort(
+    (a, b) =>
+      Math.hypot(a.position.lonDeg - lon, a.position.latDeg - lat) -
+      Math.hypot(b.position.lonDeg - lon, b.position.latDeg - lat),
+  );
+  return posts[0].name;
+}
+
+async function dragOnce(page: Page, postName: string) {
   await page.evaluate(() => {
     const w = window as unknown as { __long: number[]; __gens: number[] };
     w.__long = [];
@@ -86,7 +103,7 @@ async function dragOnce(page: Page) {
     });
   });
   await page.getByTestId("tab-posts").click();
-  const marker = page.locator(".post-mark").nth(4);
+  const marker = page.locator(".post-mark", { hasText: postName }).first();
   const b = await marker.boundingBox();
   if (!b) throw new Error("no post on screen");
   const x0 = b.x + b.width / 2;
@@ -118,7 +135,8 @@ async function dragOnce(page: Page) {
     tUp,
   );
   const longTasks = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
-  return { updatesPerS: updates / dragS, releaseMs, longTasks };
+  const workerMs = Number((await status(page)).match(/Computed in (\d+)/)?.[1] ?? Number.NaN);
+  return { updatesPerS: updates / dragS, releaseMs, longTasks, workerMs };
 }
 
 async function main() {
@@ -150,15 +168,20 @@ async function main() {
       );
       console.log(`  open and first accurate run: ${openMs} ms wall (${st.trim()})`);
       if (!/Computed in/.test(st)) continue;
-      const d = await dragOnce(page);
-      const over = d.longTasks.filter((t) => t > 50);
-      console.log(`  drag preview: ${d.updatesPerS.toFixed(1)} updates/s (target ≥ 10 on 1 M cells)`);
-      console.log(
-        `  release → accurate layers and summary: ${d.releaseMs.toFixed(0)} ms (target < 150 ms on 1 M cells, < 1 s on 16 M)`,
-      );
-      console.log(
-        `  main-thread long tasks during the drag: ${over.length} over 50 ms${over.length ? ` (longest ${Math.max(...over).toFixed(0)} ms)` : ""}`,
-      );
+      const name = groundPostName(plan);
+      for (let run = 1; run <= 2; run++) {
+        const d = await dragOnce(page, name);
+        const over = d.longTasks.filter((t) => t > 50);
+        console.log(
+          `  drag ${run} of "${name}": preview ${d.updatesPerS.toFixed(1)} updates/s (target ≥ 10 on 1 M cells)`,
+        );
+        console.log(
+          `    release → accurate layers and summary: ${d.releaseMs.toFixed(0)} ms, of which the worker ${d.workerMs} ms (target < 150 ms on 1 M cells, < 1 s on 16 M)`,
+        );
+        console.log(
+          `    main-thread long tasks during the drag: ${over.length} over 50 ms${over.length ? ` (longest ${Math.max(...over).toFixed(0)} ms)` : ""}`,
+        );
+      }
     }
   } finally {
     await h.stop();
