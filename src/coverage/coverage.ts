@@ -487,7 +487,6 @@ export function radarCoverageFromHorizon(
   const twoOverLambda = 2 / kernel.wavelengthM;
   const hs = horizon.horizonSlope;
   const od = horizon.obstacleDistanceM;
-  const dist = horizon.distanceM;
   const f32 = new Float32Array(1);
   const u32 = new Uint32Array(f32.buffer);
   const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS;
@@ -503,16 +502,21 @@ export function radarCoverageFromHorizon(
   fillOutside((r1 + 1) * w, n, lowest, snrOut, pdOut, reasonOut);
   for (let row = r0; row <= r1; row++) {
     const northM = (orow - row) * cellM;
+    const dy2 = (row - orow) * (row - orow);
     fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
     fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
     for (let col = c0; col <= c1; col++) {
       const i = row * w + col;
-      const d = dist[i];
+      // Horizontal distance between cell centres, as terrainMask.ts defines it (rule TM1), computed
+      // here rather than read from horizon.distanceM (filled lazily there; this saves that pass).
+      const dxc = col - oc;
+      const d = cellM * Math.sqrt(dxc * dxc + dy2);
       const g = ground[i];
       const sigma = hs[i];
       if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
-        // Beyond the range (the horizon is NaN there too) or no data.
-        const code = d <= maxR ? Reason.nodata : Reason.outOfRange;
+        // No ground: nodata. Ground but no horizon: beyond the sweep's range limit (its own distance
+        // test at the edge), so out of range like the cells beyond maxR.
+        const code = Number.isNaN(g) ? Reason.nodata : Reason.outOfRange;
         lowest[i] = Number.NaN;
         for (let k = 0; k < nh; k++) snrOut[k][i] = Number.NaN;
         for (let q = 0; q < nq; q++) {
