@@ -32,19 +32,28 @@ async function waitComputed(p: Page): Promise<void> {
   );
 }
 
-/** The run-status text changes on each run; wait for a run newer than `before`. */
-async function waitNewRun(p: Page, before: string): Promise<void> {
-  await p
-    .waitForFunction(
-      (b) => {
-        const t = document.querySelector('[data-testid="run-status"]')?.textContent ?? "";
-        return /Computed in/.test(t) && t !== b;
-      },
-      before,
-      { timeout: 60_000 },
-    )
-    .catch(() => undefined);
-  await waitComputed(p);
+/** The generation of the results on screen (the summary carries it). */
+async function gen(p: Page): Promise<number> {
+  const l = p.getByTestId("summary");
+  if ((await l.count()) === 0) return 0;
+  return Number((await l.getAttribute("data-generation")) ?? 0);
+}
+
+/** Waits for accurate results newer than generation `before`. */
+async function waitNewRun(p: Page, before: number): Promise<void> {
+  await p.waitForFunction(
+    (b) => {
+      const s = document.querySelector('[data-testid="summary"]');
+      const st = document.querySelector('[data-testid="run-status"]')?.textContent ?? "";
+      return (
+        Number(s?.getAttribute("data-generation") ?? 0) > b &&
+        s?.getAttribute("data-mask-mode") === "accurate" &&
+        !/Computing/.test(st)
+      );
+    },
+    before,
+    { timeout: 25_000 },
+  );
 }
 
 /** Text of the first element with the test id, "" when there is none (never waits). */
@@ -166,14 +175,14 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     const postsBefore = await page.getByTestId("post-list").locator("li").count();
     const summary0 = await summaryFigures(page);
     const gapArea0 = await text(page, "gap-area-10");
-    const status0 = await text(page, "run-status");
+    const status0 = await gen(page);
     await page.getByTestId("tool-post").click();
     const b = await mapBox(page);
     await page.mouse.click(b.x + b.width * 0.56, b.y + b.height * 0.53);
     await expect.poll(() => page.getByTestId("post-list").locator("li").count()).toBe(postsBefore + 1);
     await waitNewRun(page, status0);
     // A short-range FMCW model: the pulsed default is blind within c·τ/2 of itself.
-    const statusModel = await text(page, "run-status");
+    const statusModel = await gen(page);
     await page.getByTestId("post-model").selectOption("mossbee-58");
     await waitNewRun(page, statusModel);
     const summary1 = await summaryFigures(page);
@@ -182,7 +191,7 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     const marker = page.locator(".post-mark", { hasText: `Post ${postsBefore + 1}` });
     const mb = await marker.boundingBox();
     if (!mb) throw new Error("new post not on the map");
-    const status1 = await text(page, "run-status");
+    const status1 = await gen(page);
     await page.mouse.move(mb.x + mb.width / 2, mb.y + mb.height / 2);
     await page.mouse.down();
     for (let k = 1; k <= 10; k++)
@@ -259,7 +268,7 @@ describe.skipIf(!RUN)("planner in the browser", () => {
   it("switches layers, shows exposure circles and the safety cautions", async () => {
     await openTab(page, "results");
     for (const layer of ["overlap", "lowest", "single", "combined"]) {
-      const status = await text(page, "run-status");
+      const status = await gen(page);
       await page.getByTestId(`layer-${layer}`).check();
       if (layer === "single") await waitNewRun(page, status);
       await expect
@@ -316,7 +325,7 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await openTab(page, "site");
     const dem = join(work, "ridge-copy.tif");
     copyFileSync(join(DEMO, "terrain.tif"), dem);
-    const status0 = await text(page, "run-status");
+    const status0 = await gen(page);
     await page.getByTestId("import-input").setInputFiles(dem);
     await expect
       .poll(() => text(page, "terrain-summary"), { timeout: 30_000 })
@@ -423,11 +432,40 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     expect(shot).toMatch(/reopened\.png$/);
   });
 
+  it("saves a bundle with the DEM and opens it again", async () => {
+    const [download] = await Promise.all([
+      page.waitForEvent("download"),
+      page.getByTestId("save-bundle").click(),
+    ]);
+    const saved = join(work, "bundle.zip");
+    await download.saveAs(saved);
+    const bytes = readFileSync(saved);
+    expect(bytes.subarray(0, 2).toString("latin1")).toBe("PK");
+    const [chooser] = await Promise.all([
+      page.waitForEvent("filechooser"),
+      page.getByTestId("open-plan").click(),
+    ]);
+    await chooser.setFiles(saved);
+    await expect
+      .poll(
+        async () =>
+          (await page
+            .getByTestId("message-info")
+            .last()
+            .textContent()
+            .catch(() => "")) ?? "",
+      )
+      .toMatch(/Opened bundle\.zip/);
+    await openTab(page, "site");
+    expect(await text(page, "terrain-summary")).toMatch(/^DEM /);
+    await waitComputed(page);
+  });
+
   it("replaces a crashed worker, tells the user, and keeps the plan", async () => {
     await page.goto(`${h.baseUrl}?test=1`);
     await waitComputed(page);
     const site = await text(page, "site-name");
-    const status = await text(page, "run-status");
+    const status = await gen(page);
     await page.evaluate(() =>
       (window as unknown as { picketTest: { crashWorker(): Promise<void> } }).picketTest.crashWorker(),
     );
