@@ -52,6 +52,8 @@ interface RayBuffers {
   bandObstacleM: Float32Array;
   raysPerMinor: Float64Array;
   invLine: Float64Array;
+  /** Band line numbers as doubles (no integer conversion in the ray loop). */
+  lineM: Float64Array;
 }
 
 function buffers(maxRays: number): RayBuffers {
@@ -62,6 +64,7 @@ function buffers(maxRays: number): RayBuffers {
     bandObstacleM: new Float32Array(maxRays * BAND),
     raysPerMinor: new Float64Array(BAND),
     invLine: new Float64Array(BAND),
+    lineM: new Float64Array(BAND),
   };
 }
 
@@ -110,7 +113,12 @@ export function computeHorizonAccurate(
   }
 }
 
-/** Runs every ray through band lines m0..m0+nb−1, recording its horizon before each line. */
+/**
+ * Runs every ray through band lines m0..m0+nb−1, recording its horizon before each line.
+ * Inside the loop a ray keeps its horizon scaled by its step length L (σ·L = rel/m − m·L²/(2ka) at major
+ * line m), so a major sample costs no division; a minor crossing is first tested in height
+ * (rel > m′·(σL + m′·L²/(2ka))) and divides only when it raises the horizon.
+ */
 function advanceRays(
   s: SweepSetup,
   t: Triangle,
@@ -136,7 +144,14 @@ function advanceRays(
   const bo = buf.bandObstacleM;
   const base = obsIdx - minorObs * minorStride;
   const invLine = buf.invLine;
-  for (let b = 0; b < nb; b++) invLine[b] = 1 / (m0 + b);
+  const lineM = buf.lineM;
+  // Locals: TurboFan folds them, where module constants are reloaded on every access.
+  const nodeLimit = NODE_FRACTION_LIMIT;
+  const band = BAND;
+  for (let b = 0; b < nb; b++) {
+    lineM[b] = m0 + b;
+    invLine[b] = 1 / (m0 + b);
+  }
   const mEnd = m0 + nb;
   const mStop = Math.min(mEnd, steps);
   for (let j = 0; j < nRays; j++) {
@@ -144,14 +159,19 @@ function advanceRays(
     const lenM = cell * Math.sqrt(1 + rayStep * rayStep);
     const invLenM = 1 / lenM;
     const invRayStep = 1 / rayStep;
-    let best = hz[j];
+    // Curvature term per line, and the footprint in lines, of this ray.
+    const c2 = lenM * lenM * curv;
+    const mExcl = exclM * invLenM;
+    let best = hz[j] * lenM;
     let bestM = od[j];
-    const k = j * BAND - m0;
+    const k = j * band - m0;
     // The triangle's last line is written but never sampled (nothing lies beyond it).
     for (let m = m0; m < mStop; m++) {
-      bh[k + m] = best;
+      const bi = m - m0;
+      bh[k + m] = best * invLenM;
       bo[k + m] = bestM;
-      const y = minorObs + rayStep * m;
+      const mD = lineM[bi];
+      const y = minorObs + rayStep * mD;
       if (!(y >= 0 && y <= minorLast)) continue;
       const lineBase = base + m * majorStride;
       // Sample where the ray crosses major line m (y ≥ 0, so truncation is the floor).
@@ -161,11 +181,10 @@ function advanceRays(
       const i0 = lineBase + r0 * minorStride;
       const za = z[i0];
       const zz = minorLast > 0 ? za + (z[i0 + minorStride] - za) * f : za;
-      const dist = m * lenM;
-      const slope = (zz - antenna) * invLenM * invLine[m - m0] - dist * curv;
-      if (slope > best && dist > exclM) {
-        best = slope;
-        bestM = dist;
+      const sl = (zz - antenna) * invLine[bi] - mD * c2;
+      if (sl > best && mD > mExcl) {
+        best = sl;
+        bestM = mD * lenM;
       }
       // Sample where it crosses a minor line before major line m+1 (m < steps ≤ majorSteps: it exists).
       const k1 = ((y + rayStep + 1) | 0) - 1;
@@ -174,29 +193,34 @@ function advanceRays(
         const g = (kk - y) * invRayStep;
         // g = 1 is the node on line m+1 itself (a cell centre, sampled there): only 0 ≤ g < 1 here,
         // with a margin for the rounding of y + rayStep at exact nodes.
-        if (g < NODE_FRACTION_LIMIT && kk >= 0 && kk <= minorLast) {
+        if (g < nodeLimit && kk >= 0 && kk <= minorLast) {
           const ik = lineBase + kk * minorStride;
           const zp = z[ik];
-          const zk = zp + (z[ik + majorStride] - zp) * g;
-          const dk = (m + g) * lenM;
-          const sk = (zk - antenna) / dk - dk * curv;
-          if (sk > best && dk > exclM) {
-            best = sk;
-            bestM = dk;
+          const rel = zp + (z[ik + majorStride] - zp) * g - antenna;
+          const mk = mD + g;
+          if (rel > mk * (best + mk * c2) && mk > mExcl) {
+            const sk = rel / mk - mk * c2;
+            if (sk > best) {
+              best = sk;
+              bestM = mk * lenM;
+            }
           }
         }
       }
     }
     if (mStop < mEnd) {
-      bh[k + mStop] = best;
+      bh[k + mStop] = best * invLenM;
       bo[k + mStop] = bestM;
     }
-    hz[j] = best;
+    hz[j] = best * invLenM;
     od[j] = bestM;
   }
 }
 
-/** Writes the cells of band lines m0..m0+nb−1 from the two rays bracketing each cell centre. */
+/**
+ * Writes the cells of band lines m0..m0+nb−1 from the two rays bracketing each cell centre. A nodata cell
+ * gets NaN through `z − z` (0 elsewhere) added to both outputs, with no branch.
+ */
 function writeCells(
   s: SweepSetup,
   t: Triangle,
@@ -220,10 +244,12 @@ function writeCells(
   const rpm = buf.raysPerMinor;
   for (let b = 0; b < nb; b++) rpm[b] = span / (m0 + b);
   const base = obsIdx - minorObs * minorStride;
-  const NEG = Number.NEGATIVE_INFINITY;
+  // Locals: TurboFan folds them, where module constants are reloaded on every access.
+  const NEG = -Infinity;
+  const band = BAND;
   const mTop = m0 + nb - 1;
   const reachTop = t.eastWest ? mTop : mTop - 1;
-  // Whole band within range (the common case): skip the per-cell range test.
+  // Whole band within range (the common case): no per-cell range test.
   const checkRange = mTop * mTop + reachTop * reachTop > maxRange2;
   const qLo = Math.max(-reachTop, -minorObs);
   const qHi = Math.min(reachTop, minorLast - minorObs);
@@ -236,52 +262,56 @@ function writeCells(
       for (let b = bStart; b < nb; b++) {
         const m = m0 + b;
         const oi = rowBase + m * majorStride;
-        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) {
-          outSlope[oi] = Number.NaN;
-          outObstacleM[oi] = Number.NaN;
-          continue;
-        }
+        if (checkRange && m * m + q * q > maxRange2) continue;
+        const zc = z[oi];
+        const nan = zc - zc;
         const u = q * rpm[b] + span;
         let j0 = u | 0;
         if (j0 > jMax) j0 = jMax;
         const f = u - j0;
-        const ka = j0 * BAND + b;
+        const ka = j0 * band + b;
         const a = bh[ka];
-        const c = bh[ka + BAND];
+        const c = bh[ka + band];
         let v = a + (c - a) * f;
-        const near = f < 0.5 ? ka : ka + BAND;
+        const near = f < 0.5 ? ka : ka + band;
         if (!(v > NEG)) v = bh[near];
-        outSlope[oi] = v;
-        outObstacleM[oi] = bo[near];
+        outSlope[oi] = v + nan;
+        outObstacleM[oi] = bo[near] + nan;
       }
     }
   } else {
     // Grid rows are the major axis: write line by line, the minor cells contiguous.
     for (let b = 0; b < nb; b++) {
       const m = m0 + b;
-      const lo = Math.max(-(m - 1), -minorObs);
-      const hi = Math.min(m - 1, minorLast - minorObs);
+      let lo = Math.max(-(m - 1), -minorObs);
+      let hi = Math.min(m - 1, minorLast - minorObs);
+      if (checkRange) {
+        // The line's cells within range: |q| ≤ √(range² − m²).
+        const half = Math.floor(Math.sqrt(Math.max(0, maxRange2 - m * m)));
+        if (m * m > maxRange2) continue;
+        lo = Math.max(lo, -half);
+        hi = Math.min(hi, half);
+        while (lo <= hi && m * m + lo * lo > maxRange2) lo++;
+        while (hi >= lo && m * m + hi * hi > maxRange2) hi--;
+      }
       const lineBase = base + m * majorStride + minorObs * minorStride;
       const r = rpm[b];
       for (let q = lo; q <= hi; q++) {
         const oi = lineBase + q;
-        if (Number.isNaN(z[oi]) || (checkRange && m * m + q * q > maxRange2)) {
-          outSlope[oi] = Number.NaN;
-          outObstacleM[oi] = Number.NaN;
-          continue;
-        }
+        const zc = z[oi];
+        const nan = zc - zc;
         const u = q * r + span;
         let j0 = u | 0;
         if (j0 > jMax) j0 = jMax;
         const f = u - j0;
-        const ka = j0 * BAND + b;
+        const ka = j0 * band + b;
         const a = bh[ka];
-        const c = bh[ka + BAND];
+        const c = bh[ka + band];
         let v = a + (c - a) * f;
-        const near = f < 0.5 ? ka : ka + BAND;
+        const near = f < 0.5 ? ka : ka + band;
         if (!(v > NEG)) v = bh[near];
-        outSlope[oi] = v;
-        outObstacleM[oi] = bo[near];
+        outSlope[oi] = v + nan;
+        outObstacleM[oi] = bo[near] + nan;
       }
     }
   }
