@@ -87,6 +87,12 @@ export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObs
       south.current.set(north.current);
       continue;
     }
+    if (!general && ady <= nNorth && ady <= nSouth) {
+      swap(north);
+      swap(south);
+      sweepRowPair(s, north, south, table, inv, ady, cLo, cHi, outSlope, outObstacleM);
+      continue;
+    }
     if (ady <= nNorth) {
       swap(north);
       if (general) sweepRowGeneral(s, north, table, inv, or - ady, cLo, cHi, outSlope, outObstacleM);
@@ -435,6 +441,321 @@ function sweepRow(
       cur[cb] = prevH;
       cur[cb + 1] = prevOd;
       lastPrevH = lastH;
+    }
+  }
+}
+
+/**
+ * The rows |dy| north and south of the observer (|dy| ≥ 2, outside the footprint) in one pass: the same
+ * segments as sweepRow, each column's table entries read once for both rows.
+ */
+function sweepRowPair(
+  s: SweepSetup,
+  bn: RowBuffers,
+  bs: RowBuffers,
+  t: Float64Array,
+  inv: Float64Array,
+  ady: number,
+  cLo: number,
+  cHi: number,
+  outSlope: Float32Array,
+  outObstacleM: Float32Array,
+): void {
+  const oc = s.observerCol;
+  const z = s.z;
+  const baseN = (s.observerRow - ady) * s.width;
+  const baseS = (s.observerRow + ady) * s.width;
+  const lastN = bn.last;
+  const curN = bn.current;
+  const lastS = bs.last;
+  const curS = bs.current;
+  // Literals and locals: TurboFan folds them (module constants are reloaded on every access).
+  const NEG = -Infinity;
+  const NAN = NaN;
+  const tLevel = T_LEVEL;
+  const tInvDist = T_INV_DIST;
+  const tDist = T_DIST;
+  const tWDiag = T_W_DIAG;
+  const tWSide = T_W_SIDE;
+  const ts = TS;
+
+  // Observer's column: straight out along the column.
+  {
+    const axis = ady * inv[ady - 1];
+    const level = t[tLevel];
+    const invD = t[tInvDist];
+    const dM = t[tDist];
+    const zn = z[baseN + oc];
+    const zs = z[baseS + oc];
+    const relN = zn - level;
+    const relS = zs - level;
+    const zpN = lastN[2 * oc] * axis;
+    const zpS = lastS[2 * oc] * axis;
+    const zoN = lastN[2 * oc + 1];
+    const zoS = lastS[2 * oc + 1];
+    const nanN = zn - zn;
+    const nanS = zs - zs;
+    outSlope[baseN + oc] = zpN * invD + nanN;
+    outObstacleM[baseN + oc] = zoN + nanN;
+    outSlope[baseS + oc] = zpS * invD + nanS;
+    outObstacleM[baseS + oc] = zoS + nanS;
+    const upN = relN > zpN;
+    curN[2 * oc] = upN ? relN : zpN;
+    curN[2 * oc + 1] = upN ? dM : zoN;
+    const upS = relS > zpS;
+    curS[2 * oc] = upS ? relS : zpS;
+    curS[2 * oc + 1] = upS ? dM : zoS;
+  }
+  const halfSteep = (ady + 1) >> 1; // |dx| < halfSteep ⇔ 2|dx| < |dy|
+  for (let dir = 1; dir >= -1; dir -= 2) {
+    const reach = dir > 0 ? cHi - oc : oc - cLo;
+    const dir2 = 2 * dir;
+    let lpHN = lastN[2 * oc];
+    let lpON = lastN[2 * oc + 1];
+    let lpHS = lastS[2 * oc];
+    let lpOS = lastS[2 * oc + 1];
+    let c = oc;
+    let cb = 2 * oc;
+    let k = 0;
+    const steepEnd = Math.min(ady - 1, reach);
+    const nearEnd = Math.min(halfSteep - 1, steepEnd);
+    // Steep part, nearer neighbour the same column of the previous row.
+    for (let adx = 1; adx <= nearEnd; adx++) {
+      c += dir;
+      cb += dir2;
+      k += ts;
+      const level = t[k + tLevel];
+      const wd = t[k + tWDiag];
+      const ws = t[k + tWSide];
+      const invD = t[k + tInvDist];
+      const zn = z[baseN + c];
+      const zs = z[baseS + c];
+      const lhN = lastN[cb];
+      const loN = lastN[cb + 1];
+      const lhS = lastS[cb];
+      const loS = lastS[cb + 1];
+      const zpN = lpHN * wd + lhN * ws;
+      const zpS = lpHS * wd + lhS * ws;
+      const zoN = zpN > NEG ? loN : NAN;
+      const zoS = zpS > NEG ? loS : NAN;
+      const nanN = zn - zn;
+      const nanS = zs - zs;
+      outSlope[baseN + c] = zpN * invD + nanN;
+      outObstacleM[baseN + c] = zoN + nanN;
+      outSlope[baseS + c] = zpS * invD + nanS;
+      outObstacleM[baseS + c] = zoS + nanS;
+      const relN = zn - level;
+      const relS = zs - level;
+      if (relN > zpN) {
+        curN[cb] = relN;
+        curN[cb + 1] = t[k + tDist];
+      } else {
+        curN[cb] = zpN;
+        curN[cb + 1] = zoN;
+      }
+      if (relS > zpS) {
+        curS[cb] = relS;
+        curS[cb + 1] = t[k + tDist];
+      } else {
+        curS[cb] = zpS;
+        curS[cb + 1] = zoS;
+      }
+      lpHN = lhN;
+      lpON = loN;
+      lpHS = lhS;
+      lpOS = loS;
+    }
+    // Steep part, nearer neighbour the previous column of the previous row.
+    for (let adx = nearEnd + 1; adx <= steepEnd; adx++) {
+      c += dir;
+      cb += dir2;
+      k += ts;
+      const level = t[k + tLevel];
+      const wd = t[k + tWDiag];
+      const ws = t[k + tWSide];
+      const invD = t[k + tInvDist];
+      const zn = z[baseN + c];
+      const zs = z[baseS + c];
+      const lhN = lastN[cb];
+      const loN = lastN[cb + 1];
+      const lhS = lastS[cb];
+      const loS = lastS[cb + 1];
+      const zpN = lpHN * wd + lhN * ws;
+      const zpS = lpHS * wd + lhS * ws;
+      const zoN = zpN > NEG ? lpON : NAN;
+      const zoS = zpS > NEG ? lpOS : NAN;
+      const nanN = zn - zn;
+      const nanS = zs - zs;
+      outSlope[baseN + c] = zpN * invD + nanN;
+      outObstacleM[baseN + c] = zoN + nanN;
+      outSlope[baseS + c] = zpS * invD + nanS;
+      outObstacleM[baseS + c] = zoS + nanS;
+      const relN = zn - level;
+      const relS = zs - level;
+      if (relN > zpN) {
+        curN[cb] = relN;
+        curN[cb + 1] = t[k + tDist];
+      } else {
+        curN[cb] = zpN;
+        curN[cb + 1] = zoN;
+      }
+      if (relS > zpS) {
+        curS[cb] = relS;
+        curS[cb + 1] = t[k + tDist];
+      } else {
+        curS[cb] = zpS;
+        curS[cb + 1] = zoS;
+      }
+      lpHN = lhN;
+      lpON = loN;
+      lpHS = lhS;
+      lpOS = loS;
+    }
+    if (reach < ady) continue;
+    // Diagonal: straight through the previous diagonal cell.
+    let pHN: number;
+    let pON: number;
+    let pHS: number;
+    let pOS: number;
+    {
+      c += dir;
+      cb += dir2;
+      k += ts;
+      const level = t[k + tLevel];
+      const wd = t[k + tWDiag];
+      const invD = t[k + tInvDist];
+      const dM = t[k + tDist];
+      const zn = z[baseN + c];
+      const zs = z[baseS + c];
+      const zpN = lpHN * wd;
+      const zpS = lpHS * wd;
+      const nanN = zn - zn;
+      const nanS = zs - zs;
+      outSlope[baseN + c] = zpN * invD + nanN;
+      outObstacleM[baseN + c] = lpON + nanN;
+      outSlope[baseS + c] = zpS * invD + nanS;
+      outObstacleM[baseS + c] = lpOS + nanS;
+      const relN = zn - level;
+      const relS = zs - level;
+      if (relN > zpN) {
+        pHN = relN;
+        pON = dM;
+      } else {
+        pHN = zpN;
+        pON = lpON;
+      }
+      if (relS > zpS) {
+        pHS = relS;
+        pOS = dM;
+      } else {
+        pHS = zpS;
+        pOS = lpOS;
+      }
+      curN[cb] = pHN;
+      curN[cb + 1] = pON;
+      curS[cb] = pHS;
+      curS[cb + 1] = pOS;
+      lpHN = lastN[cb];
+      lpON = lastN[cb + 1];
+      lpHS = lastS[cb];
+      lpOS = lastS[cb + 1];
+    }
+    const farStart = Math.min(2 * ady, reach); // 2|dy| < |dx| beyond
+    // Shallow part, nearer neighbour the previous column of the previous row.
+    for (let adx = ady + 1; adx <= farStart; adx++) {
+      c += dir;
+      cb += dir2;
+      k += ts;
+      const level = t[k + tLevel];
+      const wd = t[k + tWDiag];
+      const ws = t[k + tWSide];
+      const invD = t[k + tInvDist];
+      const zn = z[baseN + c];
+      const zs = z[baseS + c];
+      const lhN = lastN[cb];
+      const loN = lastN[cb + 1];
+      const lhS = lastS[cb];
+      const loS = lastS[cb + 1];
+      const zpN = lpHN * wd + pHN * ws;
+      const zpS = lpHS * wd + pHS * ws;
+      const zoN = zpN > NEG ? lpON : NAN;
+      const zoS = zpS > NEG ? lpOS : NAN;
+      const nanN = zn - zn;
+      const nanS = zs - zs;
+      outSlope[baseN + c] = zpN * invD + nanN;
+      outObstacleM[baseN + c] = zoN + nanN;
+      outSlope[baseS + c] = zpS * invD + nanS;
+      outObstacleM[baseS + c] = zoS + nanS;
+      const relN = zn - level;
+      const relS = zs - level;
+      if (relN > zpN) {
+        pHN = relN;
+        pON = t[k + tDist];
+      } else {
+        pHN = zpN;
+        pON = zoN;
+      }
+      if (relS > zpS) {
+        pHS = relS;
+        pOS = t[k + tDist];
+      } else {
+        pHS = zpS;
+        pOS = zoS;
+      }
+      curN[cb] = pHN;
+      curN[cb + 1] = pON;
+      curS[cb] = pHS;
+      curS[cb + 1] = pOS;
+      lpHN = lhN;
+      lpON = loN;
+      lpHS = lhS;
+      lpOS = loS;
+    }
+    // Shallow part, nearer neighbour the previous column of this row.
+    for (let adx = farStart + 1; adx <= reach; adx++) {
+      c += dir;
+      cb += dir2;
+      k += ts;
+      const level = t[k + tLevel];
+      const wd = t[k + tWDiag];
+      const ws = t[k + tWSide];
+      const invD = t[k + tInvDist];
+      const zn = z[baseN + c];
+      const zs = z[baseS + c];
+      const lhN = lastN[cb];
+      const lhS = lastS[cb];
+      const zpN = lpHN * wd + pHN * ws;
+      const zpS = lpHS * wd + pHS * ws;
+      const zoN = zpN > NEG ? pON : NAN;
+      const zoS = zpS > NEG ? pOS : NAN;
+      const nanN = zn - zn;
+      const nanS = zs - zs;
+      outSlope[baseN + c] = zpN * invD + nanN;
+      outObstacleM[baseN + c] = zoN + nanN;
+      outSlope[baseS + c] = zpS * invD + nanS;
+      outObstacleM[baseS + c] = zoS + nanS;
+      const relN = zn - level;
+      const relS = zs - level;
+      if (relN > zpN) {
+        pHN = relN;
+        pON = t[k + tDist];
+      } else {
+        pHN = zpN;
+        pON = zoN;
+      }
+      if (relS > zpS) {
+        pHS = relS;
+        pOS = t[k + tDist];
+      } else {
+        pHS = zpS;
+        pOS = zoS;
+      }
+      curN[cb] = pHN;
+      curN[cb + 1] = pON;
+      curS[cb] = pHS;
+      curS[cb + 1] = pOS;
+      lpHN = lhN;
+      lpHS = lhS;
     }
   }
 }

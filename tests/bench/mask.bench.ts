@@ -126,6 +126,8 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
     lvh: [],
     fastReuse: [],
     accurateReuse: [],
+    fastDist: [],
+    accurateDist: [],
     gdalMem: [],
     gdalCli: [],
   };
@@ -146,6 +148,13 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
         lowestVisibleHeightAglM(h, dem.ground, { ...base, mode }, lvhOut);
         t.lvh.push(performance.now() - t0);
       }
+    }
+    // distanceM is filled on first read: the sweep plus that read is what a caller of distanceM pays.
+    for (const mode of ["fast", "accurate"] as MaskMode[]) {
+      const t0 = performance.now();
+      const h = computeHorizon({ ...base, mode });
+      if (h.distanceM.length !== cells) throw new Error("distanceM has the wrong size");
+      t[`${mode}Dist`].push(performance.now() - t0);
     }
     if (gdal) {
       const res = await gdal.ask({
@@ -185,6 +194,8 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
     `  accurate + lowest visible height ${fmtMs(stats(t.lvh))}`,
     `  into reused arrays: fast ${fmtMs(stats(t.fastReuse))} → ${mcps(cells, stats(t.fastReuse).median)}, ` +
       `accurate ${fmtMs(stats(t.accurateReuse))} → ${mcps(cells, stats(t.accurateReuse).median)}`,
+    `  with distanceM read: fast ${fmtMs(stats(t.fastDist))} → ${mcps(cells, stats(t.fastDist).median)}, ` +
+      `accurate ${fmtMs(stats(t.accurateDist))} → ${mcps(cells, stats(t.accurateDist).median)}`,
   ];
   if (gdal && t.gdalMem.length > 0) {
     const g = stats(t.gdalMem);
