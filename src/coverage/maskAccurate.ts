@@ -165,14 +165,23 @@ function advanceRays(
     let best = hz[j] * lenM;
     let bestM = od[j];
     const k = j * band - m0;
+    // Lines on which the ray is inside the grid (y is monotonic in m and starts inside): m < mIn, found
+    // with the loop's own expression so that the test agrees with it exactly.
+    let mIn = mStop;
+    if (rayStep !== 0) {
+      const room = rayStep > 0 ? minorLast - minorObs : minorObs;
+      mIn = Math.min(mStop, Math.max(m0, Math.floor(room / Math.abs(rayStep)) + 1));
+      while (mIn > m0 && !inside(minorObs + rayStep * (mIn - 1), minorLast)) mIn--;
+      while (mIn < mStop && inside(minorObs + rayStep * mIn, minorLast)) mIn++;
+    }
     // The triangle's last line is written but never sampled (nothing lies beyond it).
-    for (let m = m0; m < mStop; m++) {
+    let mD = lineM[0] - 1;
+    for (let m = m0; m < mIn; m++) {
       const bi = m - m0;
       bh[k + m] = best * invLenM;
       bo[k + m] = bestM;
-      const mD = lineM[bi];
+      mD += 1;
       const y = minorObs + rayStep * mD;
-      if (!(y >= 0 && y <= minorLast)) continue;
       const lineBase = base + m * majorStride;
       // Sample where the ray crosses major line m (y ≥ 0, so truncation is the floor).
       const k0 = y | 0;
@@ -208,13 +217,19 @@ function advanceRays(
         }
       }
     }
-    if (mStop < mEnd) {
-      bh[k + mStop] = best * invLenM;
-      bo[k + mStop] = bestM;
+    // Beyond the grid edge the ray samples nothing: its horizon stays.
+    for (let m = mIn; m < mEnd; m++) {
+      bh[k + m] = best * invLenM;
+      bo[k + m] = bestM;
     }
     hz[j] = best * invLenM;
     od[j] = bestM;
   }
+}
+
+/** Whether a ray's minor coordinate lies on the grid (0 ≤ y ≤ last). */
+function inside(y: number, minorLast: number): boolean {
+  return y >= 0 && y <= minorLast;
 }
 
 /**
