@@ -34,6 +34,8 @@ export interface SessionState {
   selectedPostId: string | null;
   tool: Tool;
   inspect: InspectPoint | null;
+  /** The radar whose terrain profile the inspect panel shows (null: the best one). */
+  profilePostId: string | null;
   dragPreview: DragPreview | null;
   messages: Message[];
   showGaps: boolean;
@@ -63,6 +65,7 @@ export const useSession = create<SessionState>()((set) => ({
   selectedPostId: null,
   tool: "select",
   inspect: null,
+  profilePostId: null,
   dragPreview: null,
   messages: [],
   showGaps: true,

@@ -2,9 +2,10 @@
  * Inspect a point: per radar the link budget (every term in dB), visibility, lowest visible height,
  * diffraction loss, Pd and the reason it is not covered; and the terrain profile from the radar.
  */
-import { lazy, Suspense, useState } from "react";
+import { lazy, Suspense } from "react";
 import type { PointRadar } from "../../workers/protocol";
 import { useCoverage } from "../coverageState";
+import { radarsByPd } from "../selection";
 import { useSession } from "../session";
 
 const ProfileChart = lazy(() => import("../components/ProfileChart"));
@@ -67,8 +68,10 @@ export function InspectPanel() {
   const busy = useCoverage((s) => s.pointBusy);
   const tool = useSession((s) => s.tool);
   const set = useSession((s) => s.set);
-  const [profileOf, setProfileOf] = useState<string | null>(null);
-  const radar = point?.radars.find((r) => r.postId === profileOf) ?? point?.radars[0];
+  const profileOf = useSession((s) => s.profilePostId);
+  // The most useful radar first: highest Pd at the point.
+  const radars = radarsByPd(point);
+  const radar = radars.find((r) => r.postId === profileOf) ?? radars[0];
   return (
     <div className="panel" data-testid="inspect-panel">
       <button
@@ -94,8 +97,8 @@ export function InspectPanel() {
             <div className="profile">
               <label className="field">
                 <span>Terrain profile from</span>
-                <select value={radar.postId} onChange={(e) => setProfileOf(e.target.value)}>
-                  {point.radars.map((r) => (
+                <select value={radar.postId} onChange={(e) => set({ profilePostId: e.target.value })}>
+                  {radars.map((r) => (
                     <option key={r.postId} value={r.postId}>
                       {r.postName}
                     </option>
@@ -107,7 +110,7 @@ export function InspectPanel() {
               </Suspense>
             </div>
           )}
-          {point.radars.map((r) => (
+          {radars.map((r) => (
             <RadarRows key={r.postId} r={r} />
           ))}
         </>
