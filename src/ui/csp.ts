@@ -12,7 +12,8 @@ export const BUILD_CSP = [
   "script-src 'self'",
   "worker-src 'self' blob:",
   "connect-src 'self'",
-  "img-src 'self' data: blob: https:",
+  // Tiles of a server chosen later: any https origin, or one on this machine (narrowed at start-up).
+  "img-src 'self' data: blob: https: http://127.0.0.1:* http://localhost:*",
   "style-src 'self' 'unsafe-inline'",
   "font-src 'self'",
   "object-src 'none'",

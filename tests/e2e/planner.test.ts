@@ -461,6 +461,34 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await waitComputed(page);
   });
 
+  it("uses a tile server only when the user sets one, with its attribution shown as text", async () => {
+    await page.getByTestId("about").click();
+    const template = `${h.baseUrl}test-tiles/{z}/{x}/{y}.png`;
+    await page.getByLabel("Tile URL template").fill(template);
+    await page.getByLabel("Attribution").fill("<i>Test tiles</i> & friends");
+    await page.getByRole("button", { name: "Use this tile server" }).click();
+    await page.keyboard.press("Escape");
+    const before = h.requests.length;
+    await page.reload();
+    await waitComputed(page);
+    await page.waitForTimeout(500);
+    const tileRequests = h.requests.slice(before).filter((u) => u.includes("/test-tiles/"));
+    expect(tileRequests.length).toBeGreaterThan(0);
+    expect(await page.locator(".leaflet-control-attribution").textContent()).toContain(
+      "<i>Test tiles</i> & friends",
+    );
+    // Back to the offline basemap.
+    await page.getByTestId("about").click();
+    await page.getByLabel("Tile URL template").fill("");
+    await page.getByRole("button", { name: "Offline basemap only" }).click();
+    await page.keyboard.press("Escape");
+    await page.reload();
+    await waitComputed(page);
+    const after = h.requests.length;
+    await page.waitForTimeout(500);
+    expect(h.requests.slice(after).filter((u) => u.includes("/test-tiles/"))).toEqual([]);
+  });
+
   it("replaces a crashed worker, tells the user, and keeps the plan", async () => {
     await page.goto(`${h.baseUrl}?test=1`);
     await waitComputed(page);
