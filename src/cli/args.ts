@@ -52,7 +52,12 @@ export function parseLatLon(flag: string, raw: unknown): { lat: number; lon: num
   const parts = String(raw ?? "").split(",");
   if (parts.length !== 2)
     throw new UsageError(flag, `expected LAT,LON in decimal degrees, got "${raw ?? ""}"`);
-  const lat = parseNumber(flag, parts[0], { min: -90, max: 90, unit: "°" });
-  const lon = parseNumber(flag, parts[1], { min: -180, max: 180, unit: "°" });
+  const lat = parseNumber(flag, parts[0], { unit: "°" });
+  const lon = parseNumber(flag, parts[1], { unit: "°" });
+  if (Math.abs(lat) > 90) {
+    const hint = Math.abs(lon) <= 90 ? " (the order is LAT,LON: are the two swapped?)" : "";
+    throw new UsageError(flag, `latitude ${lat}° must lie within ±90°${hint}`);
+  }
+  if (Math.abs(lon) > 180) throw new UsageError(flag, `longitude ${lon}° must lie within ±180°`);
   return { lat, lon };
 }

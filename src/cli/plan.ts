@@ -5,7 +5,7 @@
  *   los --dem FILE (--at LAT,LON | --at-xy X,Y) --mast-m H [--target-m H] [--k K] [--mode M] --out FILE.tif
  * Exit status: 0 done, 1 the run failed (file, terrain, grid), 2 bad input (flag or plan field named).
  */
-import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
+import { readFileSync } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
 import cliProgress from "cli-progress";
 import { Command, CommanderError } from "commander";
@@ -30,6 +30,7 @@ import { formatPlanErrors, loadPlanFile } from "../io/planValidation.ts";
 import { type LoadedDem, PrepareError, preparePlan } from "../io/preparePlan.ts";
 import type { SiteGrid } from "../io/siteGrid.ts";
 import { parseLatLon, parseNumber, UsageError } from "./args.ts";
+import { ensureOutputDir, writeOutputFile } from "./outputFiles.ts";
 
 type Opts = Record<string, string | boolean | undefined>;
 
@@ -110,10 +111,11 @@ function safeName(s: string): string {
 
 /** Write the per-height rasters of a run into `dir`; returns the file names. */
 function writeRasters(dir: string, site: PreparedSite, result: SiteResult): string[] {
-  mkdirSync(dir, { recursive: true });
+  ensureOutputDir("--out", dir);
   const written: string[] = [];
   const put = (name: string, data: Float32Array | Uint8Array, description: string, nodata?: number) => {
-    writeFileSync(
+    writeOutputFile(
+      "--out",
       join(dir, name),
       new Uint8Array(encodeGeoTiff({ data, frame: site.frame, description, nodata })),
     );
@@ -182,7 +184,11 @@ async function evaluateCommand(planPath: string, o: Opts): Promise<void> {
   const lines: string[] = [];
   if (o.out !== undefined) {
     if (typeof o.out !== "string" || o.out === "") throw new UsageError("--out", "a directory is required");
-    writeFileSync(join(mkdirOut(o.out), "metrics.json"), `${JSON.stringify(doc, null, 2)}\n`);
+    writeOutputFile(
+      "--out",
+      join(ensureOutputDir("--out", o.out), "metrics.json"),
+      `${JSON.stringify(doc, null, 2)}\n`,
+    );
     const files = writeRasters(o.out, site, result);
     lines.push(`wrote ${join(o.out, "metrics.json")} and ${files.length} GeoTIFFs to ${o.out}`);
   }
@@ -200,11 +206,6 @@ async function evaluateCommand(planPath: string, o: Opts): Promise<void> {
     ...lines,
   ];
   process.stdout.write(`${out.join("\n")}\n`);
-}
-
-function mkdirOut(dir: string): string {
-  mkdirSync(dir, { recursive: true });
-  return dir;
 }
 
 async function pointCommand(planPath: string, o: Opts): Promise<void> {
@@ -347,7 +348,7 @@ async function losCommand(o: Opts): Promise<void> {
           nodata: 255,
           description: `visible (1) / hidden (0) at ${targetM} m above ground (mast ${mastM} m, k ${k})`,
         });
-  writeFileSync(o.out, new Uint8Array(bytes));
+  writeOutputFile("--out", o.out, new Uint8Array(bytes));
   if (o.json === true) process.stdout.write(`${JSON.stringify({ out: o.out, x, y, groundM, mode, k })}\n`);
   else process.stdout.write(`wrote ${o.out} (${grid.width} × ${grid.height}, ${mode} masking, k = ${k})\n`);
 }

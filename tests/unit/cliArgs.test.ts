@@ -29,6 +29,26 @@ describe("command-line number parsing", () => {
   it("reads LAT,LON and rejects the wrong shape", () => {
     expect(parseLatLon("--at", "47.5,11.25")).toEqual({ lat: 47.5, lon: 11.25 });
     expect(() => parseLatLon("--at", "47.5")).toThrow(/--at: expected LAT,LON/);
-    expect(() => parseLatLon("--at", "95,11")).toThrow(/--at: 95° must be ≤ 90°/);
+    expect(() => parseLatLon("--at", "133.4,-25.9")).toThrow(
+      /--at: latitude 133.4° must lie within ±90° \(the order is LAT,LON: are the two swapped\?\)/,
+    );
+    expect(() => parseLatLon("--at", "45,200")).toThrow(/--at: longitude 200° must lie within ±180°/);
+  });
+});
+
+describe("command-line output files", () => {
+  it("names the flag when the output path runs through a file", async () => {
+    const { mkdtempSync, writeFileSync } = await import("node:fs");
+    const { tmpdir } = await import("node:os");
+    const { join } = await import("node:path");
+    const { ensureOutputDir, writeOutputFile } = await import("../../src/cli/outputFiles.ts");
+    const dir = mkdtempSync(join(tmpdir(), "picket-out-"));
+    const file = join(dir, "a-file");
+    writeFileSync(file, "x");
+    expect(() => ensureOutputDir("--out", join(file, "sub"))).toThrow(
+      /^--out: cannot create the folder .*: a part of the path is a file, not a folder$/,
+    );
+    expect(() => writeOutputFile("--out", join(file, "x.tif"), "data")).toThrow(/^--out: cannot write /);
+    expect(ensureOutputDir("--out", join(dir, "new", "deeper"))).toBe(join(dir, "new", "deeper"));
   });
 });

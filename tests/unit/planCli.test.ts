@@ -274,5 +274,14 @@ describe("bad input names the flag or the plan field", () => {
     ]);
     expect(f.code).toBe(2);
     expect(f.err).toMatch(/--dem/);
+    // An output path that runs through a file is the user's to fix: named, no stack trace.
+    const blocker = join(dir, "a-file");
+    writeFileSync(blocker, "x");
+    const g = await run(["evaluate", ridgePlan, "--out", join(blocker, "out")]);
+    expect(g.code).toBe(2);
+    expect(g.err).toMatch(/^plan: --out: cannot create the folder .*a part of the path is a file/);
+    const h = await run(["point", ridgePlan, "--at", "133.4,-25.9", "--height-m", "10"]);
+    expect(h.code).toBe(2);
+    expect(h.err).toMatch(/--at: latitude 133.4° must lie within ±90° \(the order is LAT,LON/);
   });
 });

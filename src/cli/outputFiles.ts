@@ -1,0 +1,44 @@
+/**
+ * Writing command-line outputs. A path the user gave that cannot be written (a file where a folder
+ * should be, no permission, a full disk) becomes a UsageError naming the flag, not a stack trace.
+ */
+import { mkdirSync, writeFileSync } from "node:fs";
+import { UsageError } from "./args.ts";
+
+function reason(e: unknown): string {
+  const err = e as NodeJS.ErrnoException;
+  switch (err.code) {
+    case "ENOTDIR":
+      return "a part of the path is a file, not a folder";
+    case "EEXIST":
+      return "a file of that name is in the way";
+    case "EACCES":
+    case "EPERM":
+      return "permission denied";
+    case "ENOSPC":
+      return "the disk is full";
+    case "EISDIR":
+      return "it is a folder";
+    default:
+      return err.message;
+  }
+}
+
+/** Create the folder `dir` (and its parents) for `flag`; returns `dir`. */
+export function ensureOutputDir(flag: string, dir: string): string {
+  try {
+    mkdirSync(dir, { recursive: true });
+  } catch (e) {
+    throw new UsageError(flag, `cannot create the folder ${dir}: ${reason(e)}`);
+  }
+  return dir;
+}
+
+/** Write `data` to `path` for `flag`. */
+export function writeOutputFile(flag: string, path: string, data: string | Uint8Array): void {
+  try {
+    writeFileSync(path, data);
+  } catch (e) {
+    throw new UsageError(flag, `cannot write ${path}: ${reason(e)}`);
+  }
+}
