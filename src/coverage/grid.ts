@@ -66,8 +66,8 @@ export function yToRow(g: GridFrame, y: number): number {
 /** Bilinear sample at fractional (col, row) in centre coordinates; NaN outside or next to nodata. */
 export function sampleBilinear(g: Grid, col: number, row: number): number {
   if (!(col >= 0 && row >= 0 && col <= g.width - 1 && row <= g.height - 1)) return Number.NaN;
-  const c0 = Math.min(Math.floor(col), g.width - 2 < 0 ? 0 : g.width - 2);
-  const r0 = Math.min(Math.floor(row), g.height - 2 < 0 ? 0 : g.height - 2);
+  const c0 = Math.min(Math.floor(col), Math.max(g.width - 2, 0));
+  const r0 = Math.min(Math.floor(row), Math.max(g.height - 2, 0));
   const c1 = Math.min(c0 + 1, g.width - 1);
   const r1 = Math.min(r0 + 1, g.height - 1);
   const fc = col - c0;
