@@ -66,11 +66,15 @@ export function wrapDeg180(deg: number): number {
   let a = deg % 360;
   if (a <= -180) a += 360;
   else if (a > 180) a -= 360;
-  return a;
+  // Rounding can leave exactly −180 after adding 360 to a value just above −540: report it as 180.
+  return a <= -180 ? a + 360 : a;
 }
 
 /** Wrap an azimuth in degrees to [0, 360). */
 export function wrapDeg360(deg: number): number {
   const a = deg % 360;
-  return a < 0 ? a + 360 : a;
+  if (a >= 0) return a;
+  const b = a + 360;
+  // A tiny negative angle rounds to exactly 360 in floating point: that is north, 0.
+  return b >= 360 ? 0 : b;
 }
