@@ -253,6 +253,30 @@ function cellSizeOf(h: HorizonResult, ground: Grid): number {
   return distanceStates.get(h)?.cellSizeM ?? ground.cellSizeM;
 }
 
+/**
+ * Per-row tables of the derived functions, indexed by |dx|: the distance as distanceM holds it (Float32
+ * rounding, m) and H + d²/(2ka) (m ASL). One square root per |dx| serves both sides of the row.
+ */
+interface RowGeometry {
+  distM: Float64Array;
+  levelM: Float64Array;
+}
+
+function rowGeometry(h: HorizonResult): RowGeometry {
+  const reach = Math.max(h.observerCol, h.width - 1 - h.observerCol) + 1;
+  return { distM: new Float64Array(reach), levelM: new Float64Array(reach) };
+}
+
+function fillRowGeometry(g: RowGeometry, dy2: number, cell: number, antennaM: number, curv: number): void {
+  const distM = g.distM;
+  const levelM = g.levelM;
+  for (let adx = 0; adx < distM.length; adx++) {
+    const d = Math.fround(Math.sqrt(adx * adx + dy2) * cell);
+    distM[adx] = d;
+    levelM[adx] = antennaM + d * d * curv;
+  }
+}
+
 function checkSizes(h: HorizonResult, ground: Grid): void {
   if (ground.width !== h.width || ground.height !== h.height)
     throw new RangeError(
@@ -282,20 +306,26 @@ export function lowestVisibleHeightAglM(
   const gz = ground.data;
   const w = h.width;
   const cell = cellSizeOf(h, ground);
+  const geo = rowGeometry(h);
+  const distM = geo.distM;
+  const levelM = geo.levelM;
+  // Floats made here: an imported constant or a Number.* property would be unboxed on every iteration.
+  const tol = VISIBILITY_TOLERANCE_M * 1;
+  const NEG = -Infinity;
   for (let r = 0; r < h.height; r++) {
     const dy = r - h.observerRow;
-    const dy2 = dy * dy;
+    fillRowGeometry(geo, dy * dy, cell, antenna, curv);
     for (let q = 0, i = r * w, dx = -h.observerCol; q < w; q++, i++, dx++) {
       const s = hs[i];
-      // The distance as distanceM holds it (Float32).
-      const d = Math.fround(Math.sqrt(dx * dx + dy2) * cell);
+      const adx = dx < 0 ? -dx : dx;
+      const d = distM[adx];
       const g = gz[i];
-      const v = antenna + d * d * curv + s * d - g;
-      if (v > VISIBILITY_TOLERANCE_M) res[i] = v;
+      const v = levelM[adx] + s * d - g;
+      if (v > tol) res[i] = v;
       // Visible from the ground up; a -Infinity slope (nothing obstructs) lands here too.
-      else if (v <= VISIBILITY_TOLERANCE_M) res[i] = 0;
+      else if (v <= tol) res[i] = 0;
       // NaN: nodata slope or ground, or the observer's own cell (-Infinity · 0).
-      else res[i] = s === Number.NEGATIVE_INFINITY && !Number.isNaN(g) ? 0 : Number.NaN;
+      else res[i] = s === NEG && !Number.isNaN(g) ? 0 : Number.NaN;
     }
   }
   return res;
@@ -348,18 +378,23 @@ export function visibleMask(
   const hs = h.horizonSlope;
   const gz = ground.data;
   const limit = targetHeightAglM + VISIBILITY_TOLERANCE_M;
+  const NEG = -Infinity;
   const w = h.width;
   const cell = cellSizeOf(h, ground);
+  const geo = rowGeometry(h);
+  const distM = geo.distM;
+  const levelM = geo.levelM;
   for (let r = 0; r < h.height; r++) {
     const dy = r - h.observerRow;
-    const dy2 = dy * dy;
+    fillRowGeometry(geo, dy * dy, cell, antenna, curv);
     for (let q = 0, i = r * w, dx = -h.observerCol; q < w; q++, i++, dx++) {
       const s = hs[i];
-      const d = Math.fround(Math.sqrt(dx * dx + dy2) * cell);
+      const adx = dx < 0 ? -dx : dx;
+      const d = distM[adx];
       const g = gz[i];
-      const need = antenna + d * d * curv + s * d - g;
+      const need = levelM[adx] + s * d - g;
       // NaN compares false → hidden; -Infinity slope gives -Infinity need → visible (when ground exists).
-      res[i] = need <= limit || (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) ? 1 : 0;
+      res[i] = need <= limit || (s === NEG && !Number.isNaN(g)) ? 1 : 0;
     }
   }
   return res;
@@ -390,17 +425,20 @@ export function obstructionClearanceM(
   const gz = ground.data;
   const w = h.width;
   const cell = cellSizeOf(h, ground);
+  const geo = rowGeometry(h);
+  const distM = geo.distM;
+  const NEG = -Infinity;
   for (let r = 0; r < h.height; r++) {
     const dy = r - h.observerRow;
-    const dy2 = dy * dy;
+    fillRowGeometry(geo, dy * dy, cell, antenna, curv);
     for (let q = 0, i = r * w, dx = -h.observerCol; q < w; q++, i++, dx++) {
       const s = hs[i];
       const g = gz[i];
-      if (s === Number.NEGATIVE_INFINITY && !Number.isNaN(g)) {
-        res[i] = Number.NEGATIVE_INFINITY;
+      if (s === NEG && !Number.isNaN(g)) {
+        res[i] = NEG;
         continue;
       }
-      const d = Math.fround(Math.sqrt(dx * dx + dy2) * cell);
+      const d = distM[dx < 0 ? -dx : dx];
       const targetSlope = (g + targetHeightAglM - antenna - d * d * curv) / d;
       res[i] = od[i] * (s - targetSlope);
     }
