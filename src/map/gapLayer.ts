@@ -22,7 +22,7 @@ function hatchTable(): Uint8ClampedArray {
 }
 
 export class GapLayer extends L.LayerGroup {
-  private readonly hatch = new RasterLayer({ pane: "overlayPane", zIndex: 5 });
+  private readonly hatch = new RasterLayer({ pane: "picket-gaps" });
   private readonly outlines = L.layerGroup();
   private readonly table = hatchTable();
 

@@ -5,6 +5,9 @@
 import { type RefObject, useEffect, useRef, useState } from "react";
 import L from "./leaflet";
 
+/** Map panes of our raster layers and their stacking order. */
+export const RASTER_PANES = { "picket-coverage": 350, "picket-gaps": 360 } as const;
+
 export interface MapInit {
   centerLatLon: [number, number];
   zoom: number;
@@ -30,6 +33,12 @@ export function useLeafletMap(container: RefObject<HTMLDivElement | null>, init:
       pmIgnore: false,
     });
     m.attributionControl.setPrefix(false);
+    // Rasters sit between the basemap tiles (200) and the vectors (400): outlines always stay on top.
+    for (const [name, z] of Object.entries(RASTER_PANES)) {
+      const pane = m.createPane(name);
+      pane.style.zIndex = String(z);
+      pane.style.pointerEvents = "none";
+    }
     setMap(m);
     return () => {
       m.remove();

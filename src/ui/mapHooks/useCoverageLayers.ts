@@ -12,7 +12,7 @@ import { selectedSlice } from "../selection";
 import { useSession } from "../session";
 
 export function useCoverageLayers(map: L.Map | null): void {
-  const coverage = useMemo(() => new RasterLayer({ pane: "overlayPane", zIndex: 3 }), []);
+  const coverage = useMemo(() => new RasterLayer({ pane: "picket-coverage" }), []);
   const gaps = useMemo(() => new GapLayer(), []);
   useMapLayer(map, coverage);
   useMapLayer(map, gaps);

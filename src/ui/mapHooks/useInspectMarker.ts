@@ -21,14 +21,10 @@ export function useInspectMarker(map: L.Map | null): void {
     const postId = profilePostId ?? radarsByPd(point)[0]?.postId;
     const post = plan?.posts.find((p) => p.id === postId);
     if (post) {
-      group.addLayer(
-        L.polyline([[post.position.latDeg, post.position.lonDeg], at], {
-          color: "#1d3557",
-          weight: 2,
-          dashArray: "6 4",
-          interactive: false,
-        }),
-      );
+      const path: [number, number][] = [[post.position.latDeg, post.position.lonDeg], at];
+      // A light casing under the dashed path keeps it readable over any layer.
+      group.addLayer(L.polyline(path, { color: "#fff", weight: 6, opacity: 0.8, interactive: false }));
+      group.addLayer(L.polyline(path, { color: "#e07a00", weight: 3, dashArray: "8 5", interactive: false }));
     }
     group.addLayer(
       L.circleMarker(at, { radius: 7, color: "#e07a00", weight: 3, fill: false, interactive: false }),
