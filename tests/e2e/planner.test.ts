@@ -150,6 +150,62 @@ describe.skipIf(!RUN)("planner in the browser", () => {
     await page.getByTestId("height-10").click();
   });
 
+  it("configures the requirement, analysis and radar library with named errors", async () => {
+    await openTab(page, "targets");
+    const covered0 = await text(page, "covered-protected-10");
+    const g0 = await gen(page);
+    const pd = page.getByTestId("required-pd");
+    await pd.fill("0.5");
+    await pd.press("Enter");
+    await waitNewRun(page, g0);
+    expect(Number.parseFloat(await text(page, "covered-protected-10"))).toBeGreaterThanOrEqual(
+      Number.parseFloat(covered0),
+    );
+    await pd.fill("2");
+    await pd.press("Enter");
+    await expect
+      .poll(
+        async () =>
+          (await page
+            .locator(".field-error")
+            .first()
+            .textContent()
+            .catch(() => "")) ?? "",
+      )
+      .toMatch(/Required Pd: 2 .* is above 0\.999/);
+    await page.getByTestId("undo").click();
+    await waitNewRun(page, await gen(page));
+    expect(await text(page, "covered-protected-10")).toBe(covered0);
+    await openTab(page, "analysis");
+    await expect.poll(() => text(page, "run-estimate")).toMatch(/Memory needed\d+ MiB/);
+    await openTab(page, "radars");
+    const models = page.getByTestId("radars-panel").locator("ul.plain-list li");
+    const n = await models.count();
+    await page.getByRole("button", { name: "Duplicate" }).click();
+    await expect.poll(() => models.count()).toBe(n + 1);
+    await page.getByRole("button", { name: "Edit" }).click();
+    const doc = page.getByLabel(/Model document/);
+    const json = JSON.parse((await doc.inputValue()) || "{}");
+    json.transmitter.peakPowerW = -5;
+    await doc.fill(JSON.stringify(json, null, 2));
+    await page.getByRole("button", { name: "Apply" }).click();
+    await expect
+      .poll(
+        async () =>
+          (await page
+            .getByTestId("radars-panel")
+            .locator(".field-error")
+            .textContent()
+            .catch(() => "")) ?? "",
+      )
+      .toMatch(/transmitter\.peakPowerW/);
+    await page.getByRole("button", { name: "Cancel" }).click();
+    await page.getByTestId("undo").click();
+    await expect.poll(() => models.count()).toBe(n);
+    await shoot(page, "radars");
+    await openTab(page, "posts");
+  });
+
   it("inspects a point and reads its link budget and terrain profile", async () => {
     await openTab(page, "inspect");
     await page.getByTestId("tool-inspect").click();

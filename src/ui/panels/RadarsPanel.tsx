@@ -4,6 +4,7 @@
  */
 import { fileOpen, fileSave } from "browser-fs-access";
 import { useEffect, useId, useState } from "react";
+import { radarRangeWindowM } from "../../coverage/coverage";
 import type { RadarModel } from "../../coverage/radarModel";
 import { loadRadarModelFile } from "../../io/radarFile";
 import { say } from "../session";
@@ -13,6 +14,7 @@ const HZ_PER_GHZ = 1e9;
 const M_PER_KM = 1000;
 
 function KeyFigures({ m }: { m: RadarModel }) {
+  const win = radarRangeWindowM(m);
   return (
     <dl className="figures">
       <dt>Frequency</dt>
@@ -35,7 +37,8 @@ function KeyFigures({ m }: { m: RadarModel }) {
       </dd>
       <dt>Instrumented range</dt>
       <dd>
-        {(m.blindZoneM / M_PER_KM).toFixed(2)}–{(m.maxInstrumentedRangeM / M_PER_KM).toFixed(1)} km
+        {(win.minM / M_PER_KM).toFixed(2)}–{(win.maxM / M_PER_KM).toFixed(1)} km
+        {win.minM > m.blindZoneM ? " (near edge set by the transmitted pulse, c·τ/2)" : ""}
       </dd>
       <dt>Waveform</dt>
       <dd>{m.waveform.kind === "fmcw" ? "FMCW" : "pulsed"}</dd>
