@@ -7,7 +7,7 @@
  * Run alone with `npx tsx tests/bench/mask.bench.ts [sizes…]`, or through `npm run bench`.
  */
 import { type ChildProcessWithoutNullStreams, spawn, spawnSync } from "node:child_process";
-import { existsSync, mkdtempSync, rmSync, writeFileSync } from "node:fs";
+import { existsSync, mkdtempSync, readFileSync, rmSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import { createInterface, type Interface } from "node:readline";
@@ -48,6 +48,20 @@ function mcps(cells: number, ms: number): string {
   return `${(cells / ms / 1e3).toFixed(1)} M cells/s`;
 }
 
+/**
+ * CPU time of a thread so far, ms, from Linux's /proc/…/schedstat (first field: ns on a CPU); NaN
+ * elsewhere. On a shared machine the wall time includes waiting for a core, the CPU time does not.
+ */
+function cpuMs(path: string): number {
+  try {
+    return Number(readFileSync(path, "utf8").split(" ")[0]) / 1e6;
+  } catch {
+    return Number.NaN;
+  }
+}
+
+const SELF_CPU = "/proc/thread-self/schedstat";
+
 /** A long-lived python3-gdal child answering one JSON line per command. */
 class GdalTimer {
   private readonly child: ChildProcessWithoutNullStreams;
@@ -69,6 +83,11 @@ class GdalTimer {
       this.pending.push((l) => resolve(JSON.parse(l)));
       this.child.stdin.write(`${JSON.stringify(msg)}\n`);
     });
+  }
+
+  /** CPU time of the child's main thread so far, ms (NaN when unknown). */
+  cpuMs(): number {
+    return this.child.pid === undefined ? Number.NaN : cpuMs(`/proc/${this.child.pid}/schedstat`);
   }
 
   async close(): Promise<void> {
@@ -130,19 +149,28 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
     accurateDist: [],
     gdalMem: [],
     gdalCli: [],
+    cpuFast: [],
+    cpuAccurate: [],
+    cpuFastReuse: [],
+    cpuAccurateReuse: [],
+    cpuGdalMem: [],
   };
   const lvhOut = new Float32Array(cells);
   const reuse = computeHorizon({ ...base, mode: "fast" });
   for (let r = 0; r < rounds; r++) {
     for (const mode of ["fast", "accurate"] as MaskMode[]) {
+      const c0 = cpuMs(SELF_CPU);
       const t0 = performance.now();
       computeHorizon({ ...base, mode }, reuse);
       t[`${mode}Reuse`].push(performance.now() - t0);
+      t[mode === "fast" ? "cpuFastReuse" : "cpuAccurateReuse"].push(cpuMs(SELF_CPU) - c0);
     }
     for (const mode of ["fast", "accurate"] as MaskMode[]) {
+      const c0 = cpuMs(SELF_CPU);
       const t0 = performance.now();
       const h = computeHorizon({ ...base, mode });
       const t1 = performance.now();
+      t[mode === "fast" ? "cpuFast" : "cpuAccurate"].push(cpuMs(SELF_CPU) - c0);
       t[mode].push(t1 - t0);
       if (mode === "accurate") {
         lowestVisibleHeightAglM(h, dem.ground, { ...base, mode }, lvhOut);
@@ -157,6 +185,7 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
       t[`${mode}Dist`].push(performance.now() - t0);
     }
     if (gdal) {
+      const g0 = gdal.cpuMs();
       const res = await gdal.ask({
         cmd: "viewshed",
         observerX,
@@ -166,6 +195,9 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
         mode: "normal",
       });
       t.gdalMem.push(Number(res.seconds) * 1000);
+      // The child waits on its input otherwise: its CPU time across the request is the call's (and the
+      // few microseconds of reading one JSON line).
+      t.cpuGdalMem.push(gdal.cpuMs() - g0);
       const t0 = performance.now();
       const cli = spawnSync(
         "gdal_viewshed",
@@ -206,6 +238,25 @@ async function benchSize(side: number, rounds: number, gdal: GdalTimer | null, d
       `  speed ratio to GDAL in-process (>1 = faster): fast ${(g.median / fast.median).toFixed(2)}×, accurate ${(g.median / acc.median).toFixed(2)}×; ` +
         `reused arrays: fast ${(g.median / fr.median).toFixed(2)}×, accurate ${(g.median / ar.median).toFixed(2)}×`,
     );
+  }
+  if (!Number.isNaN(stats(t.cpuFast).median)) {
+    const cf = stats(t.cpuFast);
+    const ca = stats(t.cpuAccurate);
+    const cfr = stats(t.cpuFastReuse);
+    const car = stats(t.cpuAccurateReuse);
+    lines.push(
+      `  CPU time (no waiting for a core): fast ${fmtMs(cf)} → ${mcps(cells, cf.median)}, ` +
+        `reused ${fmtMs(cfr)} → ${mcps(cells, cfr.median)}; accurate ${fmtMs(ca)} → ${mcps(cells, ca.median)}, ` +
+        `reused ${fmtMs(car)} → ${mcps(cells, car.median)}`,
+    );
+    if (t.cpuGdalMem.length > 0 && !Number.isNaN(stats(t.cpuGdalMem).median)) {
+      const cg = stats(t.cpuGdalMem);
+      lines.push(
+        `  CPU time GDAL in-process ${fmtMs(cg)} → ${mcps(cells, cg.median)}; ratio (>1 = faster): ` +
+          `fast ${(cg.median / cf.median).toFixed(2)}× (reused ${(cg.median / cfr.median).toFixed(2)}×), ` +
+          `accurate ${(cg.median / ca.median).toFixed(2)}× (reused ${(cg.median / car.median).toFixed(2)}×)`,
+      );
+    }
   }
   if (t.gdalCli.length > 0) {
     const c = stats(t.gdalCli);
