@@ -173,8 +173,9 @@ describe.skipIf(!RUN)("planner in the browser", () => {
             .catch(() => "")) ?? "",
       )
       .toMatch(/Required Pd: 2 .* is above 0\.999/);
+    const g1 = await gen(page);
     await page.getByTestId("undo").click();
-    await waitNewRun(page, await gen(page));
+    await waitNewRun(page, g1);
     expect(await text(page, "covered-protected-10")).toBe(covered0);
     await openTab(page, "analysis");
     await expect.poll(() => text(page, "run-estimate")).toMatch(/Memory needed\d+ MiB/);
