@@ -77,7 +77,7 @@ async function openTab(p: Page, id: string): Promise<void> {
   await p.getByTestId(`tab-${id}`).click();
 }
 
-describe.skipIf(!RUN)("planner in the browser", () => {
+describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
   beforeAll(async () => {
     h = await startHarness();
     page = h.page;
