@@ -139,6 +139,17 @@ export interface RadarHeightCoverage {
   targets: TargetHeightCoverage[];
 }
 
+/**
+ * The rows and columns (inclusive) of the square a radar stage visited; every cell outside it is out
+ * of range in every output (SNR and lowest height NaN, Pd 0, reason outOfRange).
+ */
+export interface RadarExtent {
+  rowMin: number;
+  rowMax: number;
+  colMin: number;
+  colMax: number;
+}
+
 /** The coverage of one radar: per height, per target class. */
 export interface RadarCoverage {
   radarId: string;
@@ -147,6 +158,11 @@ export interface RadarCoverage {
   /** Lowest visible target height above ground per cell, m (NaN nodata / out of range); from the horizon. */
   lowestVisibleHeightAglM: Float32Array;
   heights: RadarHeightCoverage[];
+  /**
+   * The square the stage visited (absent: the whole grid may hold values). Fusion and metrics skip the
+   * radar outside it; a later stage writing into these arrays refills only what changed around it.
+   */
+  extent?: RadarExtent;
 }
 
 /** Instrumented ranges of a radar, m (slant range). */
@@ -410,7 +426,9 @@ function fillOutside(
  * range"; outside the instrumented field "out of sector"; then Pd decides: covered, else masked when
  * the sight line is obstructed (v > 0), else too weak; beyond a sector edge "out of sector".
  * `reuse`: a previous result of the same shape (cells, heights, classes) to overwrite instead of
- * allocating (every cell is rewritten); ignored when the shape differs.
+ * allocating; ignored when the shape differs. Every cell is rewritten, except that when the reused
+ * result's `extent` lies inside this radar's square its outside (already "out of range" there) is
+ * left as it is: do not change a result's arrays outside its extent.
  */
 export function radarCoverageFromHorizon(
   input: RadarStageInput,
@@ -498,13 +516,24 @@ export function radarCoverageFromHorizon(
   const c0 = Math.max(0, oc - spanCells);
   const c1 = Math.min(w - 1, oc + spanCells);
 
-  fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
-  fillOutside((r1 + 1) * w, n, lowest, snrOut, pdOut, reasonOut);
+  // Outside the square every output is "out of range". A reused result whose own square lay inside
+  // this one already holds exactly that outside this square (its stage filled it), so only this
+  // square is written then; otherwise the outside is filled here.
+  const old = reuse !== undefined && out === reuse ? reuse.extent : undefined;
+  const outsideFilled =
+    old !== undefined && old.rowMin >= r0 && old.rowMax <= r1 && old.colMin >= c0 && old.colMax <= c1;
+  out.extent = undefined; // while being written, the arrays match no extent
+  if (!outsideFilled) {
+    fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
+    fillOutside((r1 + 1) * w, n, lowest, snrOut, pdOut, reasonOut);
+  }
   for (let row = r0; row <= r1; row++) {
     const northM = (orow - row) * cellM;
     const dy2 = (row - orow) * (row - orow);
-    fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
-    fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
+    if (!outsideFilled) {
+      fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
+      fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
+    }
     for (let col = c0; col <= c1; col++) {
       const i = row * w + col;
       // Horizontal distance between cell centres, as terrainMask.ts defines it (rule TM1), computed
@@ -623,6 +652,7 @@ export function radarCoverageFromHorizon(
       }
     }
   }
+  out.extent = { rowMin: r0, rowMax: r1, colMin: c0, colMax: c1 };
   return out;
 }
 

@@ -133,8 +133,10 @@ export interface EvaluateOptions {
   runRadar?: RadarRunner;
   /**
    * A previous result of this site that the caller no longer needs: each recomputed radar writes into
-   * that radar's old arrays (same id, same shape) instead of allocating new ones. Never pass a result
-   * whose radars are still held by a cache or shown elsewhere: their arrays are overwritten.
+   * that radar's old arrays (same id, same shape) instead of allocating new ones, and the fused rasters,
+   * cell states and lowest visible height are written into its arrays of the same class and height.
+   * Never pass a result whose radars or rasters are still held by a cache or shown elsewhere: their
+   * arrays are overwritten.
    */
   previous?: SiteResult;
 }
@@ -326,14 +328,39 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   const t1 = now();
 
   const n = site.frame.width * site.frame.height;
-  const lowest = new Float32Array(n).fill(Number.NaN);
+  const w = site.frame.width;
+  // Arrays of the previous result (which the caller no longer needs) are overwritten, not allocated.
+  const prev = opts.previous;
+  const reusable =
+    prev !== undefined && prev.frame.width === site.frame.width && prev.frame.height === site.frame.height;
+  const lowest =
+    reusable &&
+    prev.lowestVisibleHeightAglM.length === n &&
+    !radars.some((r) => r.lowestVisibleHeightAglM === prev.lowestVisibleHeightAglM)
+      ? prev.lowestVisibleHeightAglM.fill(Number.NaN)
+      : new Float32Array(n).fill(Number.NaN);
   for (const r of radars) {
     const l = r.lowestVisibleHeightAglM;
-    for (let i = 0; i < n; i++) {
-      const v = l[i];
-      if (v < lowest[i] || (Number.isNaN(lowest[i]) && !Number.isNaN(v))) lowest[i] = v;
+    // Outside its extent a radar's lowest height is NaN, which changes nothing here.
+    const e = r.extent;
+    const r0 = e ? e.rowMin : 0;
+    const r1 = e ? e.rowMax : site.frame.height - 1;
+    const c0 = e ? e.colMin : 0;
+    const c1 = e ? e.colMax : w - 1;
+    for (let row = r0; row <= r1; row++) {
+      const end = row * w + c1;
+      for (let i = row * w + c0; i <= end; i++) {
+        const v = l[i];
+        if (v < lowest[i] || (Number.isNaN(lowest[i]) && !Number.isNaN(v))) lowest[i] = v;
+      }
     }
   }
+  const extents = radars.map((r) => r.extent);
+  /** A previous fused height of this class and height, when its arrays can be overwritten. */
+  const previousHeight = (targetId: string, h: number): SiteHeightResult | undefined =>
+    reusable
+      ? prev.targets.find((t) => t.targetId === targetId)?.heights.find((x) => x.heightAglM === h)
+      : undefined;
 
   const radarIds = site.radars.map((r) => r.id);
   const fusionSteps = site.targets.reduce(
@@ -342,10 +369,14 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   );
   let fusionDone = 0;
   const states = new Map<number, Uint8Array>();
+  const previousStates = new Map<number, Uint8Array>();
+  if (reusable)
+    for (const t of prev.targets)
+      for (const x of t.heights) if (x.cellState.length === n) previousStates.set(x.heightAglM, x.cellState);
   const stateAt = (h: number): Uint8Array => {
     let s = states.get(h);
     if (s === undefined) {
-      s = cellStatesAtHeight(site.ground, site.obstructionTopAglM, h);
+      s = cellStatesAtHeight(site.ground, site.obstructionTopAglM, h, previousStates.get(h));
       states.set(h, s);
     }
     return s;
@@ -362,6 +393,9 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
         requiredPd: site.requirement.requiredPd,
         cellState,
         regions: site.regions,
+        extents,
+        width: w,
+        out: previousHeight(target.id, h),
       });
       const metrics = heightMetrics({
         heightAglM: h,
@@ -376,6 +410,7 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
         originX: site.frame.originX,
         originY: site.frame.originY,
         cellSizeM: site.frame.cellSizeM,
+        extents,
       });
       heights.push({ ...fused, heightAglM: h, cellState, metrics });
       fusionDone++;

@@ -6,6 +6,7 @@
  * (the OR rule for independent sensors; common practice, e.g. Skolnik, Radar Handbook 3rd ed., on
  * netted radars). Overlap = the number of radars that alone meet the required Pd.
  */
+import type { RadarExtent } from "./coverage.ts";
 import type { RegionMasks } from "./regionMask.ts";
 
 /** "No radar" in a best-radar raster. */
@@ -31,6 +32,15 @@ export interface FusionInput {
   cellState: Uint8Array;
   /** Region masks; gaps are only marked inside them. */
   regions: RegionMasks;
+  /**
+   * Optional, per radar: the square outside which its Pd is 0 (RadarCoverage.extent; undefined = the
+   * whole grid). The radar's raster is not read outside it. Needs `width`.
+   */
+  extents?: ReadonlyArray<RadarExtent | undefined>;
+  /** Columns of the grid, for `extents` (cells are row-major). */
+  width?: number;
+  /** Optional arrays of a previous FusedHeight of the same length to overwrite instead of allocating. */
+  out?: FusedHeight;
 }
 
 export interface FusedHeight {
@@ -49,42 +59,82 @@ export interface FusedHeight {
  * A cell that is not valid (inside an obstruction, nodata) gets combined Pd 0, overlap 0 and no gap.
  */
 export function fuseHeight(input: FusionInput): FusedHeight {
-  const { pdPerRadar, requiredPd, cellState, regions } = input;
+  const { pdPerRadar, requiredPd, cellState, regions, extents } = input;
   const n = cellState.length;
   const radarCount = pdPerRadar.length;
   if (radarCount >= NO_RADAR)
     throw new RangeError(`fusion takes at most ${NO_RADAR - 1} radars, got ${radarCount}`);
-  const combinedPd = new Float32Array(n);
-  const overlapCount = new Uint8Array(n);
-  const bestRadar = new Uint8Array(n);
-  const gap = new Uint8Array(n);
+  const reuse = input.out;
+  const fits =
+    reuse !== undefined &&
+    reuse.combinedPd.length === n &&
+    reuse.overlapCount.length === n &&
+    reuse.bestRadar.length === n &&
+    reuse.gap.length === n;
+  const combinedPd = fits ? reuse.combinedPd : new Float32Array(n);
+  const overlapCount = fits ? reuse.overlapCount : new Uint8Array(n);
+  const bestRadar = fits ? reuse.bestRadar : new Uint8Array(n);
+  const gap = fits ? reuse.gap : new Uint8Array(n);
   const protectedArea = regions.protectedArea;
   const ring = regions.approachRing;
-  // Cell by cell across the radars: each Pd raster is read once, each output written once.
-  for (let i = 0; i < n; i++) {
-    if (cellState[i] !== CellState.valid) {
-      bestRadar[i] = NO_RADAR;
-      continue;
-    }
-    let miss = 1;
-    let count = 0;
-    let best = NO_RADAR;
-    let bestPd = 0;
+  const width = extents !== undefined && input.width !== undefined && input.width > 0 ? input.width : n;
+  const rows = width > 0 ? Math.ceil(n / width) : 0;
+  // Per row, the radars whose square reaches it, with their column span; radars in index order so
+  // the product below is formed in the same order as over all radars.
+  const active = new Int32Array(radarCount);
+  const colLo = new Int32Array(radarCount);
+  const colHi = new Int32Array(radarCount);
+  const rasters = pdPerRadar.slice();
+  for (let row = 0; row < rows; row++) {
+    let na = 0;
     for (let r = 0; r < radarCount; r++) {
-      const p = pdPerRadar[r][i];
-      if (!(p > 0)) continue;
-      miss *= 1 - p;
-      if (p >= requiredPd) count++;
-      if (p > bestPd) {
-        bestPd = p;
-        best = r;
+      const e = extents?.[r];
+      if (e === undefined) {
+        active[na] = r;
+        colLo[na] = 0;
+        colHi[na] = width - 1;
+        na++;
+      } else if (row >= e.rowMin && row <= e.rowMax) {
+        active[na] = r;
+        colLo[na] = e.colMin;
+        colHi[na] = e.colMax;
+        na++;
       }
     }
-    const pdc = 1 - miss;
-    combinedPd[i] = pdc;
-    overlapCount[i] = count;
-    bestRadar[i] = best;
-    if ((protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd) gap[i] = 1;
+    const start = row * width;
+    const end = Math.min(n, start + width);
+    // Cell by cell across the radars: each Pd raster is read once, each output written once.
+    for (let i = start; i < end; i++) {
+      if (cellState[i] !== CellState.valid) {
+        combinedPd[i] = 0;
+        overlapCount[i] = 0;
+        bestRadar[i] = NO_RADAR;
+        gap[i] = 0;
+        continue;
+      }
+      const col = i - start;
+      let miss = 1;
+      let count = 0;
+      let best = NO_RADAR;
+      let bestPd = 0;
+      for (let a = 0; a < na; a++) {
+        if (col < colLo[a] || col > colHi[a]) continue;
+        const r = active[a];
+        const p = rasters[r][i];
+        if (!(p > 0)) continue;
+        miss *= 1 - p;
+        if (p >= requiredPd) count++;
+        if (p > bestPd) {
+          bestPd = p;
+          best = r;
+        }
+      }
+      const pdc = 1 - miss;
+      combinedPd[i] = pdc;
+      overlapCount[i] = count;
+      bestRadar[i] = best;
+      gap[i] = (protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd ? 1 : 0;
+    }
   }
   return { combinedPd, overlapCount, bestRadar, gap };
 }

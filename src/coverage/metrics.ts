@@ -7,6 +7,7 @@
  * Cells inside an obstruction (target height below a roof or canopy) are left out of the fractions
  * and counted on their own; nodata cells likewise.
  */
+import type { RadarExtent } from "./coverage.ts";
 import { CellState, type FusedHeight } from "./fusion.ts";
 import type { RegionMasks } from "./regionMask.ts";
 
@@ -74,6 +75,8 @@ export interface MetricsInput {
   originX: number;
   originY: number;
   cellSizeM: number;
+  /** Optional, per radar: the square outside which its Pd is 0 (RadarCoverage.extent); not read outside. */
+  extents?: ReadonlyArray<RadarExtent | undefined>;
 }
 
 function regionFigures(
@@ -112,6 +115,16 @@ function regionFigures(
   };
 }
 
+/** Label and stack arrays of gapComponents, kept between calls of one thread (labels cleared each call). */
+let scratch: { label: Int32Array; stack: Int32Array } | null = null;
+
+function componentScratch(n: number): { label: Int32Array; stack: Int32Array } {
+  if (scratch === null || scratch.label.length !== n) {
+    scratch = { label: new Int32Array(n), stack: new Int32Array(n) };
+  } else scratch.label.fill(0);
+  return scratch;
+}
+
 /**
  * Connected components (8-neighbour) of a 0/1 raster: their count, the largest size in cells and
  * the mean column/row of the largest. Flood fill with an explicit stack (no recursion).
@@ -127,8 +140,7 @@ export function gapComponents(
   largestMeanCol: number;
   largestMeanRow: number;
 } {
-  const label = new Int32Array(gap.length);
-  const stack = new Int32Array(gap.length);
+  const { label, stack } = componentScratch(gap.length);
   let count = 0;
   let totalCells = 0;
   let largestCells = 0;
@@ -198,13 +210,21 @@ export function heightMetrics(input: MetricsInput): HeightMetrics {
   const coveredCells = new Array<number>(pdPerRadar.length).fill(0);
   const onlyCells = new Array<number>(pdPerRadar.length).fill(0);
   const n = cellState.length;
+  const radarCount = pdPerRadar.length;
+  const extents = input.extents;
+  const overlap = fused.overlapCount;
+  const pa = regions.protectedArea;
+  const ring = regions.approachRing;
   for (let i = 0; i < n; i++) {
-    if ((regions.protectedArea[i] | regions.approachRing[i]) === 0 || cellState[i] !== CellState.valid)
-      continue;
-    const k = fused.overlapCount[i];
+    if ((pa[i] | ring[i]) === 0 || cellState[i] !== CellState.valid) continue;
+    const k = overlap[i];
     overlapHistogram[k]++;
     if (k === 0) continue;
-    for (let r = 0; r < pdPerRadar.length; r++) {
+    const row = (i / width) | 0;
+    const col = i - row * width;
+    for (let r = 0; r < radarCount; r++) {
+      const e = extents?.[r];
+      if (e !== undefined && (row < e.rowMin || row > e.rowMax || col < e.colMin || col > e.colMax)) continue;
       if (pdPerRadar[r][i] >= requiredPd) {
         coveredCells[r]++;
         if (k === 1) onlyCells[r]++;

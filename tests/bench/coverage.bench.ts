@@ -3,7 +3,7 @@
  * and the full evaluation of a 10-radar, 3-height plan on 4 M cells (2048 × 2048 at 5 m, rough terrain
  * with buildings), single-threaded and on 2 Node worker_threads via comlink. Medians and spreads
  * (min–max) are printed, never asserted; also `plan los` end to end against `gdal_viewshed -om GROUND`.
- * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|full|los]`.
+ * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|breakdown|full|los]`.
  */
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
@@ -38,7 +38,7 @@ function fmt(x: { median: number; min: number; max: number }, digits = 1): strin
   return `median ${x.median.toFixed(digits)} (min ${x.min.toFixed(digits)}, max ${x.max.toFixed(digits)})`;
 }
 
-function siteOn(
+export function siteOn(
   cellSizeM: number,
   radars: (n: { frame: PreparedSite["frame"]; ground: Float32Array }) => PlacedRadar[],
   heights: number[],
@@ -83,7 +83,7 @@ function siteOn(
   };
 }
 
-function radarAt(
+export function radarAt(
   s: { frame: PreparedSite["frame"]; ground: Float32Array },
   model: RadarModel,
   col: number,
@@ -107,7 +107,7 @@ function radarAt(
 }
 
 /** Radar stage alone: ns per cell for 4 heights, one class, every cell within range. */
-function benchStage(label: string, model: RadarModel, cellSizeM: number, runs: number): void {
+export function benchStage(label: string, model: RadarModel, cellSizeM: number, runs: number): void {
   const heights = [10, 30, 60, 100];
   const site = siteOn(cellSizeM, (s) => [radarAt(s, model, SIDE / 2, SIDE / 2, 45, "r")], heights);
   const radar = site.radars[0];
@@ -145,7 +145,7 @@ function benchStage(label: string, model: RadarModel, cellSizeM: number, runs: n
   );
 }
 
-function planRadars(s: { frame: PreparedSite["frame"]; ground: Float32Array }): PlacedRadar[] {
+export function planRadars(s: { frame: PreparedSite["frame"]; ground: Float32Array }): PlacedRadar[] {
   const kalvori = demoRadar("kalvori-x9");
   const mossbee = demoRadar("mossbee-58");
   const zorvane = demoRadar("zorvane-s24");
@@ -277,6 +277,62 @@ async function benchFull(runs: number): Promise<void> {
   }
 }
 
+/**
+ * Where the single-thread full evaluation spends its time: per radar the horizon sweep and the radar
+ * stage (into the previous run's arrays), then fusion and metrics. Medians over `runs`.
+ */
+async function benchBreakdown(runs: number): Promise<void> {
+  const site = siteOn(5, planRadars, [10, 30, 60]);
+  const n = SIDE * SIDE;
+  const sweep: number[][] = site.radars.map(() => []);
+  const stage: number[][] = site.radars.map(() => []);
+  const kept: (RadarCoverage | undefined)[] = site.radars.map(() => undefined);
+  for (let r = 0; r <= runs; r++) {
+    site.radars.forEach((radar, i) => {
+      const kernel = buildRadarKernel({
+        radar,
+        targets: site.targets,
+        requirement: site.requirement,
+        effectiveEarthFactor: site.effectiveEarthFactor,
+      });
+      let t = performance.now();
+      const horizon = computeHorizon({
+        surface: { ...site.frame, data: site.surface },
+        observerX: radar.x,
+        observerY: radar.y,
+        antennaHeightAslM: radar.antennaHeightAslM,
+        effectiveEarthFactor: site.effectiveEarthFactor,
+        maxRangeM: Number.isFinite(kernel.maxRangeM) ? kernel.maxRangeM : undefined,
+        mode: "accurate",
+      });
+      const ts = performance.now() - t;
+      t = performance.now();
+      kept[i] = radarCoverageFromHorizon({ ...site, radar }, kernel, horizon, kept[i]);
+      const tc = performance.now() - t;
+      if (r > 0) {
+        sweep[i].push(ts);
+        stage[i].push(tc);
+      }
+    });
+  }
+  const parts = site.radars.map(
+    (radar, i) =>
+      `${radar.id} sweep ${stats(sweep[i]).median.toFixed(0)} stage ${stats(stage[i]).median.toFixed(0)}`,
+  );
+  const sum = (xs: number[][]) => xs.reduce((a, x) => a + stats(x).median, 0);
+  console.log(
+    `coverage full-plan breakdown on ${n} cells, ms (medians of ${runs}): ${parts.join("; ")}; ` +
+      `all sweeps ${sum(sweep).toFixed(0)}, all stages ${sum(stage).toFixed(0)}`,
+  );
+  let previous = await evaluateSite(site);
+  const fusion: number[] = [];
+  for (let r = 0; r < runs; r++) {
+    previous = await evaluateSite(site, { previous });
+    fusion.push(previous.timingsMs.fusion);
+  }
+  console.log(`coverage fusion and metrics (3 heights, 10 radars): ${fmt(stats(fusion), 0)} ms`);
+}
+
 /** Wall time of a command, ms, or NaN when it fails. */
 function timeCommand(cmd: string, args: string[]): number {
   const t = performance.now();
@@ -362,6 +418,7 @@ export async function run(parts: string[] = ["stage", "full", "los"]): Promise<v
     benchStage("rotating pulsed (kalvori-x9), 10 m cells", demoRadar("kalvori-x9"), 10, 7);
     benchStage("staring FMCW (mossbee-58), 0.5 m cells", demoRadar("mossbee-58"), 0.5, 7);
   }
+  if (parts.includes("breakdown")) await benchBreakdown(3);
   if (parts.includes("full")) await benchFull(5);
   if (parts.includes("los")) await benchLos(5);
 }
