@@ -23,9 +23,12 @@ const GAUSSIAN_LN_EXPONENT = 4 * Math.LN2;
 /**
  * One-dimensional main-beam shape relative to peak, dB (no floor applied), with the half-power points at
  * ± beamwidthDeg/2 exactly:
- *  - "gaussian": f = exp(−4 ln2 · (θ/θ3)²), i.e. −10·log10(2)·4·(θ/θ3)² dB (common practice);
+ *  - "gaussian": f = exp(−4 ln2 · (θ/θ3)²), i.e. −10·log10(2)·4·(θ/θ3)² dB (the Gaussian main-beam
+ *    approximation, common practice);
  *  - "sinc2": uniform aperture f = (sin u / u)², u = 1.39156 · θ / (θ3/2) (Balanis, Antenna Theory,
- *    3rd ed., uniform line source), main lobe only: −Infinity at and beyond the first null u = π.
+ *    4th ed., 2016, §12.5.1 uniform rectangular aperture and Table 12.1, whose E- and H-plane factors
+ *    are sin X / X; section and table numbers from memory), main lobe only: −Infinity at and beyond
+ *    the first null u = π.
  * @param offDeg angle off the beam axis, degrees (any sign; the shape is symmetric).
  * @param beamwidthDeg half-power beamwidth, degrees > 0.
  * @returns dB ≤ 0 (may be −Infinity); NaN for NaN or a non-positive beamwidth.
@@ -60,6 +63,9 @@ function segmentIndex(angleDeg: ArrayLike<number>, a: number): number {
  * @param cut angles ascending in [−180, 180] (deg) with their relative gains (dB ≤ 0); ≥ 1 sample.
  * @param offDeg signed angle off boresight, degrees (positive clockwise in azimuth, up in elevation).
  * @returns dB; −Infinity outside the span; NaN for NaN or an empty cut.
+ * Reference: a measured principal-plane cut, as tabulated in an antenna data sheet, read by piecewise-
+ * linear interpolation in dB (common practice; the use of two principal-plane cuts for the whole pattern
+ * is the separable approximation of the module header).
  */
 export function cutRelativeDb(cut: PatternCut, offDeg: number): number {
   const a = cut.angleDeg;
@@ -91,9 +97,14 @@ function axisRelativeDb(antenna: AntennaSpec, axis: "az" | "el", offDeg: number)
  * max(floor, f_az(Δaz) + f_el(Δel)) with each factor from the measured cut when given, else the main-beam
  * shape (mainBeamRelativeDb). Azimuth offsets are wrapped to (−180, 180].
  * @param antenna peak gain, beamwidths (deg > 0), floor (dB ≤ 0), shape, optional cuts.
- * @param azOffDeg azimuth offset from boresight, degrees, positive clockwise.
- * @param elOffDeg elevation offset from the beam axis (tilt), degrees, positive up.
- * @returns dB in [sidelobeFloorDb, 0] for analytic beams and cuts ≤ 0 dB; NaN for NaN inputs.
+ * @param azOffDeg azimuth offset from boresight, degrees, positive clockwise (any real; wrapped).
+ * @param elOffDeg elevation offset from the beam axis (tilt), degrees, positive up (not wrapped;
+ *   meaningful in [−180, 180]).
+ * @returns dB in [sidelobeFloorDb, 0] for analytic beams and cuts ≤ 0 dB (beyond the first null of a
+ *   sinc² beam or outside a cut's span: the floor); NaN for NaN inputs or a non-positive beamwidth.
+ * Reference: separable pattern G = G0·f_az·f_el floored at a sidelobe level (Barton, Radar System
+ * Analysis and Modeling, 2005, ch. 3, from memory; section and equation numbers not checked); the
+ * factors as in mainBeamRelativeDb (Gaussian: common practice; sinc²: Balanis 4th ed. §12.5.1, from memory).
  */
 export function relativeGainDb(antenna: AntennaSpec, azOffDeg: number, elOffDeg: number): number {
   const sum = axisRelativeDb(antenna, "az", wrapDeg180(azOffDeg)) + axisRelativeDb(antenna, "el", elOffDeg);
@@ -102,8 +113,15 @@ export function relativeGainDb(antenna: AntennaSpec, azOffDeg: number, elOffDeg:
 }
 
 /**
- * Antenna gain towards an offset from boresight, dBi: peakGainDbi + relativeGainDb(...).
- * @returns dBi; NaN for NaN inputs.
+ * Antenna gain towards an offset from boresight, dBi: G(Δaz, Δel) = G0 + relativeGainDb(antenna, Δaz, Δel).
+ * @param antenna peak gain G0, dBi (finite; any real), half-power beamwidths in degrees (az in (0, 360],
+ *   el in (0, 180]), sidelobe floor in dB ≤ 0, main-beam shape, optional measured cuts.
+ * @param azOffDeg azimuth offset from boresight, degrees, positive clockwise (any real; wrapped to (−180, 180]).
+ * @param elOffDeg elevation offset from the beam axis (tilt), degrees, positive up (not wrapped;
+ *   meaningful in [−180, 180]).
+ * @returns dBi in [G0 + sidelobeFloorDb, G0] for analytic beams and cuts ≤ 0 dB; NaN for NaN inputs or a non-positive beamwidth.
+ * Reference: gain = peak gain × relative pattern (Balanis, Antenna Theory, 4th ed., ch. 2, gain and
+ * directivity; from memory, section and equation numbers not checked); pattern as in relativeGainDb.
  */
 export function gainDbi(antenna: AntennaSpec, azOffDeg: number, elOffDeg: number): number {
   return antenna.peakGainDbi + relativeGainDb(antenna, azOffDeg, elOffDeg);
@@ -140,10 +158,18 @@ export interface ScanGeometry {
  *  - sector: azimuth offset 0 within |Δaz| ≤ sectorWidthDeg/2, beyond the edge the pattern at the excess
  *    angle (its roll-off); instrumented within the elevation FOV.
  *  - rotating: azimuth offset 0 everywhere (peak azimuth gain); instrumented within the elevation FOV.
- * The elevation FOV bounds every mode (the cone above a fan beam is not processed).
+ * The elevation FOV bounds every mode (the cone above a fan beam is not processed). A target below the
+ * horizon (negative elevation) is treated like any other elevation: only the FOV and tilt decide.
+ * @param pointing scan mode (FOV and sector widths, degrees > 0), boresight azimuth (degrees clockwise
+ *   from north, any real) and tilt (degrees, positive up).
  * @param targetAzDeg azimuth of the target, degrees clockwise from north (any real; wrapped).
- * @param targetElDeg elevation of the target seen from the antenna, degrees, positive up.
- * @returns the geometry; NaN offsets and false flags for NaN inputs.
+ * @param targetElDeg elevation of the target seen from the antenna, degrees, positive up, [−90, 90].
+ * @returns the geometry; NaN offsets and false flags for NaN inputs; a NaN elevation FOV gives false
+ *   flags (widths ≤ 0 are rejected at the edge, src/io).
+ * Reference: geometry of angle offsets (common practice); the sector rule (peak azimuth gain inside the
+ * scanned sector, the beam's roll-off beyond its edge) is the envelope of a beam scanned over the sector
+ * (Skolnik, Introduction to Radar Systems, 3rd ed., 2001, ch. 9, scanning antennas; from memory, section
+ * not checked).
  */
 export function scanGeometry(
   pointing: Omit<AntennaPointing, "antenna">,
@@ -182,10 +208,16 @@ export interface TargetGain {
 }
 
 /**
- * Gain of a mounted, scanning antenna towards a target azimuth and elevation, dBi (scanGeometry for the
+ * Gain of a mounted, scanning antenna towards a target azimuth and elevation, dBi:
+ * G = G0 + relativeGainDb(antenna, Δaz_pattern, Δel) inside the instrumented field (scanGeometry for the
  * scan rules, relativeGainDb for the pattern).
- * @param targetAzDeg degrees clockwise from true north; targetElDeg degrees, positive up.
+ * @param pointing antenna (see gainDbi for units and ranges), scan mode, boresight azimuth (degrees
+ *   clockwise from north) and tilt (degrees, positive up).
+ * @param targetAzDeg degrees clockwise from true north (any real; wrapped); targetElDeg degrees, positive
+ *   up, [−90, 90] (below the horizon is allowed: the FOV and tilt decide).
  * @returns gain and flags; gainDbi −Infinity outside the instrumented field; NaN gain for NaN inputs.
+ * Reference: as scanGeometry and relativeGainDb (Gaussian beam: common practice; sinc² beam: Balanis,
+ * Antenna Theory, 4th ed., §12.5.1, from memory; separable pattern: Barton 2005, ch. 3, from memory).
  */
 export function towardsTarget(
   pointing: AntennaPointing,
@@ -203,7 +235,16 @@ export function towardsTarget(
   };
 }
 
-/** The receive antenna of a radar: rxAntenna when given, else the transmit antenna. */
+/**
+ * The receive antenna of a radar: rxAntenna when given, else the transmit antenna (a monostatic radar
+ * that shares one antenna for both ways; common practice). Not a physics formula: it selects which
+ * pattern the receive gain g_r of the radar equation is read from.
+ * @param radar txAntenna (required) and optional rxAntenna, as in RadarModel.
+ * @returns radar.rxAntenna when it is defined, else radar.txAntenna (the same object, not a copy); no
+ *   validation and no NaN handling here: the antenna's own fields are checked at the edge (src/io).
+ * Reference: monostatic radar equation with G_t = G_r = G for a shared antenna (Skolnik, Introduction to
+ * Radar Systems, 3rd ed., 2001, §1.2, from memory, equation number not checked).
+ */
 export function receiveAntenna(radar: { txAntenna: AntennaSpec; rxAntenna?: AntennaSpec }): AntennaSpec {
   return radar.rxAntenna ?? radar.txAntenna;
 }
@@ -260,7 +301,11 @@ function oneWayRelativeGain(pointing: AntennaPointing): (targetAzDeg: number, ta
  * Fast path for per-cell use: a closure giving the one-way linear gain relative to peak towards a target
  * direction, with every constant precomputed; equal to dbToLinear(towardsTarget(...).relativeGainDb).
  * Returns 0 where the radar does not detect (outside a staring FOV or the elevation FOV).
- * @returns (targetAzDeg, targetElDeg) → ratio in {0} ∪ [10^(floor/10), 1]; NaN for NaN inputs.
+ * @param pointing antenna, scan, boresight azimuth and tilt (units and ranges as towardsTarget).
+ * @returns (targetAzDeg, targetElDeg) → ratio in {0} ∪ [10^(floor/10), 1]; NaN for NaN inputs; NaN for
+ *   every direction when a beamwidth is ≤ 0 and no cut replaces it.
+ * Reference: as towardsTarget; the Gaussian factor exp(−4 ln2 θ²/θ3²) (common practice) and the sinc²
+ * factor (sin u/u)² (Balanis, Antenna Theory, 4th ed., §12.5.1, from memory) in linear form.
  */
 export function makeRelativeGain(
   pointing: AntennaPointing,
@@ -272,7 +317,13 @@ export function makeRelativeGain(
  * Fast path for per-cell use: a closure giving g_t · g_r, the product of the transmit and receive linear
  * gains relative to their peaks towards a target direction (receive falls back to transmit). Multiply by
  * snrConstant (which holds the peak gains), F⁴ and 1/R⁴ to get the SNR (radarEquation.ts).
+ * @param radar transmit antenna, optional receive antenna, scan, boresight azimuth (degrees clockwise
+ *   from north) and tilt (degrees, positive up); both antennas share the pointing.
  * @returns (targetAzDeg, targetElDeg) → ratio in {0} ∪ [floor_t·floor_r, 1]; NaN for NaN inputs.
+ * Reference: the G_t·G_r product of the monostatic radar equation (Skolnik, Introduction to Radar
+ * Systems, 3rd ed., 2001, §1.2 and ch. 2, from memory, equation numbers not checked), each gain the peak
+ * gain times the one-way relative pattern of makeRelativeGain; for a shared antenna the two-way pattern
+ * is the one-way pattern squared (common practice).
  */
 export function makeTwoWayRelativeGain(radar: {
   txAntenna: AntennaSpec;

@@ -38,12 +38,18 @@ function isSwerlingCase(c: number): c is SwerlingCase {
 
 /**
  * Detection threshold for N looks summed after a square-law detector, from the false-alarm probability.
- * Noise alone makes the sum gamma distributed with shape N, so Pfa = Q(N, T) and T = Q⁻¹(N, Pfa)
- * (Richards, FRSP 2nd ed., ch. 6; DiFranco & Rubin, "Radar Detection"; chapters from memory).
+ * Noise alone makes the sum gamma distributed with shape N, so Pfa = Q(N, T) and T = Q⁻¹(N, Pfa).
  *
- * Inputs: `pfa` in (0, 1); `looks` integer ≥ 1.
- * Output: threshold T in units of the per-look mean noise power (T = −ln Pfa for one look).
+ * Inputs: `pfa` in (0, 1), dimensionless; `looks` integer ≥ 1.
+ * Output: threshold T in units of the per-look mean noise power (T = −ln Pfa for one look), > 0.
  * Edges: NaN, pfa ≤ 0 or ≥ 1, non-integer or < 1 looks give NaN.
+ * References: Q(a, x) = Γ(a, x)/Γ(a), the regularised upper incomplete gamma (NIST DLMF eq. 8.2.4);
+ * the sum of N independent unit-mean exponential (square-law noise) samples is gamma with shape N
+ * (Johnson, Kotz & Balakrishnan, "Continuous Univariate Distributions", vol. 1, 2nd ed., 1994, ch. 17;
+ * chapter from memory). In radar texts: Richards, FRSP 2nd ed., 2014, ch. 6, threshold for noncoherent
+ * integration through the incomplete gamma function; DiFranco & Rubin, "Radar Detection", 1968, the
+ * chapter on noncoherent integration (both from memory; section and equation numbers not checked).
+ * One look, Pfa = exp(−T): common practice.
  */
 export function thresholdFromPfa(pfa: number, looks: number): number {
   if (!(pfa > 0 && pfa < 1) || !isValidLooks(looks)) return Number.NaN;
@@ -64,8 +70,15 @@ export interface PdExactParams {
 
 /**
  * Shape r of the gamma law of the total signal energy over the N looks (chi-square of 2r degrees
- * of freedom): ∞ steady, 1 (case 1), N (case 2), 2 (case 3), 2N (case 4). Shnidman, IEEE Trans.
- * AES 38(3), 2002, the parameter K of his Table I.
+ * of freedom): ∞ steady, 1 (case 1), N (case 2), 2 (case 3), 2N (case 4).
+ *
+ * Inputs: `swerling` 0–4; `looks` N, integer ≥ 1 (not checked here: pdExact validates it; cases 2 and 4
+ * return N and 2N as given, so NaN looks give NaN).
+ * Output: r, dimensionless, ≥ 1, or +Infinity for case 0. Edges: a case outside 0–4 gives NaN.
+ * References: the parameter K of Shnidman, "Determination of required SNR values", IEEE Trans. AES
+ * 38(3), 2002, pp. 1059–1064 (title, pages and the name K from memory; equation/table number not
+ * checked); the chi-square family with 2K degrees of freedom: Swerling, IRE Trans. IT-6(2), 1960, and
+ * Shnidman, IEEE Trans. AES 31(3), 1995 (both from memory, sections not checked).
  */
 export function fluctuationShape(swerling: SwerlingCase, looks: number): number {
   switch (swerling) {
@@ -86,13 +99,21 @@ export function fluctuationShape(swerling: SwerlingCase, looks: number): number 
 
 /**
  * Exact probability of detection of N non-coherently integrated square-law looks, Swerling 0–4.
- * Case 0 is the generalised Marcum Q; the fluctuating cases are its average over the chi-square
- * RCS law, a negative-binomial mixture of incomplete gammas (Shnidman, IEEE Trans. Inf. Theory 35(2),
- * 1989; Richards FRSP 2nd ed. ch. 6; from memory). Computed by {@link gammaMixtureSf}.
+ * Case 0 is the generalised Marcum Q, Pd = Q_N(√(2N·SNR), √(2T)); the fluctuating cases are its
+ * average over the chi-square RCS law, a negative-binomial mixture of incomplete gammas. Computed by
+ * {@link gammaMixtureSf}.
+ * References (all from memory; equation numbers not checked, so sections are cited): steady target as a
+ * Poisson-weighted series of incomplete gammas, Shnidman, "The calculation of the probability of
+ * detection and the generalized Marcum Q-function", IEEE Trans. Inf. Theory 35(2), 1989, pp. 389–400,
+ * §II; chi-square (Swerling 1–4) targets, Shnidman, "Radar detection probabilities and their
+ * calculation", IEEE Trans. AES 31(3), 1995, pp. 928–950; the four cases, Swerling, "Probability of
+ * detection for fluctuating targets", IRE Trans. IT-6(2), 1960, pp. 269–308; textbook treatment,
+ * Richards FRSP 2nd ed., 2014, ch. 6 (Swerling models and noncoherent integration).
  *
- * Inputs: `snrLinear` ≥ 0 per look (linear; −10…+40 dB is the tested range, any finite value is
- * valid); `pfa` in (0, 1) (tested 1e-9…1e-3); `looks` integer ≥ 1 (tested 1…30); `swerling` 0–4.
- * Output: Pd in [Pfa, 1].
+ * Inputs (one PdExactParams object): `snrLinear` ≥ 0 per look, a linear power ratio (−10…+40 dB is the
+ * tested range, any finite value is valid); `pfa` in (0, 1) (tested 1e-9…1e-3); `looks` integer ≥ 1
+ * (tested 1…30); `swerling` 0–4.
+ * Output: Pd, a probability in [Pfa, 1].
  * Edges: snr = 0 gives Pfa; snr = ∞ gives 1; NaN, negative SNR or any input out of domain gives NaN.
  */
 export function pdExact(p: PdExactParams): number {
@@ -127,10 +148,15 @@ export interface RequiredSnrParams {
 /**
  * Required per-look SNR (after coherent integration) to reach a probability of detection: the
  * inverse of {@link pdExact} in SNR, by bracketing and Brent's method on the SNR in dB
- * (Brent, "Algorithms for Minimization without Derivatives", 1973, ch. 4).
+ * (Brent, "Algorithms for Minimization without Derivatives", 1973, ch. 4, procedure zero).
+ * References: the quantity that Albersheim's equation (steady target) and Shnidman's equation
+ * (Swerling 0–4) approximate in closed form (Richards, FRSP 2nd ed., 2014, ch. 6; Shnidman, IEEE Trans.
+ * AES 38(3), 2002; both from memory, equation numbers not checked), here found exactly from the Pd of
+ * pdExact (Shnidman 1989 and 1995, see pdExact).
  *
- * Inputs: `pd` in (0, 1); `pfa` in (0, 1); `looks` integer ≥ 1; `swerling` 0–4.
- * Output: SNR in dB, to 1e-9 dB.
+ * Inputs (one RequiredSnrParams object): `pd` in (0, 1); `pfa` in (0, 1); `looks` integer ≥ 1;
+ * `swerling` 0–4 (all dimensionless).
+ * Output: per-look SNR in dB (a power ratio), to 1e-9 dB.
  * Edges: pd ≤ pfa gives −Infinity (noise alone reaches it); NaN or out-of-domain inputs give NaN;
  * a Pd so close to 1 that no SNR below 400 dB reaches it gives Infinity.
  */

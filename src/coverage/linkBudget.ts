@@ -76,6 +76,12 @@ function term(
  * @param rangeM slant range, m > 0.
  * @returns the budget; at R ≤ 0, NaN or p out of domain the SNR (and R⁴ row) follow snrAtRangeDb
  *   (R = 0: R⁴ row −Infinity, SNR +Infinity; R < 0 or NaN: NaN).
+ * References: the radar equation in decibels, term by term (Skolnik, Introduction to Radar Systems,
+ * 3rd ed., 2001, ch. 2; from memory, equation number not checked; Blake, Radar Range-Performance
+ * Analysis, 1980 (Artech House ed. 1986), "Monostatic Radar Range Equation", p. 12; section title
+ * and page from the book's contents, equation number not checked); k·T0 ≈ −204 dBW/Hz (common practice);
+ * the pulse-compression gain B·τ (Richards, Fundamentals of Radar Signal Processing, 2nd ed., 2014,
+ * ch. 4; from memory, section not checked); coherent-integration gain N (common practice).
  */
 export function linkBudget(p: RadarEquationParams, rangeM: number): LinkBudget {
   const lambdaM = wavelengthM(p.frequencyHz);

@@ -61,8 +61,15 @@ function lnFactorial(n: number): number {
  * Method: Pd = Σ_{k≤K} w_k Q(N+k, x) + Σ_{k>K} w_k, with Q(a+1, x) = Q(a, x) + xᵃe⁻ˣ/Γ(a+1) summed
  * upwards (additions only) and K chosen so that the lower incomplete gamma P(N+K, x) < 1e-17; the
  * weight tail is 1 − Σ_{k≤K} w_k when that is above one half, else summed directly with a geometric
- * bound on the remainder. Relative error ≈ 1e-13 over the detection range (Shnidman 1989;
- * recurrence: Abramowitz & Stegun 6.5.21 in terms of Γ(a, x)).
+ * bound on the remainder. Relative error ≈ 1e-13 over the detection range.
+ * References: Q(a, x) = Γ(a, x)/Γ(a) (NIST DLMF eq. 8.2.4); the recurrence Γ(a+1, x) = a·Γ(a, x) + xᵃe⁻ˣ
+ * divided by Γ(a+1) (NIST DLMF §8.8, eq. 8.8.2; Abramowitz & Stegun §6.5, 6.5.21/6.5.22; both equation
+ * numbers from memory); the noncentral chi-square as a Poisson mixture of central ones (Abramowitz &
+ * Stegun 26.4.25, equation number from memory); the Poisson series for Pd, Shnidman, IEEE Trans. Inf.
+ * Theory 35(2), 1989, §II (from memory, equation numbers not checked); the gamma–Poisson (negative
+ * binomial) mixture, Johnson, Kemp & Kotz, "Univariate Discrete Distributions", 3rd ed., 2005, §5.3
+ * (from memory), as used for chi-square targets by Shnidman, IEEE Trans. AES 31(3), 1995 (from memory,
+ * section not checked); the order cut-off from the Chernoff bound on a Poisson tail (common practice).
  */
 export function gammaMixtureSf(p: GammaMixtureParams): number {
   const { order, x, mean, shape } = p;
@@ -145,11 +152,17 @@ export function gammaMixtureSf(p: GammaMixtureParams): number {
 
 /**
  * Generalised Marcum Q function Q_M(a, b): the probability that a noncentral chi-square variable of
- * 2M degrees of freedom and noncentrality a² exceeds b² (Marcum, IRE Trans. IT-6, 1960; Shnidman 1989).
+ * 2M degrees of freedom and noncentrality a² exceeds b²,
+ * Q_M(a, b) = Σ_k e^(−a²/2) (a²/2)^k / k! · Q(M + k, b²/2).
  *
- * Inputs: `m` integer ≥ 1; `a` ≥ 0 (noncentrality amplitude); `b` ≥ 0 (threshold amplitude).
- * Output: probability in [0, 1]. Edges: b = 0 gives 1; a = 0 gives Q(M, b²/2); NaN or out of domain
- * gives NaN. Equal to scipy.stats.ncx2.sf(b², 2M, a²).
+ * Inputs: `m` integer ≥ 1; `a` ≥ 0 (noncentrality amplitude, dimensionless, in units of the noise
+ * standard deviation); `b` ≥ 0 (threshold amplitude, same units).
+ * Output: probability in [0, 1]. Edges: b = 0 gives 1; a = 0 gives Q(M, b²/2); NaN, a or b < 0, or a
+ * non-integer or < 1 order gives NaN. Equal to scipy.stats.ncx2.sf(b², 2M, a²).
+ * References (from memory; equation numbers not checked, so sections are cited): definition, Marcum,
+ * "A statistical theory of target detection by pulsed radar", IRE Trans. IT-6(2), 1960, pp. 59–267;
+ * the Poisson series above, Shnidman, IEEE Trans. Inf. Theory 35(2), 1989, §II; the series as the
+ * noncentral chi-square tail, Abramowitz & Stegun 26.4.25 (equation number from memory).
  */
 export function marcumQ(m: number, a: number, b: number): number {
   if (!(a >= 0) || !(b >= 0)) return Number.NaN;

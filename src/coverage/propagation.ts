@@ -16,7 +16,12 @@ const KNIFE_EDGE_OFFSET_DB = 6.9;
 const KNIFE_EDGE_V_SHIFT = 0.1;
 const KNIFE_EDGE_V_MIN = -0.78;
 
-/** Wavelength λ = c/f, m, for a frequency in Hz (> 0); NaN for f ≤ 0 or NaN. */
+/**
+ * Wavelength λ = c/f, m, with c the defined speed of light in vacuum.
+ * @param frequencyHz carrier frequency, Hz, > 0.
+ * @returns metres; NaN for f ≤ 0 or NaN; 0 for f = +Infinity.
+ * Reference: λ = c/f (common practice); c = 299 792 458 m/s exactly (SI definition, constants.ts).
+ */
 export function wavelengthM(frequencyHz: number): number {
   if (!(frequencyHz > 0)) return Number.NaN;
   return SPEED_OF_LIGHT_M_PER_S / frequencyHz;

@@ -63,7 +63,16 @@ function orDefault(x: number | undefined, fallback: number): number {
   return x === undefined ? fallback : x;
 }
 
-/** Sum of the two-way losses in p, dB (system + atmospheric + rain). NaN when any is NaN. */
+/**
+ * Sum of the two-way losses in p, dB: L = L_sys + L_atm + L_rain (losses multiply as ratios, so they add
+ * in dB).
+ * @param p systemLossDb, dB, finite (positive = loss; negative is accepted as a gain); atmosphericLossDb
+ *   and rainLossDb, dB, default 0 when undefined.
+ * @returns dB; NaN when any is NaN; ±Infinity propagates (and then snrConstant gives NaN).
+ * Reference: the single loss factor L of the radar equation as the product of its parts (Blake, Radar
+ * Range-Performance Analysis, 1980 (Artech House ed. 1986), "Monostatic Radar Range Equation", p. 12;
+ * title and page from the book's contents, equation number not checked; common practice).
+ */
 export function totalLossDb(p: RadarEquationParams): number {
   return p.systemLossDb + orDefault(p.atmosphericLossDb, 0) + orDefault(p.rainLossDb, 0);
 }
@@ -104,7 +113,15 @@ function inDomain(p: RadarEquationParams): boolean {
  * where g_t, g_r are the linear gains relative to peak towards the cell (antennaPattern.ts,
  * makeTwoWayRelativeGain) and F⁴ is linear. Range-dependent attenuation should then be left out of p
  * (0 dB) and multiplied per cell as a linear factor.
- * @returns m⁴; 0 for zero power or zero RCS; NaN when any input is NaN or out of domain.
+ * @param p peak power W ≥ 0, duration s > 0, count ≥ 1, frequency Hz > 0, gains dBi, RCS m² ≥ 0,
+ *   noise figure dB, losses dB (all finite; see RadarEquationParams).
+ * @returns m⁴; 0 for zero power or zero RCS; NaN when any input it uses is NaN, infinite or out of domain.
+ * Reference: the radar equation of the module header with R⁴ and F⁴ taken out: Skolnik, Introduction to
+ * Radar Systems, 3rd ed., 2001, ch. 2 (radar equation with T_s = T0·F_n and losses; from memory, section
+ * and equation number not checked); Blake, Radar Range-Performance Analysis, 1980 (Artech House ed.
+ * 1986), sections "Monostatic Radar Range Equation" (p. 12) and "Equations for Pulse and Other Waveforms"
+ * (p. 18) of the first chapter (titles and pages from the book's contents, equation numbers not
+ * checked); E = P_t·τ·N is the energy form (common practice).
  */
 export function snrConstant(p: RadarEquationParams): number {
   if (!inDomain(p)) return Number.NaN;
@@ -123,6 +140,12 @@ export function snrConstant(p: RadarEquationParams): number {
  * @param p radar-equation parameters (see RadarEquationParams for units and ranges).
  * @param rangeM slant range, m ≥ 0.
  * @returns linear SNR ≥ 0; +Infinity at R = 0 (C > 0); 0 at R = +Infinity or for C·F⁴ = 0; NaN for R < 0, NaN, or p out of domain.
+ * Reference: the monostatic radar range equation with pattern propagation factor F⁴ (Blake, Radar
+ * Range-Performance Analysis, 1980 (Artech House ed. 1986), sections "Monostatic Radar Range Equation"
+ * (p. 12) and "Equations for Pulse and Other Waveforms" (p. 18) of the first chapter; titles and pages
+ * from the book's contents, equation numbers not checked); single-pulse
+ * form: Skolnik, Introduction to Radar Systems, 3rd ed., 2001, ch. 2, and Richards, Fundamentals of
+ * Radar Signal Processing, 2nd ed., 2014, §2.2 (both from memory, equation numbers not checked).
  */
 export function snrAtRange(p: RadarEquationParams, rangeM: number): number {
   if (!(rangeM >= 0)) return Number.NaN;
@@ -143,8 +166,14 @@ export function snrAtRangeDb(p: RadarEquationParams, rangeM: number): number {
 /**
  * Free-space range at which a required SNR is reached, m: R = (C · F⁴ / SNR_req)^(1/4), the inverse of
  * snrAtRange with every term of p held fixed (losses and F⁴ as given, not re-evaluated at the new range).
+ * @param p radar-equation parameters (see RadarEquationParams for units and ranges).
  * @param requiredSnrDb required SNR, dB (any real).
  * @returns metres ≥ 0; +Infinity for requiredSnrDb = −Infinity; 0 for zero power or RCS; NaN for NaN or p out of domain.
+ * Reference: the maximum-range form R_max = [P_t·G·A_e·σ / ((4π)²·S_min)]^(1/4) (Skolnik, Introduction
+ * to Radar Systems, 3rd ed., 2001, §1.2 and ch. 2; from memory, equation numbers not checked), here in
+ * the energy form of the module header (Blake, Radar Range-Performance Analysis, 1980 (Artech House ed.
+ * 1986), "Monostatic Radar Range Equation", p. 12, and "Equations for Pulse and Other Waveforms", p. 18;
+ * titles and pages from the book's contents, equation numbers not checked).
  */
 export function rangeForSnr(p: RadarEquationParams, requiredSnrDb: number): number {
   if (Number.isNaN(requiredSnrDb)) return Number.NaN;
@@ -163,9 +192,16 @@ const DB_PER_LN_RANGE = 40 / Math.LN10;
  * P.838 give it; the loss counts both ways). Solved by Newton's method in ln R from the free-space range,
  * which converges monotonically because the left side is concave and decreasing in ln R. The losses
  * already in p (system, atmospheric, rain) are applied as given, in addition to γ.
- * @param requiredSnrDb required SNR, dB.
+ * @param p radar-equation parameters (see RadarEquationParams for units and ranges).
+ * @param requiredSnrDb required SNR, dB (any real; −Infinity gives +Infinity).
  * @param specificAttenuationDbPerKm one-way specific attenuation γ, dB/km ≥ 0 (0 gives rangeForSnr).
  * @returns metres ≥ 0, never beyond the free-space range; NaN for NaN, γ < 0, or p out of domain.
+ * References: path attenuation A = γ·r on a terrestrial path (ITU-R P.676-12 Annex 1 §2.1, terrestrial
+ * paths; equation number not checked); rain γ_R = k·R^α (ITU-R P.838-3 eq. (1), equation number from
+ * memory); the range equation solved with an absorption loss that grows with range (Blake, Radar
+ * Range-Performance Analysis, 1980 (Artech House ed. 1986), "Tropospheric Absorption", p. 197;
+ * section title and page from the book's contents, equation number not checked); Newton's method
+ * (common practice).
  */
 export function rangeForSnrWithAttenuation(
   p: RadarEquationParams,
@@ -194,7 +230,12 @@ export function rangeForSnrWithAttenuation(
  * Two-way propagation factor F⁴ (linear) from a one-way excess loss J in dB (e.g. knife-edge
  * diffraction, ITU-R P.526): F² = 10^(−J/10) one way, so F⁴ = 10^(−2J/10).
  * @param oneWayLossDb one-way loss, dB (≥ 0 for a loss; negative for a gain such as multipath reinforcement).
- * @returns linear factor > 0; NaN for NaN.
+ * @returns linear factor ≥ 0 (> 0 for a finite loss); 0 for +Infinity dB; +Infinity for −Infinity dB; NaN for NaN.
+ * References: F is the one-way field ratio of the pattern propagation factor, entering the range equation
+ * as F⁴ = F_t²·F_r² with F_t = F_r on a monostatic path (Blake, Radar Range-Performance Analysis, 1980
+ * (Artech House ed. 1986), "The Pattern Propagation Factor", p. 239; section title and page from
+ * the book's contents, equation number not checked); the knife-edge J(v) of ITU-R P.526-15 §4.1 eq. (31)
+ * is one such loss (see propagation.ts knifeEdgeLossDb).
  */
 export function twoWayFactorFromOneWayLossDb(oneWayLossDb: number): number {
   return dbToLinear(-2 * oneWayLossDb);
@@ -220,9 +261,15 @@ export interface RadarEquationTarget {
  * Radar-equation parameters of a radar model against a target: peak power, pulse or chirp duration and
  * count from the waveform, peak gains of the transmit and receive antennas (receive falls back to
  * transmit), noise figure, system loss, and the waveform's noise bandwidth for the link budget.
- * @param model a validated radar model (src/io); values out of domain propagate as NaN results.
- * @param target RCS and optional gains towards the target, losses and propagation factor.
+ * @param model a validated radar model (src/io); values out of domain propagate as NaN results
+ *   (e.g. a bad waveform gives a NaN pulseDurationS, and then snrConstant gives NaN).
+ * @param target RCS m² ≥ 0; optional gains towards the target, dBi; two-way losses, dB; propagation
+ *   factor 40·log10(F), dB.
  * @returns a RadarEquationParams object (no validation here: see the functions that consume it).
+ * Reference: a mapping of the model onto the terms of the radar equation (module header), with the system
+ * noise temperature T_s = T0·F_n (T0 = 290 K; Blake, Radar Range-Performance Analysis, 1980 (Artech
+ * House ed. 1986), "System Noise Temperature", p. 140; section title and page from the book's
+ * contents, equation number not checked; common practice).
  */
 export function radarEquationParams(model: RadarModel, target: RadarEquationTarget): RadarEquationParams {
   const rxAntenna = model.rxAntenna ?? model.txAntenna;

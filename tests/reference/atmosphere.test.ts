@@ -81,11 +81,24 @@ describe("Atmosphere: gaseous attenuation (simplified ITU-R P.676-10 Annex 2 aga
     expect(wet).toBeGreaterThan(std);
   });
 
-  it("[AT4] two-way loss is 2·γ·r: 0.28 dB over 10 km at 10 GHz in the standard atmosphere", () => {
-    const g = gaseousAttenuationDbPerKm(10 * GHZ);
-    expect(twoWayGasLossDb({ frequencyHz: 10 * GHZ, rangeM: 10_000 })).toBeCloseTo(20 * g, 12);
-    expect(twoWayGasLossDb({ frequencyHz: 10 * GHZ, rangeM: 10_000 })).toBeGreaterThan(0.25);
-    expect(twoWayGasLossDb({ frequencyHz: 10 * GHZ, rangeM: 10_000 })).toBeLessThan(0.32);
+  it("[AT4] two-way loss is 2·γ·r: 0.28 dB over 10 km at 10 GHz (2 × 10 km × the P.676-12 Annex 1 value 0.0142 dB/km)", () => {
+    // The outside value is derived, not quoted: the ITU-R P.676-12 Annex 1 validation value at 10 GHz in
+    // the standard atmosphere (0.0142 dB/km, the same fixture row as [AT1]) times the two-way path length
+    // 2 × 10 km gives 0.284 dB (A = γ·r on a terrestrial path, P.676-12 Annex 1 §2.1, equation number
+    // not checked). The loss is evaluated in the fixture's conditions (CONDITIONS, as in [AT1]).
+    const ref = rowAt(10);
+    const referenceTwoWayDb = 2 * 10 * ref.totalDbPerKm;
+    expect(referenceTwoWayDb).toBeCloseTo(0.284, 3);
+    const loss = twoWayGasLossDb({ frequencyHz: 10 * GHZ, rangeM: 10_000, atmosphere: CONDITIONS });
+    // The loss is exactly 2·γ·r of the model's own γ (to rounding) ...
+    expect(loss).toBeCloseTo(20 * gaseousAttenuationDbPerKm(10 * GHZ, CONDITIONS), 12);
+    // ... and γ is the simplified Annex 2 fit, within 9 % of Annex 1 below 40 GHz ([AT2]); a ratio is
+    // unchanged by the factor 2·r, so the same 9 % bounds the two-way loss against 0.284 dB.
+    expect(Math.abs(loss / referenceTwoWayDb - 1)).toBeLessThan(0.09);
+    // The default (standard sea-level) conditions differ from CONDITIONS only by the ≈10 hPa vapour
+    // pressure in the total pressure; the loss there holds the same 9 % bound (checked here, not derived).
+    const lossDefault = twoWayGasLossDb({ frequencyHz: 10 * GHZ, rangeM: 10_000 });
+    expect(Math.abs(lossDefault / referenceTwoWayDb - 1)).toBeLessThan(0.09);
     expect(twoWayGasLossDb({ frequencyHz: 10 * GHZ, rangeM: 0 })).toBe(0);
   });
 

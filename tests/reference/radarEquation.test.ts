@@ -51,7 +51,15 @@ describe("[RE2] noise density k·T0", () => {
 });
 
 describe("[RE3] published worked examples of the radar equation", () => {
-  // MathWorks Radar Toolbox documentation, radareqsnr, "Compute SNR Using Radar Equation"
+  // What these rows are: examples from a vendor's software documentation (MathWorks Radar Toolbox
+  // reference pages for radareqsnr and radareqpow), each with the answer the page prints. They are
+  // neither a standard nor a textbook. The pages' own reference lists (from memory) name Richards,
+  // Fundamentals of Radar Signal Processing (McGraw-Hill, 2005) and Skolnik, Introduction to Radar
+  // Systems (McGraw-Hill, 1980) for the equation; the inputs and answers are the vendor's and were not
+  // checked against either book. The textbook checks of the same equation are [RE3] "Skolnik's simple
+  // form" below and [RE9].
+  //
+  // Vendor documentation example with printed answer: radareqsnr, "Compute SNR Using Radar Equation"
   // (https://www.mathworks.com/help/radar/ref/radareqsnr.html): 1 GHz, Pt 1 MW, τ 0.2 µs, G 20 dB,
   // σ 1 m², Ts 290 K, R 50 km → SNR 5.5868 dB. Printed to 4 decimals: 1e-3 dB covers the rounding and
   // the older CODATA Boltzmann constant of that tool (a 4e-7 relative difference, 2e-6 dB).
@@ -69,12 +77,14 @@ describe("[RE3] published worked examples of the radar equation", () => {
     290,
   );
 
-  it("[RE3] radareqsnr example 1: 5.5868 dB at 50 km (MathWorks documentation)", () => {
+  it("[RE3] radareqsnr example 1: 5.5868 dB at 50 km (MathWorks documentation example, printed answer)", () => {
     expect(Math.abs(snrAtRangeDb(basic, 50e3) - 5.5868)).toBeLessThan(1e-3);
   });
 
-  it("[RE3] radareqsnr example 2: 14.3778 dB at 100 km with Ts 300 K and 3 dB loss (MathWorks documentation)", () => {
-    // 10 GHz, Pt 1 MW, τ 1 µs, G 40 dB, σ 0.5 m², Ts 300 K, L 3 dB, R 100 km → 14.3778 dB.
+  it("[RE3] radareqsnr example 2: 14.3778 dB at 100 km with Ts 300 K and 3 dB loss (MathWorks documentation example, printed answer)", () => {
+    // Vendor documentation example with printed answer (same radareqsnr page, second example; reference
+    // list Richards 2005 / Skolnik 1980; numbers not checked against either book): 10 GHz, Pt 1 MW, τ 1 µs,
+    // G 40 dB, σ 0.5 m², Ts 300 K, L 3 dB, R 100 km → 14.3778 dB, printed to 4 decimals (1e-3 dB).
     const p = withSystemTemperature(
       {
         ...basic,
@@ -90,15 +100,20 @@ describe("[RE3] published worked examples of the radar equation", () => {
     expect(Math.abs(snrAtRangeDb(p, 100e3) - 14.3778)).toBeLessThan(1e-3);
   });
 
-  it("[RE3][RE4] radareqpow example 1: 2.1996e5 W reach 6 dB at 50 km (MathWorks documentation)", () => {
-    // radareqpow, "Compute Required Transmit Power": 1 GHz, τ 1 µs, G 20 dB, σ 1 m², SNR 6 dB, 50 km
-    // → Pt = 2.1996e5 W. Five significant digits (±0.5e-4 relative) move the range by at most 1.3e-5·R.
+  it("[RE3][RE4] radareqpow example 1: 2.1996e5 W reach 6 dB at 50 km (MathWorks documentation example, printed answer)", () => {
+    // Vendor documentation example with printed answer: radareqpow reference page, "Compute Required
+    // Transmit Power" (https://www.mathworks.com/help/radar/ref/radareqpow.html; reference list Richards
+    // 2005 / Skolnik 1980; numbers not checked against either book): 1 GHz, τ 1 µs, G 20 dB, σ 1 m², SNR 6 dB,
+    // 50 km → Pt = 2.1996e5 W (the test keeps the 290 K of `basic`). Five significant digits (±0.5e-4 relative) move the range by at
+    // most 1.3e-5·R.
     const p = { ...basic, peakPowerW: 2.1996e5, pulseDurationS: 1e-6 };
     expect(Math.abs(rangeForSnr(p, 6) - 50e3)).toBeLessThan(1);
   });
 
-  it("[RE3][RE4] radareqpow example 2: 2.2809e6 W reach 10 dB at 50 km, Ts 300 K, L 3 dB (MathWorks documentation)", () => {
-    // 10 GHz, τ 1 µs, G 30 dB, σ 0.5 m², Ts 300 K, L 3 dB, SNR 10 dB, 50 km → Pt = 2.2809e6 W.
+  it("[RE3][RE4] radareqpow example 2: 2.2809e6 W reach 10 dB at 50 km, Ts 300 K, L 3 dB (MathWorks documentation example, printed answer)", () => {
+    // Vendor documentation example with printed answer (same radareqpow page, second example; reference
+    // list Richards 2005 / Skolnik 1980; numbers not checked against either book): 10 GHz, τ 1 µs, G 30 dB,
+    // σ 0.5 m², Ts 300 K, L 3 dB, SNR 10 dB, 50 km → Pt = 2.2809e6 W (five significant digits, as above).
     const p = withSystemTemperature(
       {
         ...basic,
