@@ -197,11 +197,10 @@ const DB_PER_LN_RANGE = 40 / Math.LN10;
  * @param specificAttenuationDbPerKm one-way specific attenuation γ, dB/km ≥ 0 (0 gives rangeForSnr).
  * @returns metres ≥ 0, never beyond the free-space range; NaN for NaN, γ < 0, or p out of domain.
  * References: path attenuation A = γ·r on a terrestrial path (ITU-R P.676-12 Annex 1 §2.1, terrestrial
- * paths; equation number not checked); rain γ_R = k·R^α (ITU-R P.838-3 eq. (1), equation number from
- * memory); the range equation solved with an absorption loss that grows with range (Blake, Radar
- * Range-Performance Analysis, 1980 (Artech House ed. 1986), "Tropospheric Absorption", p. 197;
- * section title and page from the book's contents, equation number not checked); Newton's method
- * (common practice).
+ * paths; equation number not checked); rain γ_R = k·R^α (ITU-R P.838-3 eq. (1)); the range equation
+ * solved with an absorption loss that grows with range (Blake, Radar Range-Performance Analysis, 1980
+ * (Artech House ed. 1986), "Tropospheric Absorption", p. 197; section title and page from the book's
+ * contents, equation number not checked); Newton's method (common practice).
  */
 export function rangeForSnrWithAttenuation(
   p: RadarEquationParams,
