@@ -38,13 +38,20 @@ export interface PostsDisplay {
 /** Screen distance of the boresight handle from the post, px. */
 const HANDLE_PX = 56;
 
-function postIcon(p: PostView, selected: boolean): L.DivIcon {
+/** Approximate width of a label character, px (11 px bold sans), for decluttering. */
+const LABEL_CHAR_PX = 7;
+const LABEL_HEIGHT_PX = 14;
+const LABEL_OFFSET_PX = 12;
+
+function postIcon(p: PostView, selected: boolean, withLabel: boolean): L.DivIcon {
   const el = document.createElement("div");
   el.className = `post-mark${selected ? " post-selected" : ""}${p.enabled ? "" : " post-disabled"}`;
-  const label = document.createElement("span");
-  label.className = "post-label";
-  label.textContent = p.name;
-  el.appendChild(label);
+  if (withLabel) {
+    const label = document.createElement("span");
+    label.className = "post-label";
+    label.textContent = p.name;
+    el.appendChild(label);
+  }
   return L.divIcon({ className: "post-icon", html: el, iconSize: [18, 18], iconAnchor: [9, 9] });
 }
 
@@ -144,13 +151,39 @@ export class PostsLayer extends L.LayerGroup {
     }
   }
 
+  /** Which posts get a name label: the selected one first, then any whose label would not overlap another. */
+  private labelled(): Set<string> {
+    const map = this.mapRef;
+    const out = new Set<string>();
+    if (!map) return out;
+    const placed: [number, number, number, number][] = [];
+    const order = [...this.posts].sort(
+      (a, b) => Number(b.id === this.selectedId) - Number(a.id === this.selectedId),
+    );
+    for (const p of order) {
+      const c = map.latLngToContainerPoint([p.latDeg, p.lonDeg]);
+      const r: [number, number, number, number] = [
+        c.x + LABEL_OFFSET_PX,
+        c.y - LABEL_HEIGHT_PX / 2,
+        c.x + LABEL_OFFSET_PX + p.name.length * LABEL_CHAR_PX,
+        c.y + LABEL_HEIGHT_PX / 2,
+      ];
+      const clash = placed.some((q) => r[0] < q[2] && q[0] < r[2] && r[1] < q[3] && q[1] < r[3]);
+      if (clash && p.id !== this.selectedId) continue;
+      placed.push(r);
+      out.add(p.id);
+    }
+    return out;
+  }
+
   private rebuild(): void {
     this.rebuildOutlines();
     this.marks.clearLayers();
+    const labelled = this.labelled();
     for (const p of this.posts) {
       const selected = p.id === this.selectedId;
       const marker = L.marker([p.latDeg, p.lonDeg], {
-        icon: postIcon(p, selected),
+        icon: postIcon(p, selected, labelled.has(p.id)),
         draggable: true,
         keyboard: true,
         title: `${p.name}: drag to move`,

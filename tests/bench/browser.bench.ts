@@ -103,6 +103,8 @@ async function dragOnce(page: Page, postName: string) {
     });
   });
   await page.getByTestId("tab-posts").click();
+  // Select it in the list: the selected post always carries its name label on the map.
+  await page.getByTestId("post-list").getByRole("button", { name: postName }).click();
   const marker = page.locator(".post-mark", { hasText: postName }).first();
   const b = await marker.boundingBox();
   if (!b) throw new Error("no post on screen");
