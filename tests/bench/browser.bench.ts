@@ -86,21 +86,26 @@ function groundPostName(plan: Plan): string {
 
 async function dragOnce(page: Page, postName: string) {
   await page.evaluate(() => {
-    const w = window as unknown as { __long: number[]; __gens: number[] };
+    const w = window as unknown as { __long: number[]; __gens: number[]; __stop?: () => void };
+    w.__stop?.();
     w.__long = [];
     w.__gens = [];
-    new PerformanceObserver((l) => {
+    const po = new PerformanceObserver((l) => {
       for (const e of l.getEntries()) w.__long.push(e.duration);
-    }).observe({ type: "longtask", buffered: false });
+    });
+    po.observe({ type: "longtask", buffered: false });
     const s = document.querySelector('[data-testid="summary"]');
-    new MutationObserver(() => {
-      const g = Number(document.querySelector('[data-testid="summary"]')?.getAttribute("data-generation"));
-      w.__gens.push(performance.now() + g * 0);
-    }).observe(s?.parentElement ?? document.body, {
+    // Each change of the shown generation is one coverage update on screen; record when it happened.
+    const mo = new MutationObserver(() => w.__gens.push(performance.now()));
+    mo.observe(s?.parentElement ?? document.body, {
       attributes: true,
       subtree: true,
       attributeFilter: ["data-generation"],
     });
+    w.__stop = () => {
+      po.disconnect();
+      mo.disconnect();
+    };
   });
   await page.getByTestId("tab-posts").click();
   // Select it in the list: the selected post always carries its name label on the map.
