@@ -3,7 +3,7 @@
  * and the full evaluation of a 10-radar, 3-height plan on 4 M cells (2048 × 2048 at 5 m, rough terrain
  * with buildings), single-threaded and on 2 Node worker_threads via comlink. Medians and spreads
  * (min–max) are printed, never asserted; also `plan los` end to end against `gdal_viewshed -om GROUND`.
- * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|breakdown|full|los]`.
+ * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|breakdown|full|shared|los]`.
  */
 import { spawnSync } from "node:child_process";
 import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
@@ -275,6 +275,85 @@ async function benchFull(runs: number): Promise<void> {
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }
+  await benchShared(site, runs, stats(singleReuse).median);
+}
+
+/** The shared-memory worker API of coverageWorker.mjs (workerData { shared: true }). */
+interface SharedWorkerApi {
+  setSite(s: PreparedSite): void;
+  setOutputs(index: number, coverage: RadarCoverage): void;
+  compute(index: number, mode: MaskMode): RadarCoverage["extent"];
+}
+
+/** A RadarCoverage of the site's shape whose arrays are views on new SharedArrayBuffers. */
+function sharedCoverage(site: PreparedSite, radarId: string): RadarCoverage {
+  const n = site.frame.width * site.frame.height;
+  const f32 = () => new Float32Array(new SharedArrayBuffer(4 * n));
+  return {
+    radarId,
+    heightsAglM: [...site.heightsAglM],
+    targetIds: site.targets.map((t) => t.id),
+    lowestVisibleHeightAglM: f32(),
+    heights: site.heightsAglM.map((h) => ({
+      heightAglM: h,
+      snrDbAt0Dbsm: f32(),
+      targets: site.targets.map((t) =>
+        t.heightsAglM.includes(h)
+          ? { pd: f32(), reason: new Uint8Array(new SharedArrayBuffer(n)) }
+          : { pd: null, reason: null },
+      ),
+    })),
+  };
+}
+
+/**
+ * Full evaluation with the radar results in shared memory: allocated once, posted once to both
+ * workers, each radar computed in place by the next free worker (heaviest first, as evaluateSite
+ * starts them in site order), fusion and metrics on the main thread into the previous result.
+ */
+async function benchShared(site: PreparedSite, runs: number, singleReuseMs: number): Promise<void> {
+  const workers = [0, 1].map(
+    () => new Worker(new URL("./coverageWorker.mjs", import.meta.url), { workerData: { shared: true } }),
+  );
+  const apis = workers.map((w) => Comlink.wrap<SharedWorkerApi>(nodeEndpoint(w)));
+  try {
+    const outputs = site.radars.map((r) => sharedCoverage(site, r.id));
+    await Promise.all(apis.map((a) => a.setSite(site)));
+    await Promise.all(apis.flatMap((a) => outputs.map((o, i) => a.setOutputs(i, o))));
+    const free = [...apis];
+    const waiting: ((w: Comlink.Remote<SharedWorkerApi>) => void)[] = [];
+    const runRadar: RadarRunner = async (_s, index, mode) => {
+      const w =
+        free.length > 0
+          ? free.pop()!
+          : await new Promise<Comlink.Remote<SharedWorkerApi>>((res) => waiting.push(res));
+      try {
+        outputs[index].extent = await w.compute(index, mode);
+        return outputs[index];
+      } finally {
+        const next = waiting.shift();
+        if (next) next(w);
+        else free.push(w);
+      }
+    };
+    let previous = await evaluateSite(site, { runRadar }); // warm-up
+    const times: number[] = [];
+    const radarMs: number[] = [];
+    for (let r = 0; r < runs; r++) {
+      const t = performance.now();
+      previous = await evaluateSite(site, { runRadar, previous });
+      times.push(performance.now() - t);
+      radarMs.push(previous.timingsMs.radars);
+    }
+    const s = stats(times);
+    console.log(
+      `coverage full evaluation, 2 workers, radar results in shared memory, fusion into the previous result: ` +
+        `${fmt(s, 0)} ms (radar stages ${fmt(stats(radarMs), 0)} ms); speed-up ` +
+        `${(singleReuseMs / s.median).toFixed(2)} × over 1 thread reusing`,
+    );
+  } finally {
+    await Promise.all(workers.map((w) => w.terminate()));
+  }
 }
 
 /**
@@ -420,6 +499,19 @@ export async function run(parts: string[] = ["stage", "full", "los"]): Promise<v
   }
   if (parts.includes("breakdown")) await benchBreakdown(3);
   if (parts.includes("full")) await benchFull(5);
+  if (parts.includes("shared")) {
+    // The shared-memory 2-worker run alone, against 1 thread writing into the previous result.
+    const site = siteOn(5, planRadars, [10, 30, 60]);
+    let previous = await evaluateSite(site);
+    const one: number[] = [];
+    for (let r = 0; r < 5; r++) {
+      const t = performance.now();
+      previous = await evaluateSite(site, { previous });
+      one.push(performance.now() - t);
+    }
+    console.log(`coverage full evaluation, 1 thread, previous result's arrays reused: ${fmt(stats(one), 0)} ms`);
+    await benchShared(site, 5, stats(one).median);
+  }
   if (parts.includes("los")) await benchLos(5);
 }
 
