@@ -12,8 +12,8 @@
  * (|dx|, |dy|), so they are tabulated once per |dy| (one interleaved array) and serve the four cells
  * (±dx, ±dy). Each half row is split where the sight line changes the grid line it crosses (|dx| < |dy|,
  * the diagonal, |dx| > |dy|) and where the nearer of the two neighbours changes, so the inner loops carry
- * no branch on geometry; a row's observable heights and obstacle distances share one interleaved array.
- * Few arrays per loop keep their bases and lengths in registers.
+ * no branch on geometry; the rows |dy| north and south are swept in one pass, reading each table entry
+ * once for both. A row's observable heights and obstacle distances share one interleaved array.
  */
 
 import type { SweepSetup } from "./terrainMask.ts";

@@ -50,7 +50,10 @@ export interface HorizonResult {
   horizonSlope: Float32Array;
   /** Horizontal distance from the observer to that steepest obstruction, m (NaN if none). */
   obstacleDistanceM: Float32Array;
-  /** Horizontal distance from the observer (the centre of its cell) to the cell centre, m. */
+  /**
+   * Horizontal distance from the observer (the centre of its cell) to the cell centre, m. A pure function
+   * of the cell: computeHorizon fills it on first read, so callers that compute it themselves pay nothing.
+   */
   distanceM: Float32Array;
   /** Columns (copy of the grid's). */
   width: number;
