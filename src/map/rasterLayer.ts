@@ -28,6 +28,15 @@ export function quantise(values: ArrayLike<number>, toIndex: (v: number) => numb
   return out;
 }
 
+/** Time spent repainting tiles per animation frame, ms (keeps frames under ~16 ms). */
+const REPAINT_BUDGET_MS = 10;
+
+/** requestAnimationFrame where there is one (browsers), else a zero timeout (tests). */
+function requestFrame(fn: () => void): number {
+  if (typeof requestAnimationFrame === "function") return requestAnimationFrame(fn);
+  return setTimeout(fn, 0) as unknown as number;
+}
+
 const HATCH_PERIOD_PX = 8;
 const HATCH_WIDTH_PX = 2;
 const INDEX_CACHE_TILES = 96;
@@ -47,7 +56,10 @@ export class RasterLayer extends L.GridLayer {
     super({ tileSize: 256, updateWhenZooming: false, keepBuffer: 1, ...options });
   }
 
-  /** Replaces the raster and repaints the visible tiles in place (no flicker). */
+  /**
+   * Replaces the raster and repaints the visible tiles in place (no flicker), a few per animation frame
+   * within a time budget, so a large repaint never blocks the page for long.
+   */
   setPaint(paint: RasterPaint | null): void {
     this.paint = paint;
     const key = paint ? frameKey(paint.frame) : "";
@@ -57,7 +69,21 @@ export class RasterLayer extends L.GridLayer {
     }
     const tiles = (this as unknown as { _tiles?: Record<string, TileRecord> })._tiles;
     if (!tiles) return;
-    for (const rec of Object.values(tiles)) this.drawTile(rec.el, rec.coords);
+    this.pending = Object.values(tiles);
+    if (this.frameRequest === null) this.frameRequest = requestFrame(() => this.drainRepaints());
+  }
+
+  private pending: TileRecord[] = [];
+  private frameRequest: number | null = null;
+
+  private drainRepaints(): void {
+    this.frameRequest = null;
+    const t0 = performance.now();
+    while (this.pending.length > 0 && performance.now() - t0 < REPAINT_BUDGET_MS) {
+      const rec = this.pending.shift() as TileRecord;
+      if (rec.el.isConnected) this.drawTile(rec.el, rec.coords);
+    }
+    if (this.pending.length > 0) this.frameRequest = requestFrame(() => this.drainRepaints());
   }
 
   override createTile(coords: L.Coords): HTMLElement {
