@@ -378,6 +378,43 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     expect(await page.locator(".messages").textContent()).toMatch(/row 3, column lon/);
   });
 
+  it("draws a building with its height, and turns a post by its boresight handle", async () => {
+    await openTab(page, "site");
+    const count = async () => Number((await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1]);
+    const before = await count();
+    await page.getByTestId("tool-building").click();
+    await page.waitForTimeout(500);
+    const b = await mapBox(page);
+    const pts = [
+      [0.1, 0.85],
+      [0.14, 0.85],
+      [0.14, 0.89],
+      [0.1, 0.89],
+      [0.1, 0.85],
+    ];
+    for (const [fx, fy] of pts) {
+      await page.mouse.click(b.x + b.width * fx, b.y + b.height * fy);
+      await page.waitForTimeout(150);
+    }
+    await expect.poll(count).toBe(before + 1);
+    await page.keyboard.press("Escape");
+    await openTab(page, "posts");
+    await page.getByTestId("post-list").getByRole("button", { name: "South gate mast" }).click();
+    const az0 = await page.getByTestId("post-boresight").inputValue();
+    const handle = page.locator(".boresight-handle");
+    const hb = await handle.boundingBox();
+    if (!hb) throw new Error("no boresight handle");
+    const g0 = await gen(page);
+    await page.mouse.move(hb.x + hb.width / 2, hb.y + hb.height / 2);
+    await page.mouse.down();
+    for (let k = 1; k <= 8; k++)
+      await page.mouse.move(hb.x + hb.width / 2 + k * 8, hb.y + hb.height / 2 + k * 6);
+    await page.mouse.up();
+    await expect.poll(() => page.getByTestId("post-boresight").inputValue()).not.toBe(az0);
+    await waitNewRun(page, g0);
+    await shoot(page, "turned");
+  });
+
   it("imports a DEM and a buildings file", async () => {
     await openTab(page, "site");
     const dem = join(work, "ridge-copy.tif");
