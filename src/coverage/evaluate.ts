@@ -14,6 +14,7 @@ import {
   type PlacedRadar,
   type PointCoverage,
   type RadarCoverage,
+  type RadarExtent,
   REASON_TEXT,
   type Reason,
   radarCoverageFromHorizon,
@@ -26,7 +27,13 @@ import { type HeightMetrics, heightMetrics } from "./metrics.ts";
 import { hashRaster, type RadarResultCache, radarResultKey } from "./radarCache.ts";
 import { rayMarchCell } from "./rayMarch.ts";
 import type { RegionMasks } from "./regionMask.ts";
-import { computeHorizon, curvatureFactorPerM, type MaskInput, type MaskMode } from "./terrainMask.ts";
+import {
+  computeHorizon,
+  curvatureFactorPerM,
+  type HorizonResult,
+  type MaskInput,
+  type MaskMode,
+} from "./terrainMask.ts";
 
 /** A target class with its display name. */
 export interface SiteTarget extends TargetSpec {
@@ -131,6 +138,8 @@ export interface EvaluateOptions {
   cache?: RadarResultCache<RadarCoverage>;
   /** How a radar is computed (default computeRadarCoverage in this thread). Runs are started together. */
   runRadar?: RadarRunner;
+  /** How a fusion step is run (default fuseSiteHeight in this thread). Steps are started together. */
+  runFusion?: FusionRunner;
   /**
    * A previous result of this site that the caller no longer needs: each recomputed radar writes into
    * that radar's old arrays (same id, same shape) instead of allocating new ones, and the fused rasters,
@@ -217,6 +226,9 @@ function maskInputFor(site: PreparedSite, radar: PlacedRadar, mode: MaskMode, ma
   };
 }
 
+/** The last horizon computed in this thread, whose arrays the next computeRadarCoverage overwrites. */
+let horizonScratch: HorizonResult | undefined;
+
 /**
  * One radar's coverage in this thread: horizon sweep (terrainMask.ts) limited to the maximum
  * instrumented range, then the radar stage (coverage.ts). `reuse`: a previous result of the same
@@ -236,7 +248,10 @@ export function computeRadarCoverage(
     requirement: site.requirement,
     effectiveEarthFactor: site.effectiveEarthFactor,
   });
-  const horizon = computeHorizon(maskInputFor(site, radar, mode, kernel.maxRangeM));
+  // The horizon is used only inside this call, so its arrays are kept for the next radar of this
+  // thread (no new memory to fault in per radar).
+  const horizon = computeHorizon(maskInputFor(site, radar, mode, kernel.maxRangeM), horizonScratch);
+  horizonScratch = horizon;
   return radarCoverageFromHorizon(
     {
       frame: site.frame,
@@ -256,6 +271,64 @@ export function computeRadarCoverage(
 
 function checkCancel(opts: EvaluateOptions): void {
   if (opts.signal?.aborted || opts.shouldCancel?.()) throw new CancelledError();
+}
+
+/** One fusion step of a run: one target class at one height. */
+export interface FusionJob {
+  /** Index into site.targets. */
+  targetIndex: number;
+  /** Index into site.heightsAglM (and into each radar's heights). */
+  heightIndex: number;
+  /** Per radar, in site order, the square its stage visited (RadarCoverage.extent). */
+  extents: (RadarExtent | undefined)[];
+}
+
+/**
+ * Runs one fusion step elsewhere (e.g. a worker that holds every radar's result in shared memory);
+ * must return what fuseSiteHeight returns for the same radars.
+ */
+export type FusionRunner = (site: PreparedSite, job: FusionJob) => Promise<SiteHeightResult>;
+
+/**
+ * One fusion step: the fused rasters (fusion.ts) and the metrics (metrics.ts) of one class at one
+ * height over the radars' results (in site order). `reuse`: the cell states of this height when
+ * already computed, and a previous fused height whose arrays may be overwritten.
+ */
+export function fuseSiteHeight(
+  site: PreparedSite,
+  radars: readonly RadarCoverage[],
+  job: FusionJob,
+  reuse: { cellState?: Uint8Array; fused?: FusedHeight } = {},
+): SiteHeightResult {
+  const { targetIndex: t, heightIndex: k, extents } = job;
+  const h = site.heightsAglM[k];
+  const pdPerRadar = radars.map((r) => r.heights[k].targets[t].pd!);
+  const cellState = reuse.cellState ?? cellStatesAtHeight(site.ground, site.obstructionTopAglM, h);
+  const fused = fuseHeight({
+    pdPerRadar,
+    requiredPd: site.requirement.requiredPd,
+    cellState,
+    regions: site.regions,
+    extents,
+    width: site.frame.width,
+    out: reuse.fused,
+  });
+  const metrics = heightMetrics({
+    heightAglM: h,
+    fused,
+    pdPerRadar,
+    radarIds: site.radars.map((r) => r.id),
+    requiredPd: site.requirement.requiredPd,
+    cellState,
+    regions: site.regions,
+    width: site.frame.width,
+    height: site.frame.height,
+    originX: site.frame.originX,
+    originY: site.frame.originY,
+    cellSizeM: site.frame.cellSizeM,
+    extents,
+  });
+  return { ...fused, heightAglM: h, cellState, metrics };
 }
 
 /** Resolve on a later turn of the event loop (a zero-delay timer: browsers, workers and Node all have one). */
@@ -381,48 +454,45 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
     }
     return s;
   };
-  const targets: SiteTargetResult[] = site.targets.map((target, t) => {
-    const heights: SiteHeightResult[] = [];
+  const jobs: FusionJob[] = [];
+  site.targets.forEach((target, t) => {
     site.heightsAglM.forEach((h, k) => {
-      if (!target.heightsAglM.includes(h)) return;
+      if (target.heightsAglM.includes(h)) jobs.push({ targetIndex: t, heightIndex: k, extents });
+    });
+  });
+  let fused: SiteHeightResult[];
+  if (opts.runFusion) {
+    // Elsewhere (workers holding the radars' results): all steps in flight together.
+    const runFusion = opts.runFusion;
+    checkCancel(opts);
+    fused = await Promise.all(
+      jobs.map(async (job) => {
+        const r = await runFusion(site, job);
+        fusionDone++;
+        opts.onProgress?.({ stage: "fusion", done: fusionDone, total: fusionSteps });
+        return r;
+      }),
+    );
+    checkCancel(opts);
+  } else {
+    fused = jobs.map((job) => {
       checkCancel(opts);
-      const pdPerRadar = radars.map((r) => r.heights[k].targets[t].pd!);
-      const cellState = stateAt(h);
-      const fused = fuseHeight({
-        pdPerRadar,
-        requiredPd: site.requirement.requiredPd,
-        cellState,
-        regions: site.regions,
-        extents,
-        width: w,
-        out: previousHeight(target.id, h),
+      const h = site.heightsAglM[job.heightIndex];
+      const r = fuseSiteHeight(site, radars, job, {
+        cellState: stateAt(h),
+        fused: previousHeight(site.targets[job.targetIndex].id, h),
       });
-      const metrics = heightMetrics({
-        heightAglM: h,
-        fused,
-        pdPerRadar,
-        radarIds,
-        requiredPd: site.requirement.requiredPd,
-        cellState,
-        regions: site.regions,
-        width: site.frame.width,
-        height: site.frame.height,
-        originX: site.frame.originX,
-        originY: site.frame.originY,
-        cellSizeM: site.frame.cellSizeM,
-        extents,
-      });
-      heights.push({ ...fused, heightAglM: h, cellState, metrics });
       fusionDone++;
       opts.onProgress?.({ stage: "fusion", done: fusionDone, total: fusionSteps });
+      return r;
     });
-    return {
-      targetId: target.id,
-      name: target.name,
-      requirementApplies: site.requirement.targetIds.includes(target.id),
-      heights,
-    };
-  });
+  }
+  const targets: SiteTargetResult[] = site.targets.map((target, t) => ({
+    targetId: target.id,
+    name: target.name,
+    requirementApplies: site.requirement.targetIds.includes(target.id),
+    heights: fused.filter((_, j) => jobs[j].targetIndex === t),
+  }));
   const t2 = now();
   return {
     frame: site.frame,
