@@ -19,7 +19,15 @@ import {
   type RadarCoverage,
   radarCoverageFromHorizon,
 } from "../../src/coverage/coverage.ts";
-import { evaluateSite, type PreparedSite, type RadarRunner } from "../../src/coverage/evaluate.ts";
+import {
+  evaluateSite,
+  type FusionJob,
+  type FusionRunner,
+  type PreparedSite,
+  type RadarRunner,
+} from "../../src/coverage/evaluate.ts";
+import type { FusedHeight } from "../../src/coverage/fusion.ts";
+import type { HeightMetrics } from "../../src/coverage/metrics.ts";
 import type { RadarModel } from "../../src/coverage/radarModel.ts";
 import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts";
 import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
@@ -283,6 +291,8 @@ interface SharedWorkerApi {
   setSite(s: PreparedSite): void;
   setOutputs(index: number, coverage: RadarCoverage): void;
   compute(index: number, mode: MaskMode): RadarCoverage["extent"];
+  setFusionOutputs(key: string, out: { fused: FusedHeight; cellState: Uint8Array }): void;
+  fuse(job: FusionJob): HeightMetrics;
 }
 
 /** A RadarCoverage of the site's shape whose arrays are views on new SharedArrayBuffers. */
@@ -317,40 +327,76 @@ async function benchShared(site: PreparedSite, runs: number, singleReuseMs: numb
   );
   const apis = workers.map((w) => Comlink.wrap<SharedWorkerApi>(nodeEndpoint(w)));
   try {
+    const reference = await evaluateSite(site);
     const outputs = site.radars.map((r) => sharedCoverage(site, r.id));
     await Promise.all(apis.map((a) => a.setSite(site)));
     await Promise.all(apis.flatMap((a) => outputs.map((o, i) => a.setOutputs(i, o))));
+    const n = site.frame.width * site.frame.height;
+    const u8 = () => new Uint8Array(new SharedArrayBuffer(n));
+    const fusionOut = new Map<string, { fused: FusedHeight; cellState: Uint8Array }>();
+    site.targets.forEach((target, t) => {
+      site.heightsAglM.forEach((h, k) => {
+        if (!target.heightsAglM.includes(h)) return;
+        const combinedPd = new Float32Array(new SharedArrayBuffer(4 * n));
+        const fused = { combinedPd, overlapCount: u8(), bestRadar: u8(), gap: u8() };
+        fusionOut.set(`${t}/${k}`, { fused, cellState: u8() });
+      });
+    });
+    await Promise.all(apis.flatMap((a) => [...fusionOut].map(([key, o]) => a.setFusionOutputs(key, o))));
     const free = [...apis];
     const waiting: ((w: Comlink.Remote<SharedWorkerApi>) => void)[] = [];
-    const runRadar: RadarRunner = async (_s, index, mode) => {
+    const withWorker = async <T>(f: (w: Comlink.Remote<SharedWorkerApi>) => Promise<T>): Promise<T> => {
       const w =
         free.length > 0
           ? free.pop()!
           : await new Promise<Comlink.Remote<SharedWorkerApi>>((res) => waiting.push(res));
       try {
-        outputs[index].extent = await w.compute(index, mode);
-        return outputs[index];
+        return await f(w);
       } finally {
         const next = waiting.shift();
         if (next) next(w);
         else free.push(w);
       }
     };
-    let previous = await evaluateSite(site, { runRadar }); // warm-up
-    const times: number[] = [];
-    const radarMs: number[] = [];
-    for (let r = 0; r < runs; r++) {
-      const t = performance.now();
-      previous = await evaluateSite(site, { runRadar, previous });
-      times.push(performance.now() - t);
-      radarMs.push(previous.timingsMs.radars);
+    const runRadar: RadarRunner = (_s, index, mode) =>
+      withWorker(async (w) => {
+        outputs[index].extent = await w.compute(index, mode);
+        return outputs[index];
+      });
+    const runFusion: FusionRunner = (_s, job) =>
+      withWorker(async (w) => {
+        const metrics = await w.fuse(job);
+        const o = fusionOut.get(`${job.targetIndex}/${job.heightIndex}`)!;
+        return { ...o.fused, cellState: o.cellState, heightAglM: site.heightsAglM[job.heightIndex], metrics };
+      });
+    for (const fusionInWorkers of [false, true]) {
+      const opts = fusionInWorkers ? { runRadar, runFusion } : { runRadar };
+      let previous = await evaluateSite(site, opts); // warm-up
+      const times: number[] = [];
+      const radarMs: number[] = [];
+      for (let r = 0; r < runs; r++) {
+        const t = performance.now();
+        previous = await evaluateSite(site, { ...opts, previous });
+        times.push(performance.now() - t);
+        radarMs.push(previous.timingsMs.radars);
+      }
+      const s = stats(times);
+      // Same figures as one thread? (the metrics and every fused raster compared exactly)
+      const same = previous.targets.every((t, j) =>
+        t.heights.every(
+          (h, k) =>
+            JSON.stringify(h.metrics) === JSON.stringify(reference.targets[j].heights[k].metrics) &&
+            h.combinedPd.every((v, i) => Object.is(v, reference.targets[j].heights[k].combinedPd[i])),
+        ),
+      );
+      console.log(
+        `coverage full evaluation (${same ? "same results as 1 thread" : "RESULTS DIFFER FROM 1 THREAD"}), ` +
+          `2 workers, radar results in shared memory, ` +
+          `${fusionInWorkers ? "fusion steps on the workers (shared outputs)" : "fusion on the main thread into the previous result"}: ` +
+          `${fmt(s, 0)} ms (radar stages ${fmt(stats(radarMs), 0)} ms); speed-up ` +
+          `${(singleReuseMs / s.median).toFixed(2)} × over 1 thread reusing`,
+      );
     }
-    const s = stats(times);
-    console.log(
-      `coverage full evaluation, 2 workers, radar results in shared memory, fusion into the previous result: ` +
-        `${fmt(s, 0)} ms (radar stages ${fmt(stats(radarMs), 0)} ms); speed-up ` +
-        `${(singleReuseMs / s.median).toFixed(2)} × over 1 thread reusing`,
-    );
   } finally {
     await Promise.all(workers.map((w) => w.terminate()));
   }
@@ -509,7 +555,9 @@ export async function run(parts: string[] = ["stage", "full", "los"]): Promise<v
       previous = await evaluateSite(site, { previous });
       one.push(performance.now() - t);
     }
-    console.log(`coverage full evaluation, 1 thread, previous result's arrays reused: ${fmt(stats(one), 0)} ms`);
+    console.log(
+      `coverage full evaluation, 1 thread, previous result's arrays reused: ${fmt(stats(one), 0)} ms`,
+    );
     await benchShared(site, 5, stats(one).median);
   }
   if (parts.includes("los")) await benchLos(5);

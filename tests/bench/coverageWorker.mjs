@@ -10,7 +10,10 @@ register();
 if (workerData?.shared) {
   const Comlink = await import("comlink");
   const { default: nodeEndpoint } = await import("comlink/dist/esm/node-adapter.mjs");
-  const { computeRadarCoverage } = await import("../../src/coverage/evaluate.ts");
+  const { computeRadarCoverage, fuseSiteHeight } = await import("../../src/coverage/evaluate.ts");
+  const { cellStatesAtHeight } = await import("../../src/coverage/fusion.ts");
+  /** Fusion step key "target/height" → its shared output arrays { fused, cellState }. */
+  const fusionOutputs = new Map();
   let site = null;
   /** Radar index → its result object whose arrays are views on shared memory. */
   const outputs = new Map();
@@ -20,6 +23,22 @@ if (workerData?.shared) {
     },
     setOutputs(index, coverage) {
       outputs.set(index, coverage);
+    },
+    setFusionOutputs(key, out) {
+      fusionOutputs.set(key, out);
+    },
+    /** Fuse one class at one height into its shared arrays; returns the metrics. */
+    fuse(job) {
+      if (site === null) throw new Error("setSite first");
+      const radars = site.radars.map((_, i) => {
+        const r = outputs.get(i);
+        r.extent = job.extents[i];
+        return r;
+      });
+      const out = fusionOutputs.get(`${job.targetIndex}/${job.heightIndex}`);
+      const h = site.heightsAglM[job.heightIndex];
+      const cellState = cellStatesAtHeight(site.ground, site.obstructionTopAglM, h, out?.cellState);
+      return fuseSiteHeight(site, radars, job, { cellState, fused: out?.fused }).metrics;
     },
     /** Compute radar `index` into its shared arrays; returns the square its stage visited. */
     compute(index, mode) {
