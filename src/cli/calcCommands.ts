@@ -25,7 +25,8 @@ export interface DetectionArgs {
 const fmtDb = (x: number) => `${x >= 0 ? " " : ""}${x.toFixed(2)}`;
 const fmtM = (m: number) =>
   m >= 1000 ? `${(m / 1000).toFixed(3)} km` : m >= 10 ? `${m.toFixed(1)} m` : `${m.toFixed(2)} m`;
-const fmtW = (w: number) => (w >= 1000 ? `${(w / 1000).toFixed(2)} kW` : `${w.toFixed(2)} W`);
+const fmtW = (w: number) =>
+  w >= 1e6 ? `${(w / 1e6).toFixed(2)} MW` : w >= 1000 ? `${(w / 1000).toFixed(2)} kW` : `${w.toFixed(2)} W`;
 /** Probabilities as typed by engineers: 0.9, 1e-6. */
 const fmtP = (p: number) => (p < 1e-3 ? p.toExponential() : String(p));
 const caseName = (k: SwerlingCase) => (k === 0 ? "Swerling 0 (steady)" : `Swerling ${k}`);

@@ -235,7 +235,9 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     const status0 = await gen(page);
     await page.getByTestId("tool-post").click();
     const b = await mapBox(page);
-    await page.mouse.click(b.x + b.width * 0.56, b.y + b.height * 0.53);
+    // Inside the blind spot behind the ridge (the hatched band east of the fence), so a new radar there
+    // must change the gap area.
+    await page.mouse.click(b.x + b.width * 0.855, b.y + b.height * 0.7);
     await expect.poll(() => page.getByTestId("post-list").locator("li").count()).toBe(postsBefore + 1);
     await waitNewRun(page, status0);
     // A short-range FMCW model: the pulsed default is blind within c·τ/2 of itself.
