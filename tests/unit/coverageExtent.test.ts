@@ -1,0 +1,148 @@
+import { describe, expect, it } from "vitest";
+import { type RadarCoverage, Reason } from "../../src/coverage/coverage.ts";
+import { computeRadarCoverage, evaluateSite, fuseSiteHeight } from "../../src/coverage/evaluate.ts";
+import { cellStatesAtHeight, fuseHeight } from "../../src/coverage/fusion.ts";
+import {
+  cellXY,
+  demoRadar,
+  fixedWing,
+  frameOf,
+  placed,
+  quad,
+  roughGround,
+  siteOf,
+} from "./coverageFixtures.ts";
+
+/** 2 km square: one rotating radar reaching every cell, two short-range staring radars that do not. */
+function site() {
+  const f = frameOf(400, 400, 5);
+  const m = demoRadar("mossbee-58");
+  return siteOf(
+    f,
+    roughGround(f),
+    [
+      placed(demoRadar("kalvori-x9"), cellXY(f, 200, 200), 160, { id: "k" }),
+      placed(m, cellXY(f, 60, 60), 150, { id: "nw", boresightAzDeg: 135, tiltDeg: -3 }),
+      placed(m, cellXY(f, 330, 300), 150, { id: "se", boresightAzDeg: 315, tiltDeg: -3 }),
+    ],
+    { targets: [quad, fixedWing] },
+  );
+}
+
+/** Cells where two arrays differ (NaN equal to NaN); null arrays equal each other only. */
+function differences(a: ArrayLike<number> | null, b: ArrayLike<number> | null): number {
+  if (a === null || b === null) return a === b ? 0 : Number.POSITIVE_INFINITY;
+  if (a.length !== b.length) return Number.POSITIVE_INFINITY;
+  let n = 0;
+  for (let i = 0; i < a.length; i++) if (!Object.is(a[i], b[i])) n++;
+  return n;
+}
+
+/** Every array of two radar results, value for value. */
+function expectSameCoverage(a: RadarCoverage, b: RadarCoverage): void {
+  let n = differences(a.lowestVisibleHeightAglM, b.lowestVisibleHeightAglM);
+  a.heights.forEach((h, k) => {
+    n += differences(h.snrDbAt0Dbsm, b.heights[k].snrDbAt0Dbsm);
+    h.targets.forEach((t, j) => {
+      n += differences(t.pd, b.heights[k].targets[j].pd);
+      n += differences(t.reason, b.heights[k].targets[j].reason);
+    });
+  });
+  expect(n).toBe(0);
+}
+
+describe("radar extents", () => {
+  it("[CV10] outside its extent a radar is out of range everywhere; writing it into another radar's result (either nesting) gives the fresh result", () => {
+    const s = site();
+    const w = s.frame.width;
+    const fresh = s.radars.map((_, i) => computeRadarCoverage(s, i));
+    const full = fresh[0].extent!;
+    expect(full).toEqual({ rowMin: 0, rowMax: 399, colMin: 0, colMax: 399 });
+    for (const r of fresh.slice(1)) {
+      const e = r.extent!;
+      // The staring radars' squares are well inside the grid, so the test exercises the outside.
+      expect((e.rowMax - e.rowMin + 1) * (e.colMax - e.colMin + 1)).toBeLessThan(w * w);
+      let wrong = 0;
+      for (let i = 0; i < w * w; i++) {
+        const row = Math.floor(i / w);
+        const col = i % w;
+        if (row >= e.rowMin && row <= e.rowMax && col >= e.colMin && col <= e.colMax) continue;
+        if (!Number.isNaN(r.lowestVisibleHeightAglM[i])) wrong++;
+        for (const h of r.heights) {
+          if (!Number.isNaN(h.snrDbAt0Dbsm[i])) wrong++;
+          for (const t of h.targets) {
+            if (t.pd === null) continue;
+            if (t.pd[i] !== 0 || t.reason![i] !== Reason.outOfRange) wrong++;
+          }
+        }
+      }
+      expect(wrong).toBe(0);
+    }
+    // Chains of reuse: small into large (outside refilled), large into small (outside kept), small
+    // into another small one (squares not nested).
+    let held = computeRadarCoverage(s, 1);
+    for (const i of [0, 1, 2, 1, 0, 2]) {
+      held = computeRadarCoverage(s, i, s.maskMode, held);
+      expectSameCoverage(held, fresh[i]);
+    }
+  });
+
+  it("[FU6] fusion with extents equals fusion over every raster, also into reused arrays", () => {
+    const s = site();
+    const radars = s.radars.map((_, i) => computeRadarCoverage(s, i));
+    const cellState = cellStatesAtHeight(s.ground, s.obstructionTopAglM, 10);
+    const pdPerRadar = radars.map((r) => r.heights[0].targets[0].pd!);
+    const plain = fuseHeight({ pdPerRadar, requiredPd: 0.8, cellState, regions: s.regions });
+    const reused = fuseHeight({
+      pdPerRadar: radars.map((r) => r.heights[2].targets[0].pd!),
+      requiredPd: 0.8,
+      cellState,
+      regions: s.regions,
+    });
+    const withExtents = fuseHeight({
+      pdPerRadar,
+      requiredPd: 0.8,
+      cellState,
+      regions: s.regions,
+      extents: radars.map((r) => r.extent),
+      width: s.frame.width,
+      out: reused,
+    });
+    expect(withExtents.combinedPd).toBe(reused.combinedPd);
+    for (const key of ["combinedPd", "overlapCount", "bestRadar", "gap"] as const)
+      expect(differences(withExtents[key], plain[key])).toBe(0);
+    // The staring radars add coverage the rotating one alone does not give.
+    expect(plain.overlapCount.some((c) => c >= 2)).toBe(true);
+  });
+
+  it("[EV6] runs into the previous result and fusion steps run by a runner give the figures of a fresh run", async () => {
+    const s = site();
+    const fresh = await evaluateSite(s);
+    const snapshot = JSON.stringify(fresh.targets.map((t) => t.heights.map((h) => h.metrics)));
+    const pd = fresh.targets.map((t) => t.heights.map((h) => Array.from(h.combinedPd)));
+    const gaps = fresh.targets.map((t) => t.heights.map((h) => Array.from(h.gap)));
+    let previous = await evaluateSite(s);
+    for (let run = 0; run < 2; run++) {
+      const oldCombined = previous.targets[0].heights[0].combinedPd;
+      const next = await evaluateSite(s, { previous });
+      expect(next.targets[0].heights[0].combinedPd).toBe(oldCombined);
+      expect(JSON.stringify(next.targets.map((t) => t.heights.map((h) => h.metrics)))).toBe(snapshot);
+      expect(next.targets.map((t) => t.heights.map((h) => Array.from(h.combinedPd)))).toEqual(pd);
+      expect(next.targets.map((t) => t.heights.map((h) => Array.from(h.gap)))).toEqual(gaps);
+      previous = next;
+    }
+    const steps: string[] = [];
+    const viaRunner = await evaluateSite(s, {
+      runFusion: async (site, job) => {
+        steps.push(`${job.targetIndex}/${job.heightIndex}`);
+        return fuseSiteHeight(site, fresh.radars, job);
+      },
+    });
+    expect(steps).toEqual(["0/0", "0/1", "0/2", "1/1", "1/2"]);
+    expect(JSON.stringify(viaRunner.targets.map((t) => t.heights.map((h) => h.metrics)))).toBe(snapshot);
+    expect(viaRunner.targets.map((t) => t.heights.map((h) => h.heightAglM))).toEqual([
+      [10, 30, 60],
+      [30, 60],
+    ]);
+  });
+});
