@@ -185,22 +185,31 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await page.getByRole("button", { name: "Duplicate" }).click();
     await expect.poll(() => models.count()).toBe(n + 1);
     await page.getByRole("button", { name: "Edit" }).click();
-    const doc = page.getByLabel(/Model document/);
-    const json = JSON.parse((await doc.inputValue()) || "{}");
-    json.transmitter.peakPowerW = -5;
-    await doc.fill(JSON.stringify(json, null, 2));
-    await page.getByRole("button", { name: "Apply" }).click();
+    const form = page.getByTestId("radar-form");
+    const range = form.getByTestId("rf-d-range");
+    const range0 = (await range.textContent()) ?? "";
+    const power = form.getByLabel("Peak power", { exact: true });
+    const power0 = await power.inputValue();
+    await power.fill(String(Number(power0) * 16));
+    await power.press("Enter");
+    // Free-space range grows as P^(1/4): 16× the power doubles it.
+    await expect.poll(async () => (await range.textContent()) ?? "").not.toBe(range0);
+    await power.fill("-5");
+    await power.press("Enter");
     await expect
-      .poll(
-        async () =>
-          (await page
-            .getByTestId("radars-panel")
-            .locator(".field-error")
-            .textContent()
-            .catch(() => "")) ?? "",
-      )
-      .toMatch(/transmitter\.peakPowerW/);
-    await page.getByRole("button", { name: "Cancel" }).click();
+      .poll(async () => (await form.getByTestId("rf-error-transmitter.peakPowerW").textContent()) ?? "")
+      .toMatch(/must be > 0 W \(got -5\)/);
+    expect(await power.inputValue()).toBe("-5");
+    expect(await power.getAttribute("aria-invalid")).toBe("true");
+    await shoot(page, "radar-form");
+    await form.getByLabel("Advanced (JSON)").check();
+    const doc = form.getByLabel(/Model document/);
+    expect(JSON.parse((await doc.inputValue()) || "{}").transmitter.peakPowerW).toBe(Number(power0) * 16);
+    await form.getByLabel("Advanced (JSON)").uncheck();
+    await page.getByTestId("undo").click();
+    await expect.poll(() => power.inputValue()).toBe(power0);
+    expect(await range.textContent()).toBe(range0);
+    await form.getByRole("button", { name: "Close" }).click();
     await page.getByTestId("undo").click();
     await expect.poll(() => models.count()).toBe(n);
     await shoot(page, "radars");

@@ -1,14 +1,16 @@
 /**
- * The radar-model library: the plan's models with their key figures; duplicate, edit (as a JSON
- * document checked field by field), export, import a model file, delete an unused model.
+ * The radar-model library: the plan's models with their key figures; duplicate, edit (in the form of
+ * radarForm/, with the JSON document as its advanced view), export, import a model file, delete an
+ * unused model.
  */
 import { fileOpen, fileSave } from "browser-fs-access";
-import { useEffect, useId, useState } from "react";
+import { useCallback, useState } from "react";
 import { radarRangeWindowM } from "../../coverage/coverage";
 import type { RadarModel } from "../../coverage/radarModel";
 import { loadRadarModelFile } from "../../io/radarFile";
 import { say } from "../session";
 import { freshId, usePlanStore } from "../store";
+import { RadarModelForm } from "./radarForm/RadarModelForm";
 
 const HZ_PER_GHZ = 1e9;
 const M_PER_KM = 1000;
@@ -46,52 +48,22 @@ function KeyFigures({ m }: { m: RadarModel }) {
   );
 }
 
-function ModelEditor({ model, onDone }: { model: RadarModel; onDone: () => void }) {
-  const id = useId();
-  const change = usePlanStore((s) => s.change);
-  const [text, setText] = useState(JSON.stringify(model, null, 2));
-  const [errors, setErrors] = useState<string[]>([]);
-  useEffect(() => setText(JSON.stringify(model, null, 2)), [model]);
-  const apply = () => {
-    const r = loadRadarModelFile(text);
-    if (!r.ok) return setErrors(r.errors.map((e) => `${e.path}: ${e.message}`));
-    if (r.model.id !== model.id)
-      return setErrors([`id: keep "${model.id}" (posts refer to it); duplicate to make a new model`]);
-    setErrors([]);
-    change(
-      (p) => ({ ...p, radarModels: p.radarModels.map((m) => (m.id === model.id ? r.model : m)) }),
-      "edit radar model",
-    );
-    onDone();
-  };
-  return (
-    <div className="model-editor">
-      <label htmlFor={id}>Model document (JSON, SI units in the field names)</label>
-      <textarea id={id} value={text} rows={18} spellCheck={false} onChange={(e) => setText(e.target.value)} />
-      {errors.length > 0 && (
-        <ul className="field-error" role="alert">
-          {errors.map((e) => (
-            <li key={e}>{e}</li>
-          ))}
-        </ul>
-      )}
-      <button type="button" onClick={apply}>
-        Apply
-      </button>
-      <button type="button" onClick={onDone}>
-        Cancel
-      </button>
-    </div>
-  );
-}
-
 export function RadarsPanel() {
   const plan = usePlanStore((s) => s.plan);
   const change = usePlanStore((s) => s.change);
   const [selected, setSelected] = useState<string | null>(null);
   const [editing, setEditing] = useState(false);
+  const model = plan?.radarModels.find((m) => m.id === selected) ?? plan?.radarModels[0];
+  const modelId = model?.id;
+  const apply = useCallback(
+    (next: RadarModel) =>
+      change(
+        (p) => ({ ...p, radarModels: p.radarModels.map((m) => (m.id === modelId ? next : m)) }),
+        "edit radar model",
+      ),
+    [change, modelId],
+  );
   if (!plan) return null;
-  const model = plan.radarModels.find((m) => m.id === selected) ?? plan.radarModels[0];
   const used = (id: string) => plan.posts.some((p) => p.radarModelId === id);
 
   const duplicate = (m: RadarModel) => {
@@ -139,11 +111,18 @@ export function RadarsPanel() {
           <h3>{model.name}</h3>
           {model.invented && <p className="muted">An invented example model, not a real product.</p>}
           <KeyFigures m={model} />
-          {editing ? (
-            <ModelEditor model={model} onDone={() => setEditing(false)} />
-          ) : (
+          {editing && (
+            <RadarModelForm
+              key={model.id}
+              model={model}
+              requirement={plan.requirement}
+              onApply={apply}
+              onClose={() => setEditing(false)}
+            />
+          )}
+          {
             <div className="button-row">
-              <button type="button" onClick={() => setEditing(true)}>
+              <button type="button" aria-pressed={editing} onClick={() => setEditing(!editing)}>
                 Edit
               </button>
               <button type="button" onClick={() => duplicate(model)}>
@@ -174,7 +153,7 @@ export function RadarsPanel() {
                 Delete
               </button>
             </div>
-          )}
+          }
         </section>
       )}
     </div>
