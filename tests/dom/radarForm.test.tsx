@@ -13,6 +13,7 @@ import { derivedFigures } from "../../src/ui/panels/radarForm/derivedFigures";
 import {
   candidateFromDraft,
   draftFromModel,
+  messageInUnit,
   routeErrors,
   siToText,
   textToSi,
@@ -79,6 +80,26 @@ describe("radar form errors go beside the field their path names", () => {
     expect(byPath.get("txAntenna.azCut")).toEqual(["angleDeg[3]: 3 deg does not follow 4 deg"]);
     expect(byPath.get("waveform.pulseWidthS")).toHaveLength(1);
     expect(other).toEqual([{ path: "(file)", message: "broken" }]);
+  });
+
+  it("restates the schema's SI numbers in the field's display unit", () => {
+    expect(messageInUnit("2000000 is below the 3000000 Hz limit", UNITS.ghz)).toBe(
+      "0.002 GHz is below the 0.003 GHz limit",
+    );
+    expect(messageInUnit("must be > 0 s (got -5e-7)", UNITS.us)).toBe("must be > 0 µs (got -0.5 µs)");
+    expect(messageInUnit("is required (a number in Hz)", UNITS.mhz)).toBe("is required (a number in MHz)");
+    expect(messageInUnit("0.00002 s at 100000 Hz is a duty cycle of 2.00 (must be ≤ 1)", UNITS.us)).toBe(
+      "20 µs at 100000 Hz is a duty cycle of 2.00 (must be ≤ 1)",
+    );
+    expect(messageInUnit("100 m is not beyond blindZoneM (150 m)", UNITS.km)).toBe(
+      "0.1 km is not beyond blindZoneM (0.15 km)",
+    );
+    expect(messageInUnit("must be > 0 W (got -5)", UNITS.w)).toBe("must be > 0 W (got -5)");
+    // Beside the field, through the error routing.
+    const { byPath } = routeErrors([
+      { path: "frequencyHz", message: "5e11 is above the 300000000000 Hz limit" },
+    ]);
+    expect(byPath.get("frequencyHz")).toEqual(["500 GHz is above the 300 GHz limit"]);
   });
 
   it("switching to FMCW with no FMCW values names each missing field", () => {
@@ -227,6 +248,14 @@ describe("radar form in the DOM", () => {
     type(power, "0");
     blur(power);
     expect(usePlanStore.temporal.getState().pastStates).toHaveLength(1);
+    // Escape closes the form; opening it again finds the typing (and its error) still there.
+    act(() => power.dispatchEvent(new KeyboardEvent("keydown", { key: "Escape", bubbles: true })));
+    expect((host.querySelector('[data-testid="radar-form"]') as HTMLElement).hidden).toBe(true);
+    act(() => edit?.click());
+    expect((inputByLabel("Peak power") as HTMLInputElement).value).toBe("0");
+    expect(host.querySelector('[data-testid="rf-error-transmitter.peakPowerW"]')?.textContent).toMatch(
+      /> 0 W/,
+    );
     act(() => {
       undo();
     });

@@ -209,6 +209,12 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await page.getByTestId("undo").click();
     await expect.poll(() => power.inputValue()).toBe(power0);
     expect(await range.textContent()).toBe(range0);
+    await form.getByLabel("Kind").selectOption("fmcw");
+    await expect
+      .poll(async () => (await form.getByTestId("rf-error-waveform.chirpBandwidthHz").textContent()) ?? "")
+      .toMatch(/is required/);
+    await shoot(page, "radar-form-fmcw");
+    await form.getByLabel("Kind").selectOption("pulsed");
     await form.getByRole("button", { name: "Close" }).click();
     await page.getByTestId("undo").click();
     await expect.poll(() => models.count()).toBe(n);

@@ -4,7 +4,7 @@
  * unused model.
  */
 import { fileOpen, fileSave } from "browser-fs-access";
-import { useCallback, useState } from "react";
+import { useCallback, useRef, useState } from "react";
 import { radarRangeWindowM } from "../../coverage/coverage";
 import type { RadarModel } from "../../coverage/radarModel";
 import { loadRadarModelFile } from "../../io/radarFile";
@@ -52,7 +52,10 @@ export function RadarsPanel() {
   const plan = usePlanStore((s) => s.plan);
   const change = usePlanStore((s) => s.change);
   const [selected, setSelected] = useState<string | null>(null);
+  const editButton = useRef<HTMLButtonElement>(null);
   const [editing, setEditing] = useState(false);
+  /** Set once the form was opened: it stays mounted (hidden) so that closing it keeps the typing. */
+  const [formMounted, setFormMounted] = useState(false);
   const model = plan?.radarModels.find((m) => m.id === selected) ?? plan?.radarModels[0];
   const modelId = model?.id;
   const apply = useCallback(
@@ -111,18 +114,30 @@ export function RadarsPanel() {
           <h3>{model.name}</h3>
           {model.invented && <p className="muted">An invented example model, not a real product.</p>}
           <KeyFigures m={model} />
-          {editing && (
+          {(editing || formMounted) && (
             <RadarModelForm
               key={model.id}
               model={model}
               requirement={plan.requirement}
               onApply={apply}
-              onClose={() => setEditing(false)}
+              hidden={!editing}
+              onClose={() => {
+                setEditing(false);
+                editButton.current?.focus();
+              }}
             />
           )}
           {
             <div className="button-row">
-              <button type="button" aria-pressed={editing} onClick={() => setEditing(!editing)}>
+              <button
+                type="button"
+                ref={editButton}
+                aria-pressed={editing}
+                onClick={() => {
+                  setFormMounted(true);
+                  setEditing(!editing);
+                }}
+              >
                 Edit
               </button>
               <button type="button" onClick={() => duplicate(model)}>

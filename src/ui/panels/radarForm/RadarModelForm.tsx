@@ -27,6 +27,8 @@ export interface RadarModelFormProps {
   /** Replaces the model in the plan (one undo step). */
   onApply: (model: RadarModel) => void;
   onClose?: () => void;
+  /** Hidden but kept (with its typing) while closed. */
+  hidden?: boolean;
 }
 
 /** Validates a draft against parseRadarModel: the model, or the errors with their paths. */
@@ -40,7 +42,7 @@ export function checkDraft(
   return { ok: false, errors: mergeErrors(textErrors, r.ok ? [] : r.errors) };
 }
 
-export function RadarModelForm({ model, requirement, onApply, onClose }: RadarModelFormProps) {
+export function RadarModelForm({ model, requirement, onApply, onClose, hidden }: RadarModelFormProps) {
   const [draft, setDraft] = useState(() => draftFromModel(model));
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [json, setJson] = useState(false);
@@ -96,14 +98,22 @@ export function RadarModelForm({ model, requirement, onApply, onClose }: RadarMo
   const routed = routeErrors(errors);
   const value = { ...api, errors: routed.byPath };
   return (
-    <section className="rf-sheet" aria-label={`Edit radar model ${model.name}`} data-testid="radar-form">
+    <section
+      className="rf-sheet"
+      hidden={hidden}
+      aria-label={`Edit radar model ${model.name}`}
+      data-testid="radar-form"
+      onKeyDown={(e) => {
+        if (e.key === "Escape" && onClose) onClose();
+      }}
+    >
       <header className="rf-head">
         <h3>Edit {model.name}</h3>
         <label className="rf-toggle">
           <input type="checkbox" checked={json} onChange={(e) => setJson(e.target.checked)} /> Advanced (JSON)
         </label>
         {onClose && (
-          <button type="button" onClick={onClose}>
+          <button type="button" onClick={onClose} title="Close (Esc); typing not yet applied is kept">
             Close
           </button>
         )}
@@ -130,9 +140,9 @@ export function RadarModelForm({ model, requirement, onApply, onClose }: RadarMo
               <IdentityGroup modelId={model.id} />
               <TxRxGroup />
               <WaveformGroup />
-              <ScanGroup />
               <TxAntennaGroup />
               <RxAntennaGroup />
+              <ScanGroup />
               <RangesGroup />
             </div>
           </RadarFormContext.Provider>

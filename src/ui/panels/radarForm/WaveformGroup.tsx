@@ -8,8 +8,8 @@ const KINDS = [
   { value: "fmcw", label: "FMCW (linear chirps)" },
 ];
 const SAMPLING = [
-  { value: "real", label: "Real (beat frequencies to fs/2)" },
-  { value: "complex", label: "Complex I/Q (to fs)" },
+  { value: "real", label: "Real (beat to fs/2)" },
+  { value: "complex", label: "Complex I/Q (beat to fs)" },
 ];
 
 export function WaveformGroup() {

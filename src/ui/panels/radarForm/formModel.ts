@@ -8,9 +8,10 @@
 import type { PatternCut, RadarModel } from "../../../coverage/radarModel";
 import type { FieldError } from "../../../io/schemaFields";
 
-/** A display unit: its symbol and how many SI units one of it is (GHz: 1e9 Hz). */
+/** A display unit: its symbol, the SI unit the model stores, and how many of those one of it is (GHz: 1e9 Hz). */
 export interface DisplayUnit {
   symbol: string;
+  si: string;
   siPerUnit: number;
 }
 
@@ -21,18 +22,18 @@ const KILO = 1e3;
 const MICRO = 1e-6;
 
 export const UNITS = {
-  ghz: { symbol: "GHz", siPerUnit: GIGA },
-  mhz: { symbol: "MHz", siPerUnit: MEGA },
-  khz: { symbol: "kHz", siPerUnit: KILO },
-  us: { symbol: "µs", siPerUnit: MICRO },
-  s: { symbol: "s", siPerUnit: 1 },
-  w: { symbol: "W", siPerUnit: 1 },
-  m: { symbol: "m", siPerUnit: 1 },
-  km: { symbol: "km", siPerUnit: KILO },
-  db: { symbol: "dB", siPerUnit: 1 },
-  dbi: { symbol: "dBi", siPerUnit: 1 },
-  deg: { symbol: "°", siPerUnit: 1 },
-  count: { symbol: "", siPerUnit: 1 },
+  ghz: { symbol: "GHz", si: "Hz", siPerUnit: GIGA },
+  mhz: { symbol: "MHz", si: "Hz", siPerUnit: MEGA },
+  khz: { symbol: "kHz", si: "Hz", siPerUnit: KILO },
+  us: { symbol: "µs", si: "s", siPerUnit: MICRO },
+  s: { symbol: "s", si: "s", siPerUnit: 1 },
+  w: { symbol: "W", si: "W", siPerUnit: 1 },
+  m: { symbol: "m", si: "m", siPerUnit: 1 },
+  km: { symbol: "km", si: "m", siPerUnit: KILO },
+  db: { symbol: "dB", si: "dB", siPerUnit: 1 },
+  dbi: { symbol: "dBi", si: "dBi", siPerUnit: 1 },
+  deg: { symbol: "°", si: "deg", siPerUnit: 1 },
+  count: { symbol: "", si: "", siPerUnit: 1 },
 } as const satisfies Record<string, DisplayUnit>;
 
 /** Significant digits kept when converting, enough for any typed value and free of binary noise. */
@@ -55,6 +56,29 @@ export function textToSi(text: string, unit: DisplayUnit): number | undefined {
   const v = Number(t);
   if (!Number.isFinite(v)) return Number.NaN;
   return Number((v * unit.siPerUnit).toPrecision(SIGNIFICANT_DIGITS));
+}
+
+const NUMBER = String.raw`-?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?`;
+
+/**
+ * A schema message about a field restated in the field's display unit: beside a GHz field, "2000000 is
+ * below the 3000000 Hz limit" reads "0.002 GHz is below the 0.003 GHz limit". Every number the message
+ * gives in the stored SI unit, and the value it got, is shown in the display unit; numbers in other
+ * units (a PRF in a pulse-width message) are left as they are.
+ */
+export function messageInUnit(message: string, unit: DisplayUnit): string {
+  if (unit.siPerUnit === 1 || unit.si === "") return message;
+  const show = (n: string) => `${siToText(Number(n), unit)} ${unit.symbol}`;
+  return message
+    .replace(
+      new RegExp(`^(${NUMBER}) is (below|above) the (${NUMBER}) ${unit.si} limit`),
+      (_, v, side, lim) => {
+        return `${show(v)} is ${side} the ${show(lim)} limit`;
+      },
+    )
+    .replace(new RegExp(`\\(got (${NUMBER})\\)`), (_, v) => `(got ${show(v)})`)
+    .replace(new RegExp(`(${NUMBER}) ${unit.si}\\b`, "g"), (_, v) => show(v))
+    .replace(`a number in ${unit.si}`, `a number in ${unit.symbol}`);
 }
 
 /** One numeric input of the form. */
@@ -282,6 +306,7 @@ export function errorTargets(): string[] {
 export function routeErrors(
   errors: readonly FieldError[],
   targets: readonly string[] = errorTargets(),
+  units: ReadonlyMap<string, DisplayUnit> = new Map(allNumberFields().map((f) => [f.path, f.unit])),
 ): { byPath: Map<string, string[]>; other: FieldError[] } {
   const byPath = new Map<string, string[]>();
   const other: FieldError[] = [];
@@ -297,7 +322,9 @@ export function routeErrors(
     }
     const rest = e.path.slice(best.length);
     const list = byPath.get(best) ?? [];
-    list.push(rest ? `${rest.replace(/^\./, "")}: ${e.message}` : e.message);
+    const unit = units.get(best);
+    const message = unit ? messageInUnit(e.message, unit) : e.message;
+    list.push(rest ? `${rest.replace(/^\./, "")}: ${message}` : message);
     byPath.set(best, list);
   }
   return { byPath, other };
