@@ -2,7 +2,7 @@
 import fc from "fast-check";
 import { act } from "react";
 import { createRoot, type Root } from "react-dom/client";
-import { afterEach, beforeEach, describe, expect, it } from "vitest";
+import { afterEach, beforeEach, describe, expect, it, vi } from "vitest";
 import pulsed from "../../demo-sites/radars/kalvori-x9-rotating-pulsed.json";
 import patchFmcw from "../../demo-sites/radars/mossbee-58-patch-fmcw.json";
 import staringFmcw from "../../demo-sites/radars/zorvane-s24-staring-fmcw.json";
@@ -24,6 +24,16 @@ import { undo, usePlanStore } from "../../src/ui/store";
 import { samplePlan } from "./samplePlan";
 
 (globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
+
+/** The file the mocked picker returns next. */
+const picked: { file: File | null } = { file: null };
+vi.mock("browser-fs-access", () => ({
+  fileOpen: async () => {
+    if (!picked.file) throw new Error("cancelled");
+    return picked.file;
+  },
+  fileSave: async () => undefined,
+}));
 
 const MODELS = [pulsed, patchFmcw, staringFmcw] as RadarModel[];
 const REQUIREMENT = { requiredPd: 0.9, pfa: 1e-6, looks: 1 };
@@ -263,5 +273,37 @@ describe("radar form in the DOM", () => {
     expect(host.querySelector('[data-testid="rf-d-range"]')?.textContent).toBe(before);
     const m = usePlanStore.getState().plan?.radarModels[0];
     expect(parseRadarModel(m).ok).toBe(true);
+  });
+
+  it("imports a pattern cut per plane from CSV; a bad file lists its errors and keeps the cut in use", async () => {
+    const applied: RadarModel[] = [];
+    render(
+      <RadarModelForm
+        model={pulsed as RadarModel}
+        requirement={REQUIREMENT}
+        onApply={(m) => applied.push(m)}
+      />,
+    );
+    const buttons = () =>
+      [...host.querySelectorAll("button")].filter((b) => b.textContent === "Import pattern cut (CSV)…");
+    expect(buttons()).toHaveLength(2);
+    picked.file = new File(["angle_deg,gain_db\n-10,-20\n0,0\n10,-21\n"], "az.csv", { type: "text/csv" });
+    await act(async () => buttons()[0].click());
+    expect(applied.at(-1)?.txAntenna.azCut).toEqual({
+      angleDeg: [-10, 0, 10],
+      relativeGainDb: [-20, 0, -21],
+    });
+    expect(host.textContent).toMatch(/Azimuth pattern: measured cut, 3 points, -10° to 10°/);
+    picked.file = new File(["angle_deg,gain_db\n-10,-20\nfive,0\n"], "bad.csv", { type: "text/csv" });
+    await act(async () => buttons()[0].click());
+    expect(host.textContent).toMatch(/bad\.csv: row 3, column "angle_deg": "five" is not a number/);
+    expect(host.textContent).toMatch(/Not imported; the pattern in use is unchanged/);
+    expect(host.textContent).toMatch(/measured cut, 3 points/);
+    expect(applied).toHaveLength(1);
+    // Absolute gains (dBi) are normalised with a warning shown.
+    picked.file = new File(["-5;28\n0;30\n5;27,5\n"], "el.csv", { type: "text/csv" });
+    await act(async () => buttons()[1].click());
+    expect(applied.at(-1)?.txAntenna.elCut?.relativeGainDb).toEqual([-2, 0, -2.5]);
+    expect(host.textContent).toMatch(/el\.csv: gains were normalised/);
   });
 });

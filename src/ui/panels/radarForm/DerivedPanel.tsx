@@ -50,7 +50,8 @@ export function DerivedPanel({ model, requirement }: { model: RadarModel; requir
       </dl>
       <p className="muted">
         Free-space range: a {REFERENCE_RCS_M2} m² Swerling {REFERENCE_SWERLING} target at Pd{" "}
-        {requirement.requiredPd}, Pfa {requirement.pfa.toExponential()}, {requirement.looks} look
+        {requirement.requiredPd}, <span className="rf-nowrap">Pfa {requirement.pfa.toExponential()}</span>,{" "}
+        {requirement.looks} look
         {requirement.looks === 1 ? "" : "s"}, peak gains, no terrain, atmosphere or instrumented-range limit.
       </p>
     </aside>

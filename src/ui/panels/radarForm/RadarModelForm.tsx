@@ -47,6 +47,11 @@ export function RadarModelForm({ model, requirement, onApply, onClose, hidden }:
   const [errors, setErrors] = useState<FieldError[]>([]);
   const [json, setJson] = useState(false);
   const draftRef = useRef(draft);
+  const sheet = useRef<HTMLElement>(null);
+  // Keyboard users land in the form when it opens (its first field, the name).
+  useEffect(() => {
+    if (!hidden) sheet.current?.querySelector<HTMLElement>(".rf-groups input, textarea")?.focus();
+  }, [hidden]);
   const appliedRef = useRef(model);
   useEffect(() => {
     if (model === appliedRef.current) return;
@@ -99,6 +104,7 @@ export function RadarModelForm({ model, requirement, onApply, onClose, hidden }:
   const value = { ...api, errors: routed.byPath };
   return (
     <section
+      ref={sheet}
       className="rf-sheet"
       hidden={hidden}
       aria-label={`Edit radar model ${model.name}`}
