@@ -195,7 +195,15 @@ async function main() {
   }
 }
 
-main().catch((e) => {
-  console.error(e);
-  process.exitCode = 1;
-});
+/** Entry for `npm run bench` (tests/bench/run.ts), which awaits it after the other benchmarks. */
+export async function run(): Promise<void> {
+  await main();
+}
+
+// Run alone: `npx tsx tests/bench/browser.bench.ts`.
+if (process.argv[1]?.endsWith("browser.bench.ts")) {
+  main().catch((e) => {
+    console.error(e);
+    process.exitCode = 1;
+  });
+}
