@@ -14,7 +14,8 @@ export default defineConfig({
   },
   worker: { format: "es" },
   build: { target: "es2022", sourcemap: true },
-  server: { host: "127.0.0.1", port: 5173 },
+  // `npm start` opens the planner in the default browser; set BROWSER=none (or run under CI) to stay quiet.
+  server: { host: "127.0.0.1", port: 5173, open: !process.env.CI },
   test: {
     include: ["src/**/*.test.ts", "tests/**/*.test.ts", "tests/**/*.test.tsx"],
     exclude: ["node_modules", "dist"],
