@@ -32,7 +32,7 @@ import type { RadarModel } from "../../src/coverage/radarModel.ts";
 import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts";
 import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
 import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
-import { demoRadar } from "../unit/coverageFixtures.ts";
+import { cellXY, demoRadar, placed, stageOf } from "../unit/coverageFixtures.ts";
 import { type CoverageWorkerApi, resultBuffers } from "./coverageWorkerApi.ts";
 
 const SIDE = 2048;
@@ -100,18 +100,11 @@ export function radarAt(
   id: string,
 ): PlacedRadar {
   const f = s.frame;
-  return {
+  return placed(model, cellXY(f, col, row), s.ground[row * f.width + col] + 20, {
     id,
     name: id,
-    model,
-    scan: model.scan,
-    x: f.originX + (col + 0.5) * f.cellSizeM,
-    y: f.originY - (row + 0.5) * f.cellSizeM,
-    antennaHeightAslM: s.ground[row * f.width + col] + 20,
     boresightAzDeg,
-    tiltDeg: 0,
-    ownFootprintRadiusM: 0,
-  };
+  });
 }
 
 /** Radar stage alone: ns per cell for 4 heights, one class, every cell within range. */
@@ -119,20 +112,7 @@ export function benchStage(label: string, model: RadarModel, cellSizeM: number, 
   const heights = [10, 30, 60, 100];
   const site = siteOn(cellSizeM, (s) => [radarAt(s, model, SIDE / 2, SIDE / 2, 45, "r")], heights);
   const radar = site.radars[0];
-  const kernel = buildRadarKernel({
-    radar,
-    targets: site.targets,
-    requirement: site.requirement,
-    effectiveEarthFactor: 4 / 3,
-  });
-  const horizon = computeHorizon({
-    surface: { ...site.frame, data: site.surface },
-    observerX: radar.x,
-    observerY: radar.y,
-    antennaHeightAslM: radar.antennaHeightAslM,
-    effectiveEarthFactor: 4 / 3,
-    mode: "accurate",
-  });
+  const { kernel, horizon } = stageOf(site, radar);
   const input = { ...site, radar, effectiveEarthFactor: 4 / 3 };
   const n = SIDE * SIDE;
   const previous = radarCoverageFromHorizon(input, kernel, horizon); // warm-up (JIT)

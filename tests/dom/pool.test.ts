@@ -50,6 +50,17 @@ class FakeWorker {
   }
 }
 
+/** A worker factory that keeps every fake worker it makes, in order. */
+function recordedWorkers(): { workers: FakeWorker[]; createWorker: () => Worker } {
+  const workers: FakeWorker[] = [];
+  const createWorker = () => {
+    const w = new FakeWorker();
+    workers.push(w);
+    return w as unknown as Worker;
+  };
+  return { workers, createWorker };
+}
+
 describe("worker pool", () => {
   it("runs inline with pool size 0 and drops stale generations", async () => {
     const pool = new WorkerPool<Api>({ size: 0, inline: makeApi(0) });
@@ -63,14 +74,10 @@ describe("worker pool", () => {
   });
 
   it("drops queued older work on a channel and keeps the newest", async () => {
-    const workers: FakeWorker[] = [];
+    const { createWorker } = recordedWorkers();
     const pool = new WorkerPool<Api>({
       size: 1,
-      createWorker: () => {
-        const w = new FakeWorker();
-        workers.push(w);
-        return w as unknown as Worker;
-      },
+      createWorker,
     });
     const busy = pool.run("a", 1, "echo", [1, 40]);
     const queued = pool.run("b", 1, "echo", [2, 0]);
@@ -95,15 +102,11 @@ describe("worker pool", () => {
   });
 
   it("replaces a crashed worker, rejects its job by name and tells the user", async () => {
-    const workers: FakeWorker[] = [];
+    const { workers, createWorker } = recordedWorkers();
     const told: string[] = [];
     const pool = new WorkerPool<Api>({
       size: 1,
-      createWorker: () => {
-        const w = new FakeWorker();
-        workers.push(w);
-        return w as unknown as Worker;
-      },
+      createWorker,
       onCrash: (m) => told.push(m),
     });
     const job = pool.run("eval", 1, "echo", [1, 1000]);

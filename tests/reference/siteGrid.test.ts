@@ -18,8 +18,8 @@ import proj4 from "proj4";
 import { describe, expect, it } from "vitest";
 import { cellCentreX, cellCentreY, xToCol, yToRow } from "../../src/coverage/grid.ts";
 import type { Plan } from "../../src/io/planSchema.ts";
-import { parsePlan } from "../../src/io/planValidation.ts";
 import { siteGridFrame, utmZoneOf } from "../../src/io/siteGrid.ts";
+import { examplePlan, squareAround } from "../unit/siteGridFixtures.ts";
 
 interface UtmRow {
   lonDeg: number;
@@ -34,24 +34,14 @@ interface UtmRow {
 const fixture: { points: UtmRow[] } = JSON.parse(
   readFileSync(join(import.meta.dirname, "../fixtures/siteGrid/utm-points.json"), "utf8"),
 );
-const v1Text = readFileSync(join(import.meta.dirname, "../fixtures/planFormat/example-plan.v1.json"), "utf8");
-
 /** A validated plan whose only protected area is a small square centred on (lon, lat), with no posts. */
 function planAt(lon: number, lat: number, halfDeg = 0.001, cellSizeM: number | "auto" = "auto"): Plan {
-  const r = parsePlan(JSON.parse(v1Text));
-  if (!r.ok) throw new Error(JSON.stringify(r.errors));
-  const ring = [
-    [lon - halfDeg, lat - halfDeg],
-    [lon + halfDeg, lat - halfDeg],
-    [lon + halfDeg, lat + halfDeg],
-    [lon - halfDeg, lat + halfDeg],
-    [lon - halfDeg, lat - halfDeg],
-  ];
-  r.plan.protectedAreas = [{ id: "sq", name: "Square", geometry: { type: "Polygon", coordinates: [ring] } }];
-  r.plan.posts = [];
-  r.plan.approachRingDepthM = 500;
-  r.plan.analysis.cellSizeM = cellSizeM;
-  return r.plan;
+  return examplePlan((p) => {
+    p.protectedAreas = [squareAround(lon, lat, halfDeg)];
+    p.posts = [];
+    p.approachRingDepthM = 500;
+    p.analysis.cellSizeM = cellSizeM;
+  });
 }
 
 function geodesicAreaM2(corners: [number, number][]): number {

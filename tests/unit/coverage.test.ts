@@ -1,14 +1,21 @@
 import { describe, expect, it } from "vitest";
 import {
-  buildRadarKernel,
   coveragePoint,
   pseudoAngleBin,
   Reason,
   radarCoverageFromHorizon,
 } from "../../src/coverage/coverage.ts";
 import { computeRadarCoverage } from "../../src/coverage/evaluate.ts";
-import { computeHorizon } from "../../src/coverage/terrainMask.ts";
-import { cellXY, demoRadar, frameOf, placed, quad, roughGround, siteOf } from "./coverageFixtures.ts";
+import {
+  cellXY,
+  demoRadar,
+  frameOf,
+  placed,
+  quad,
+  roughGround,
+  siteOf,
+  stageOf,
+} from "./coverageFixtures.ts";
 
 describe("radar stage tables against the exact scalar path", () => {
   const cases = [
@@ -26,20 +33,7 @@ describe("radar stage tables against the exact scalar path", () => {
         tiltDeg: c.tilt,
       });
       const site = siteOf(f, ground, [radar]);
-      const kernel = buildRadarKernel({
-        radar,
-        targets: site.targets,
-        requirement: site.requirement,
-        effectiveEarthFactor: 4 / 3,
-      });
-      const horizon = computeHorizon({
-        surface: { ...f, data: site.surface },
-        observerX: at[0],
-        observerY: at[1],
-        antennaHeightAslM: radar.antennaHeightAslM,
-        effectiveEarthFactor: 4 / 3,
-        mode: "accurate",
-      });
+      const { kernel, horizon } = stageOf(site, radar);
       const cov = radarCoverageFromHorizon(
         { ...site, frame: f, radar, effectiveEarthFactor: 4 / 3 },
         kernel,
@@ -154,21 +148,7 @@ describe("output reuse", () => {
     const b = placed(m, cellXY(f, 90, 80), 140, { id: "b", boresightAzDeg: 300 });
     const site = siteOf(f, ground, [a, b]);
     const run = (radar: typeof a, reuse?: ReturnType<typeof radarCoverageFromHorizon>) => {
-      const kernel = buildRadarKernel({
-        radar,
-        targets: site.targets,
-        requirement: site.requirement,
-        effectiveEarthFactor: 4 / 3,
-      });
-      const horizon = computeHorizon({
-        surface: { ...f, data: site.surface },
-        observerX: radar.x,
-        observerY: radar.y,
-        antennaHeightAslM: radar.antennaHeightAslM,
-        effectiveEarthFactor: 4 / 3,
-        maxRangeM: kernel.maxRangeM,
-        mode: "accurate",
-      });
+      const { kernel, horizon } = stageOf(site, radar, { clipToReach: true });
       return radarCoverageFromHorizon(
         { ...site, radar, effectiveEarthFactor: 4 / 3 },
         kernel,

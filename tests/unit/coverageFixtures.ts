@@ -1,9 +1,15 @@
 /** Small synthetic sites shared by the coverage tests (flat ground, walls, a rough surface). */
 import { readFileSync } from "node:fs";
-import type { PlacedRadar, TargetSpec } from "../../src/coverage/coverage.ts";
+import {
+  buildRadarKernel,
+  type PlacedRadar,
+  type RadarKernel,
+  type TargetSpec,
+} from "../../src/coverage/coverage.ts";
 import type { PreparedSite } from "../../src/coverage/evaluate.ts";
 import type { GridFrame } from "../../src/coverage/grid.ts";
 import type { RadarModel } from "../../src/coverage/radarModel.ts";
+import { computeHorizon, type HorizonResult } from "../../src/coverage/terrainMask.ts";
 
 export function demoRadar(id: "kalvori-x9" | "mossbee-58" | "zorvane-s24"): RadarModel {
   const file = {
@@ -109,4 +115,31 @@ export function siteOf(
     groundSource: "flat",
     warnings: [],
   };
+}
+
+/**
+ * Radar-stage inputs for one radar of a site: its kernel and its accurate-mode horizon at k = 4/3,
+ * the horizon cut at the kernel's reach when `clipToReach` is set.
+ */
+export function stageOf(
+  site: PreparedSite,
+  radar: PlacedRadar,
+  opts: { clipToReach?: boolean } = {},
+): { kernel: RadarKernel; horizon: HorizonResult } {
+  const kernel = buildRadarKernel({
+    radar,
+    targets: site.targets,
+    requirement: site.requirement,
+    effectiveEarthFactor: 4 / 3,
+  });
+  const horizon = computeHorizon({
+    surface: { ...site.frame, data: site.surface },
+    observerX: radar.x,
+    observerY: radar.y,
+    antennaHeightAslM: radar.antennaHeightAslM,
+    effectiveEarthFactor: 4 / 3,
+    ...(opts.clipToReach ? { maxRangeM: kernel.maxRangeM } : {}),
+    mode: "accurate",
+  });
+  return { kernel, horizon };
 }

@@ -12,43 +12,31 @@ const pfaArb = fc.double({ min: -9, max: -3, noNaN: true }).map((e) => 10 ** e);
 const snrDbArb = fc.double({ min: -15, max: 45, noNaN: true });
 const RUNS = { numRuns: 150 };
 
+/** Checks `holds` over every Swerling case, look count, Pfa and SNR, with one extra step drawn from `step`. */
+function holdsWithStep(
+  step: fc.Arbitrary<number>,
+  holds: (swerling: SwerlingCase, looks: number, pfa: number, snrDb: number, step: number) => boolean,
+): void {
+  fc.assert(fc.property(swerlingArb, looksArb, pfaArb, snrDbArb, step, holds), RUNS);
+}
+
 describe("detection properties", () => {
   it("[PD2] Pd rises with SNR at fixed Pfa", () => {
-    fc.assert(
-      fc.property(
-        swerlingArb,
-        looksArb,
-        pfaArb,
-        snrDbArb,
-        fc.double({ min: 0.01, max: 5, noNaN: true }),
-        (swerling, looks, pfa, snrDb, stepDb) => {
-          const lo = pdExact({ snrLinear: dbToLinear(snrDb), pfa, looks, swerling });
-          const hi = pdExact({ snrLinear: dbToLinear(snrDb + stepDb), pfa, looks, swerling });
-          // Strictly rising until Pd rounds to 1 in double precision.
-          return lo < 1 ? hi > lo : hi === 1;
-        },
-      ),
-      RUNS,
-    );
+    holdsWithStep(fc.double({ min: 0.01, max: 5, noNaN: true }), (swerling, looks, pfa, snrDb, stepDb) => {
+      const lo = pdExact({ snrLinear: dbToLinear(snrDb), pfa, looks, swerling });
+      const hi = pdExact({ snrLinear: dbToLinear(snrDb + stepDb), pfa, looks, swerling });
+      // Strictly rising until Pd rounds to 1 in double precision.
+      return lo < 1 ? hi > lo : hi === 1;
+    });
   });
 
   it("[PD4] Pd falls as Pfa falls at fixed SNR", () => {
-    fc.assert(
-      fc.property(
-        swerlingArb,
-        looksArb,
-        pfaArb,
-        snrDbArb,
-        fc.double({ min: 0.1, max: 3, noNaN: true }),
-        (swerling, looks, pfa, snrDb, decades) => {
-          const snrLinear = dbToLinear(snrDb);
-          const a = pdExact({ snrLinear, pfa, looks, swerling });
-          const b = pdExact({ snrLinear, pfa: pfa * 10 ** -decades, looks, swerling });
-          return a < 1 ? b < a : b <= a;
-        },
-      ),
-      RUNS,
-    );
+    holdsWithStep(fc.double({ min: 0.1, max: 3, noNaN: true }), (swerling, looks, pfa, snrDb, decades) => {
+      const snrLinear = dbToLinear(snrDb);
+      const a = pdExact({ snrLinear, pfa, looks, swerling });
+      const b = pdExact({ snrLinear, pfa: pfa * 10 ** -decades, looks, swerling });
+      return a < 1 ? b < a : b <= a;
+    });
   });
 
   it("[PD5] Pd → Pfa as SNR → 0", () => {

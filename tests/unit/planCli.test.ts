@@ -174,15 +174,8 @@ describe("plan point and plan los", () => {
     const plan = JSON.parse(readFileSync(ridgePlan, "utf8"));
     const post = plan.posts.find((p: { id: string }) => p.id === "south-gate");
     const lat = post.position.latDeg - 0.0012; // about 130 m south, in the beam
-    const r = await run([
-      "point",
-      ridgePlan,
-      "--at",
-      `${lat},${post.position.lonDeg}`,
-      "--height-m",
-      "30",
-      "--json",
-    ]);
+    const pointArgs = ["point", ridgePlan, "--at", `${lat},${post.position.lonDeg}`, "--height-m", "30"];
+    const r = await run([...pointArgs, "--json"]);
     expect(r.code).toBe(0);
     const res = JSON.parse(r.out);
     expect(res.rows).toHaveLength(7 * 2);
@@ -192,14 +185,7 @@ describe("plan point and plan los", () => {
     expect(own.reasonText).toBe("covered");
     expect(own.linkBudget.rows.map((x: { id: string }) => x.id)).toContain("rangeFourth");
     expect(own.lowestVisibleHeightAglM).toBe(0);
-    const text = await run([
-      "point",
-      ridgePlan,
-      "--at",
-      `${lat},${post.position.lonDeg}`,
-      "--height-m",
-      "30",
-    ]);
+    const text = await run(pointArgs);
     expect(text.out).toMatch(/South gate mast \[south-gate\] → quad: covered/);
   });
 

@@ -1,9 +1,5 @@
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import fc from "fast-check";
 import { describe, expect, it } from "vitest";
-import type { Plan } from "../../src/io/planSchema.ts";
-import { parsePlan } from "../../src/io/planValidation.ts";
 import {
   AUTO_CELL_SIZES_M,
   checkPlanForRun,
@@ -17,27 +13,7 @@ import {
   siteGridFrame,
   utmZoneOf,
 } from "../../src/io/siteGrid.ts";
-
-const v1Text = readFileSync(join(import.meta.dirname, "../fixtures/planFormat/example-plan.v1.json"), "utf8");
-
-function plan(edit?: (p: Plan) => void): Plan {
-  const r = parsePlan(JSON.parse(v1Text));
-  if (!r.ok) throw new Error(JSON.stringify(r.errors));
-  edit?.(r.plan);
-  return r.plan;
-}
-
-/** A square protected area of half-side `halfDeg` around (lon, lat). */
-function squareAround(lon: number, lat: number, halfDeg: number): Plan["protectedAreas"][number] {
-  const ring = [
-    [lon - halfDeg, lat - halfDeg],
-    [lon + halfDeg, lat - halfDeg],
-    [lon + halfDeg, lat + halfDeg],
-    [lon - halfDeg, lat + halfDeg],
-    [lon - halfDeg, lat - halfDeg],
-  ];
-  return { id: "sq", name: "Square", geometry: { type: "Polygon", coordinates: [ring] } };
-}
+import { examplePlan as plan, squareAround } from "./siteGridFixtures.ts";
 
 describe("site grid", () => {
   it("[SG1] UTM zones: regular zones, zone edges, hemispheres, Norway and Svalbard exceptions", () => {
