@@ -8,7 +8,14 @@
 import proj4 from "proj4";
 import { MAX_DEM_HEADER_SIDE_CELLS, MAX_DEM_WINDOW_CELLS } from "../coverage/constants.ts";
 import type { GridFrame } from "../coverage/grid.ts";
-import { type DemResult, demResultFromSource, isGeographicCrs, type SourceRaster } from "./demResample.ts";
+import {
+  type DemResult,
+  demResultFromSource,
+  importedSourceMeta,
+  isGeographicCrs,
+  type SourceRaster,
+  type SurfaceKind,
+} from "./demResample.ts";
 import { ImportError } from "./importErrors.ts";
 
 const HEADER_KEYS = new Set([
@@ -28,7 +35,7 @@ const HEADER_KEYS = new Set([
 export interface AscDemOptions {
   /** The file name shown in messages (default "DEM ASCII grid"). */
   fileName?: string;
-  surfaceKind?: "dtm" | "dsm" | "unknown";
+  surfaceKind?: SurfaceKind;
 }
 
 function isSpace(code: number): boolean {
@@ -176,7 +183,7 @@ export function readAscDem(
     source,
     frame,
     file,
-    { kind: "asc", crs, surfaceKind: options.surfaceKind ?? "unknown" },
+    importedSourceMeta("asc", crs, options.surfaceKind),
     warnings,
   );
 }

@@ -19,8 +19,10 @@ import {
   type DemResult,
   demResultFromSource,
   frameBoundsInCrs,
+  importedSourceMeta,
   isGeographicCrs,
   type SourceRaster,
+  type SurfaceKind,
 } from "./demResample.ts";
 import { ImportError } from "./importErrors.ts";
 
@@ -31,7 +33,7 @@ export interface GeoTiffDemOptions {
   /** The CRS as a proj4 string or WKT, overriding (or supplying) the file's GeoKeys. */
   crs?: string;
   /** Bare earth or surface model, if the user knows. */
-  surfaceKind?: "dtm" | "dsm" | "unknown";
+  surfaceKind?: SurfaceKind;
 }
 
 // GeoTIFF 1.1 (OGC 19-008r4) key values used below.
@@ -433,7 +435,7 @@ export async function readGeoTiffDem(
     source,
     frame,
     file,
-    { kind: "geotiff", crs, surfaceKind: options.surfaceKind ?? "unknown" },
+    importedSourceMeta("geotiff", crs, options.surfaceKind),
     warnings,
   );
 }

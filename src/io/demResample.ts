@@ -203,6 +203,9 @@ export function frameBoundsInCrs(
   return { minX, minY, maxX, maxY };
 }
 
+/** What a DEM holds: bare earth (DTM), the top surface with buildings and canopy (DSM), or not known. */
+export type SurfaceKind = "dtm" | "dsm" | "unknown";
+
 /** What a DEM import hands to the engine: ground on the site grid, warnings to show, and provenance. */
 export interface DemResult {
   /** Ground elevation on the site grid, m; NaN where the DEM has no data or does not reach. */
@@ -214,7 +217,7 @@ export interface DemResult {
     /** The source CRS as given to proj4 (or the site grid's for flat ground). */
     crs: string;
     /** Bare earth (DTM) or surface (DSM), when known. */
-    surfaceKind?: "dtm" | "dsm" | "unknown";
+    surfaceKind?: SurfaceKind;
   };
 }
 
@@ -243,4 +246,13 @@ export function demResultFromSource(
     );
   }
   return { ground: grid, warnings, source: meta };
+}
+
+/** Source description of a DEM file the user imported: the surface kind they gave, else "unknown". */
+export function importedSourceMeta(
+  kind: "asc" | "geotiff",
+  crs: string,
+  surfaceKind: SurfaceKind | undefined,
+): DemResult["source"] {
+  return { kind, crs, surfaceKind: surfaceKind ?? "unknown" };
 }
