@@ -278,6 +278,7 @@ function writeCells(
         const m = m0 + b;
         const oi = rowBase + m * majorStride;
         if (checkRange && m * m + q * q > maxRange2) continue;
+        // Same sampling as the major-axis branch below; change both.
         const zc = z[oi];
         const nan = zc - zc;
         const u = q * rpm[b] + span;
@@ -313,6 +314,7 @@ function writeCells(
       const r = rpm[b];
       for (let q = lo; q <= hi; q++) {
         const oi = lineBase + q;
+        // Same sampling as the minor-axis branch above; change both.
         const zc = z[oi];
         const nan = zc - zc;
         const u = q * r + span;

@@ -290,6 +290,7 @@ function sweepRow(
   const ts = TS;
 
   // Observer's column: straight out along the column.
+  // Same as the observer's column in sweepRowPair, which sweeps two rows at once; change both.
   {
     const idx = base + oc;
     const zc = z[idx];
@@ -316,6 +317,7 @@ function sweepRow(
     const steepEnd = Math.min(ady - 1, reach);
     const nearEnd = Math.min(halfSteep - 1, steepEnd);
     // Nearer neighbour: the same column of the previous row.
+    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
     for (let adx = 1; adx <= nearEnd; adx++) {
       idx += dir;
       cb += dir2;
@@ -340,6 +342,7 @@ function sweepRow(
       lastPrevOd = lastOdC;
     }
     // Nearer neighbour: the previous column of the previous row.
+    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
     for (let adx = nearEnd + 1; adx <= steepEnd; adx++) {
       idx += dir;
       cb += dir2;
@@ -365,6 +368,7 @@ function sweepRow(
     }
     if (reach < ady) continue;
     // Diagonal: straight through the previous diagonal cell.
+    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
     let prevH: number;
     let prevOd: number;
     {
@@ -393,6 +397,7 @@ function sweepRow(
     // Shallow part, |dx| > |dy|: the sight line crosses column |dx|−1 between rows |dy|−1 and |dy|.
     const farStart = Math.min(2 * ady, reach); // 2|dy| < |dx| beyond
     // Nearer neighbour: the previous column of the previous row.
+    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
     for (let adx = ady + 1; adx <= farStart; adx++) {
       idx += dir;
       cb += dir2;
@@ -419,6 +424,7 @@ function sweepRow(
       lastPrevOd = lastOdC;
     }
     // Nearer neighbour: the previous column of this row.
+    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
     for (let adx = farStart + 1; adx <= reach; adx++) {
       idx += dir;
       cb += dir2;
@@ -480,6 +486,7 @@ function sweepRowPair(
   const ts = TS;
 
   // Observer's column: straight out along the column.
+  // Same as sweepRow's observer's column, for the north and south rows; change both.
   {
     const axis = ady * inv[ady - 1];
     const level = t[tLevel];
@@ -520,6 +527,7 @@ function sweepRowPair(
     const steepEnd = Math.min(ady - 1, reach);
     const nearEnd = Math.min(halfSteep - 1, steepEnd);
     // Steep part, nearer neighbour the same column of the previous row.
+    // Same as sweepRow's steep part, same-column neighbour, for the north and south rows; change both.
     for (let adx = 1; adx <= nearEnd; adx++) {
       c += dir;
       cb += dir2;
@@ -566,6 +574,7 @@ function sweepRowPair(
       lpOS = loS;
     }
     // Steep part, nearer neighbour the previous column of the previous row.
+    // Same as sweepRow's steep part, previous-column neighbour, for the north and south rows; change both.
     for (let adx = nearEnd + 1; adx <= steepEnd; adx++) {
       c += dir;
       cb += dir2;
@@ -613,6 +622,7 @@ function sweepRowPair(
     }
     if (reach < ady) continue;
     // Diagonal: straight through the previous diagonal cell.
+    // Same as sweepRow's diagonal, for the north and south rows; change both.
     let pHN: number;
     let pON: number;
     let pHS: number;
@@ -662,6 +672,7 @@ function sweepRowPair(
     }
     const farStart = Math.min(2 * ady, reach); // 2|dy| < |dx| beyond
     // Shallow part, nearer neighbour the previous column of the previous row.
+    // Same as sweepRow's shallow part, previous-row neighbour, for the north and south rows; change both.
     for (let adx = ady + 1; adx <= farStart; adx++) {
       c += dir;
       cb += dir2;
@@ -712,6 +723,7 @@ function sweepRowPair(
       lpOS = loS;
     }
     // Shallow part, nearer neighbour the previous column of this row.
+    // Same as sweepRow's shallow part, same-row neighbour, for the north and south rows; change both.
     for (let adx = farStart + 1; adx <= reach; adx++) {
       c += dir;
       cb += dir2;

@@ -315,6 +315,7 @@ export function lowestVisibleHeightAglM(
   // Floats made here: an imported constant or a Number.* property would be unboxed on every iteration.
   const tol = VISIBILITY_TOLERANCE_M * 1;
   const NEG = -Infinity;
+  // Same row walk as visibleMask and obstructionClearanceM; change all three.
   for (let r = 0; r < h.height; r++) {
     const dy = r - h.observerRow;
     fillRowGeometry(geo, dy * dy, cell, antenna, curv);
@@ -387,6 +388,7 @@ export function visibleMask(
   const geo = rowGeometry(h);
   const distM = geo.distM;
   const levelM = geo.levelM;
+  // Same row walk as lowestVisibleHeightAglM and obstructionClearanceM; change all three.
   for (let r = 0; r < h.height; r++) {
     const dy = r - h.observerRow;
     fillRowGeometry(geo, dy * dy, cell, antenna, curv);
@@ -431,6 +433,7 @@ export function obstructionClearanceM(
   const geo = rowGeometry(h);
   const distM = geo.distM;
   const NEG = -Infinity;
+  // Same row walk as lowestVisibleHeightAglM and visibleMask; change all three.
   for (let r = 0; r < h.height; r++) {
     const dy = r - h.observerRow;
     fillRowGeometry(geo, dy * dy, cell, antenna, curv);
