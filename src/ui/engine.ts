@@ -1,8 +1,10 @@
 /**
  * The planner's link to the coverage workers: one pool for the page (module workers sized to the
  * machine; size 0 inline when workers are unavailable or `?workers=0` is in the address, which tests use).
- * Evaluations run on worker 0 (its per-radar cache makes a moved post cost one radar), inspections on
- * the last worker, so an inspection never waits behind a run.
+ * Accurate evaluations run on worker 0 (its per-radar cache makes a moved post cost one radar), drag
+ * previews on worker 1 (its own cache of coarse, fast-masked radars, so previews never evict the
+ * accurate radars and a release never waits behind a running preview), inspections on the last worker,
+ * so an inspection never waits behind a run.
  */
 import type { Plan } from "../io/planSchema";
 import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
@@ -72,6 +74,7 @@ function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView
 }
 
 const EVAL_SLOT = 0;
+const PREVIEW_SLOT = 1;
 const POINT_SLOT = -1;
 let generation = 0;
 
@@ -102,7 +105,12 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   };
   useCoverage.getState().set({ running: true, generation: g });
   try {
-    const view = withTerrain(await p.run("evaluate", g, "evaluate", [req], { slot: EVAL_SLOT }), kind);
+    const view = withTerrain(
+      await p.run("evaluate", g, "evaluate", [req], {
+        slot: options.preview && p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT,
+      }),
+      kind,
+    );
     if (options.preview) useCoverage.getState().set({ preview: view, running: false, problem: null });
     else useCoverage.getState().set({ view, preview: null, running: false, problem: null });
   } catch (e) {

@@ -95,6 +95,17 @@ function cacheEntriesFor(site: PreparedSite): number {
 
 export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | null } {
   let cache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
+  /**
+   * Drag previews (fast masking, often a coarser grid) keep their own cache: every drag step stores a
+   * new entry for the moved radar, which would otherwise push the accurate radars out and make the
+   * release recompute all of them.
+   */
+  let fastCache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
+  const fastCacheFor = (site: PreparedSite): RadarResultCache<RadarCoverage> => {
+    const entries = cacheEntriesFor(site);
+    if (entries !== fastCache.maxEntries) fastCache = new RadarResultCache<RadarCoverage>(entries);
+    return fastCache;
+  };
   /** The full-resolution site of the last run, and the coarse one of the last preview of a large site. */
   let prepared: PreparedSlot | null = null;
   let coarse: PreparedSlot | null = null;
@@ -162,7 +173,10 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       const t0 = now();
       const full = await prepare(req.plan, req.dem, req.maskMode);
       const site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
-      const result = await evaluateSite(site, { cache, mode: site.maskMode });
+      const result = await evaluateSite(site, {
+        cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
+        mode: site.maskMode,
+      });
       const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
       if (site.frame.cellSizeM !== prepared?.site.frame.cellSizeM) {
         notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);

@@ -75,6 +75,8 @@ export interface CoverageView {
   /** Plain statements about the run (flat ground, clipped DEM, …). */
   notes: string[];
   elapsedMs: number;
+  /** Post ids of the radars this run computed (the others came from the worker's per-radar cache). */
+  computedRadarIds?: string[];
 }
 
 export interface PointRequest {

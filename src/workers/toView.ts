@@ -51,6 +51,7 @@ export function toCoverageView(site: PreparedSite, result: SiteResult, o: ViewOp
     maskMode: site.maskMode,
     notes: o.notes,
     elapsedMs: o.elapsedMs,
+    computedRadarIds: [...result.computedRadarIds],
   };
 }
 
