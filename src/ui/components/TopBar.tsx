@@ -10,6 +10,21 @@ import { say } from "../session";
 import { redo, undo, useHistory, usePlanStore } from "../store";
 import { ImportButton } from "./ImportButton";
 
+/** A top-bar action that is greyed out while it cannot apply. */
+function BarButton(p: {
+  label: string;
+  enabled: boolean;
+  onClick: () => void;
+  title?: string;
+  testId: string;
+}) {
+  return (
+    <button type="button" disabled={!p.enabled} onClick={p.onClick} title={p.title} data-testid={p.testId}>
+      {p.label}
+    </button>
+  );
+}
+
 export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, number] }) {
   const plan = usePlanStore((s) => s.plan);
   const canUndo = useHistory((s) => s.pastStates.length > 0);
@@ -57,22 +72,18 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
         <button type="button" onClick={() => void openPlanFromPicker()} data-testid="open-plan">
           Open…
         </button>
-        <button
-          type="button"
-          disabled={!plan}
+        <BarButton
+          label="Save plan"
+          enabled={!!plan}
           onClick={() => plan && void savePlanToFile(plan)}
-          data-testid="save-plan"
-        >
-          Save plan
-        </button>
-        <button
-          type="button"
-          disabled={!plan}
+          testId="save-plan"
+        />
+        <BarButton
+          label="Save with DEM"
+          enabled={!!plan}
           onClick={() => plan && void saveBundleToFile(plan, useAssets.getState().dem)}
-          data-testid="save-bundle"
-        >
-          Save with DEM
-        </button>
+          testId="save-bundle"
+        />
         <select
           aria-label="Recent plans"
           value=""
@@ -88,24 +99,20 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
         </select>
         <ImportButton />
         <span className="sep" />
-        <button
-          type="button"
-          disabled={!canUndo}
+        <BarButton
+          label="Undo"
+          enabled={canUndo}
           onClick={() => undo()}
           title="Undo (Ctrl+Z)"
-          data-testid="undo"
-        >
-          Undo
-        </button>
-        <button
-          type="button"
-          disabled={!canRedo}
+          testId="undo"
+        />
+        <BarButton
+          label="Redo"
+          enabled={canRedo}
           onClick={() => redo()}
           title="Redo (Ctrl+Shift+Z)"
-          data-testid="redo"
-        >
-          Redo
-        </button>
+          testId="redo"
+        />
       </nav>
       <div className="run-status" role="status" data-testid="run-status">
         {running

@@ -4,6 +4,7 @@
  */
 import { lazy, Suspense } from "react";
 import type { PointRadar } from "../../workers/protocol";
+import { ColumnHeads } from "../components/ColumnHeads";
 import { useCoverage } from "../coverageState";
 import { radarsByPd } from "../selection";
 import { useSession } from "../session";
@@ -40,13 +41,7 @@ function RadarRows({ r }: { r: PointRadar }) {
       </dl>
       <table className="budget" data-testid="link-budget">
         <caption>Link budget</caption>
-        <thead>
-          <tr>
-            <th scope="col">Term</th>
-            <th scope="col">Value</th>
-            <th scope="col">Adds to SNR</th>
-          </tr>
-        </thead>
+        <ColumnHeads names={["Term", "Value", "Adds to SNR"]} />
         <tbody>
           {r.budget.map((b) => (
             <tr key={b.label} className={b.kind === "result" ? "result" : undefined}>

@@ -11,6 +11,9 @@ function PostEditor({ post }: { post: Post }) {
   const setSession = useSession((s) => s.set);
   if (!plan) return null;
   const edit = (patch: Partial<Post>, label: string) => change((p) => updatePost(p, post.id, patch), label);
+  const editSector = (patch: Partial<NonNullable<Post["scanSector"]>>) => {
+    if (post.scanSector) edit({ scanSector: { ...post.scanSector, ...patch } }, "sector");
+  };
   const models = plan.radarModels.map((m) => ({ value: m.id, label: m.name }));
   const inline = post.radarModel
     ? [{ value: "__inline", label: `${post.radarModel.name} (this post only)` }]
@@ -87,12 +90,7 @@ function PostEditor({ post }: { post: Post }) {
             min={0}
             max={359.99}
             value={post.scanSector.centreAzDeg}
-            onCommit={(v) =>
-              edit(
-                { scanSector: { ...(post.scanSector as NonNullable<Post["scanSector"]>), centreAzDeg: v } },
-                "sector",
-              )
-            }
+            onCommit={(centreAzDeg) => editSector({ centreAzDeg })}
           />
           <NumberField
             label="Sector width"
@@ -100,12 +98,7 @@ function PostEditor({ post }: { post: Post }) {
             min={1}
             max={360}
             value={post.scanSector.widthDeg}
-            onCommit={(v) =>
-              edit(
-                { scanSector: { ...(post.scanSector as NonNullable<Post["scanSector"]>), widthDeg: v } },
-                "sector",
-              )
-            }
+            onCommit={(widthDeg) => editSector({ widthDeg })}
           />
         </>
       )}

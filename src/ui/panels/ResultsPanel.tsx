@@ -15,6 +15,18 @@ const LAYERS: { value: LayerKind; label: string }[] = [
   { value: "lowest", label: "Lowest visible height" },
 ];
 
+/** Overlays switched on and off beside the map layer. */
+const OVERLAYS: {
+  key: "showGaps" | "showSectors" | "showExposure" | "showBuildings";
+  label: string;
+  testId?: string;
+}[] = [
+  { key: "showGaps", label: "Gaps", testId: "show-gaps" },
+  { key: "showSectors", label: "Sectors and max range" },
+  { key: "showExposure", label: "RF-exposure distance", testId: "show-exposure" },
+  { key: "showBuildings", label: "Buildings and trees" },
+];
+
 export function ResultsPanel() {
   const plan = usePlanStore((s) => s.plan);
   const view = useCoverage(shownView);
@@ -78,28 +90,15 @@ export function ResultsPanel() {
         </div>
       </div>
       <div className="check-row">
-        <CheckField
-          label="Gaps"
-          checked={s.showGaps}
-          onChange={(v) => s.set({ showGaps: v })}
-          testId="show-gaps"
-        />
-        <CheckField
-          label="Sectors and max range"
-          checked={s.showSectors}
-          onChange={(v) => s.set({ showSectors: v })}
-        />
-        <CheckField
-          label="RF-exposure distance"
-          checked={s.showExposure}
-          onChange={(v) => s.set({ showExposure: v })}
-          testId="show-exposure"
-        />
-        <CheckField
-          label="Buildings and trees"
-          checked={s.showBuildings}
-          onChange={(v) => s.set({ showBuildings: v })}
-        />
+        {OVERLAYS.map((o) => (
+          <CheckField
+            key={o.key}
+            label={o.label}
+            checked={s[o.key]}
+            onChange={(v) => s.set({ [o.key]: v })}
+            testId={o.testId}
+          />
+        ))}
       </div>
       <Legend
         kind={s.layer}

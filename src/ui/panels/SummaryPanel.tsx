@@ -4,6 +4,7 @@
  */
 import { formatAreaM2 } from "../../map/gapOutlines";
 import type { CoverageSlice } from "../../workers/protocol";
+import { ColumnHeads } from "../components/ColumnHeads";
 import { shownView, useCoverage } from "../coverageState";
 import { selectedSlice } from "../selection";
 import { useSession } from "../session";
@@ -57,15 +58,9 @@ export function SummaryPanel() {
     >
       <h3>Summary — {plan.targetClasses.find((t) => t.id === slice.classId)?.name}</h3>
       <table className="summary-table">
-        <thead>
-          <tr>
-            <th scope="col">Height</th>
-            <th scope="col">Protected area covered</th>
-            <th scope="col">Approach ring covered</th>
-            <th scope="col">Gaps</th>
-            <th scope="col">Gap area</th>
-          </tr>
-        </thead>
+        <ColumnHeads
+          names={["Height", "Protected area covered", "Approach ring covered", "Gaps", "Gap area"]}
+        />
         <tbody>
           {ofClass.map((s) => (
             <tr
@@ -99,13 +94,7 @@ export function SummaryPanel() {
       <OverlapBars slice={slice} />
       <table className="summary-table" data-testid="per-radar">
         <caption>Per radar at {slice.heightM} m AGL</caption>
-        <thead>
-          <tr>
-            <th scope="col">Post</th>
-            <th scope="col">Covers</th>
-            <th scope="col">Only this one</th>
-          </tr>
-        </thead>
+        <ColumnHeads names={["Post", "Covers", "Only this one"]} />
         <tbody>
           {slice.metrics.perRadar.map((r) => (
             <tr key={r.radarId}>
