@@ -509,6 +509,32 @@ export function radarCoverageFromHorizon(
   const u32 = new Uint32Array(f32.buffer);
   const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS;
   const mantMask = (1 << LOG_MANTISSA_BITS) - 1;
+  // Module-level constants copied to locals: V8 reloads module bindings inside the loop otherwise.
+  const log2Mantissa = LOG2_MANTISSA;
+  const dbPerLog2 = DB_PER_LOG2;
+  const vMin = V_MIN;
+  const expBias = F32_EXPONENT_BIAS;
+  const expShift = F32_MANTISSA_BITS;
+  const infBits = F32_POSITIVE_INFINITY_BITS;
+  const rCovered = Reason.covered;
+  const rMasked = Reason.masked;
+  const rOutOfRange = Reason.outOfRange;
+  const rBlindZone = Reason.blindZone;
+  const rOutOfSector = Reason.outOfSector;
+  const rTooWeak = Reason.tooWeak;
+  const rInside = Reason.insideObstruction;
+  const rNodata = Reason.nodata;
+  // The first class's table fields (the only one in most plans), for the one-class path of the loop.
+  const rcs0 = nt > 0 ? rcs[0] : 0;
+  const lo0 = nt > 0 ? tBitsLow[0] : 0;
+  const hi0 = nt > 0 ? tBitsHigh[0] : 0;
+  const shift0 = nt > 0 ? tShift[0] : 0;
+  const fracMask0 = nt > 0 ? tFracMask[0] : 0;
+  const fracScale0 = nt > 0 ? tFracScale[0] : 0;
+  const pfa0 = nt > 0 ? tPfa[0] : 0;
+  const lowSlope0 = nt > 0 ? tLowSlope[0] : 0;
+  const pdHigh0 = nt > 0 ? tPdHigh[0] : 0;
+  const vals0 = nt > 0 ? tValues[0] : new Float32Array(2);
 
   const spanCells = Number.isFinite(maxR) ? Math.ceil(maxR / cellM) + 1 : Math.max(w, hgt);
   const r0 = Math.max(0, orow - spanCells);
@@ -545,7 +571,7 @@ export function radarCoverageFromHorizon(
       if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
         // No ground: nodata. Ground but no horizon: beyond the sweep's range limit (its own distance
         // test at the edge), so out of range like the cells beyond maxR.
-        const code = Number.isNaN(g) ? Reason.nodata : Reason.outOfRange;
+        const code = Number.isNaN(g) ? rNodata : rOutOfRange;
         lowest[i] = Number.NaN;
         for (let k = 0; k < nh; k++) snrOut[k][i] = Number.NaN;
         for (let q = 0; q < nq; q++) {
@@ -585,10 +611,10 @@ export function radarCoverageFromHorizon(
         const dh = base + h;
         const R2 = d2 + dh * dh;
         let code = -1;
-        if (top > h) code = Reason.insideObstruction;
-        else if (R2 < minR2 || R2 === 0) code = Reason.blindZone;
-        else if (R2 > maxR2) code = Reason.outOfRange;
-        else if (aTx < 0) code = Reason.outOfSector;
+        if (top > h) code = rInside;
+        else if (R2 < minR2 || R2 === 0) code = rBlindZone;
+        else if (R2 > maxR2) code = rOutOfRange;
+        else if (aTx < 0) code = rOutOfSector;
         if (code >= 0) {
           snrOut[k][i] = Number.NaN;
           for (let t = 0; t < nt; t++) {
@@ -604,7 +630,7 @@ export function radarCoverageFromHorizon(
           snrOut[k][i] = Number.NaN;
           for (let t = 0; t < nt; t++) {
             pdOut[q0 + t][i] = 0;
-            reasonOut[q0 + t][i] = Reason.outOfSector;
+            reasonOut[q0 + t][i] = rOutOfSector;
           }
           continue;
         }
@@ -614,8 +640,8 @@ export function radarCoverageFromHorizon(
         if (gr < floorRx) gr = floorRx;
         const v = va - vb * dh;
         let f4 = 1;
-        if (v > V_MIN) {
-          const b = ((v - V_MIN) * vScale + 0.5) | 0;
+        if (v > vMin) {
+          const b = ((v - vMin) * vScale + 0.5) | 0;
           f4 = knifeEdgeF4[Math.min(b, vLast)];
         }
         const invR2 = invR * invR;
@@ -624,12 +650,27 @@ export function radarCoverageFromHorizon(
         const bits = u32[0];
         snrOut[k][i] =
           snr > 0
-            ? DB_PER_LOG2 *
-              ((bits >>> F32_MANTISSA_BITS) -
-                F32_EXPONENT_BIAS +
-                LOG2_MANTISSA[(bits >>> mantShift) & mantMask])
+            ? dbPerLog2 * ((bits >>> expShift) - expBias + log2Mantissa[(bits >>> mantShift) & mantMask])
             : Number.NEGATIVE_INFINITY;
-        const weakCode = inSectorAz === 0 ? Reason.outOfSector : v > 0 ? Reason.masked : Reason.tooWeak;
+        const weakCode = inSectorAz === 0 ? rOutOfSector : v > 0 ? rMasked : rTooWeak;
+        if (nt === 1) {
+          // One class (the common case): its table fields in locals, no per-class array loads.
+          f32[0] = snr * rcs0;
+          const u = u32[0];
+          let pd: number;
+          if (u >= lo0 && u < hi0) {
+            const du = u - lo0;
+            const jj = du >>> shift0;
+            const a = vals0[jj];
+            pd = a + (du & fracMask0) * fracScale0 * (vals0[jj + 1] - a);
+          } else if (u < lo0) {
+            const f = f32[0];
+            pd = f > 0 ? pfa0 + f * lowSlope0 : 0;
+          } else pd = u <= infBits ? pdHigh0 : 0;
+          pdOut[q0][i] = pd;
+          reasonOut[q0][i] = pd >= requiredPd ? rCovered : weakCode;
+          continue;
+        }
         for (let t = 0; t < nt; t++) {
           // Inline pdTable lookup (pdTable.ts pdFromSnr): Float32 bits → bin and fraction.
           f32[0] = snr * rcs[t];
@@ -645,9 +686,9 @@ export function radarCoverageFromHorizon(
           } else if (u < lo) {
             const f = f32[0];
             pd = f > 0 ? tPfa[t] + f * tLowSlope[t] : 0;
-          } else pd = u <= F32_POSITIVE_INFINITY_BITS ? tPdHigh[t] : 0;
+          } else pd = u <= infBits ? tPdHigh[t] : 0;
           pdOut[q0 + t][i] = pd;
-          reasonOut[q0 + t][i] = pd >= requiredPd ? Reason.covered : weakCode;
+          reasonOut[q0 + t][i] = pd >= requiredPd ? rCovered : weakCode;
         }
       }
     }
