@@ -87,32 +87,58 @@ function errorText(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
-/** Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. */
+/**
+ * Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. An accurate
+ * run with a shown slice goes in two steps: every radar and the shown class and height first (that
+ * view is drawn at once), then the other slices from the worker's cache; the run stays "running"
+ * until the second step lands, so the summary of the other heights is marked as updating meanwhile.
+ */
 export async function runEvaluation(options: { preview?: boolean; plan?: Plan } = {}): Promise<void> {
   const plan = options.plan ?? usePlanStore.getState().plan;
   if (!plan) return;
   const g = ++generation;
   const p = await getPool();
   const kind = options.preview ? "preview" : "full";
+  const focus = focusOf();
   const req: EvaluateRequest = {
     generation: g,
     plan,
     dem: demPayload(),
     ...(options.preview ? { maskMode: "fast" as const } : {}),
     perRadarPostId: singleRadarShown(),
-    ...focusOf(),
+    ...focus,
+    ...(!options.preview && focus.focus ? { sliceFirst: true } : {}),
     ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
   };
   useCoverage.getState().set({ running: true, generation: g });
   try {
-    const view = withTerrain(
-      await p.run("evaluate", g, "evaluate", [req], {
-        slot: options.preview && p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT,
-      }),
-      kind,
-    );
-    if (options.preview) useCoverage.getState().set({ preview: view, running: false, problem: null });
-    else useCoverage.getState().set({ view, preview: null, running: false, problem: null });
+    const slot = options.preview && p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT;
+    const view = withTerrain(await p.run("evaluate", g, "evaluate", [req], { slot }), kind);
+    if (options.preview) {
+      useCoverage.getState().set({ preview: view, running: false, problem: null });
+      return;
+    }
+    if (!view.partial) {
+      useCoverage.getState().set({ view, preview: null, running: false, problem: null });
+      return;
+    }
+    // The shown slice is on screen; the other slices follow (a newer edit makes this step stale).
+    const g2 = ++generation;
+    useCoverage.getState().set({ view, preview: null, problem: null, running: true, generation: g2 });
+    const rest: EvaluateRequest = {
+      ...req,
+      generation: g2,
+      sliceFirst: false,
+      haveTerrainKey: view.terrainKey,
+    };
+    const all = withTerrain(await p.run("evaluate", g2, "evaluate", [rest], { slot }), kind);
+    // The run's time in the worker is both steps.
+    useCoverage.getState().set({
+      view: { ...all, elapsedMs: view.elapsedMs + all.elapsedMs },
+      preview: null,
+      running: false,
+      problem: null,
+    });
   } catch (e) {
     if (isStale(e)) return;
     useCoverage.getState().set({ running: false, problem: errorText(e) });

@@ -4,7 +4,15 @@
  * (src/coverage/evaluate.ts) with a per-radar cache, so moving one post recomputes one radar.
  */
 import type { PlacedRadar, RadarCoverage } from "../coverage/coverage";
-import { evaluatePoint, evaluateSite, type PreparedSite, siteTerrainId } from "../coverage/evaluate";
+import {
+  computeRadarCoverage,
+  evaluatePoint,
+  evaluateSite,
+  type PreparedSite,
+  radarKey,
+  type SiteResult,
+  siteTerrainId,
+} from "../coverage/evaluate";
 import { linkBudget } from "../coverage/linkBudget";
 import { RadarResultCache } from "../coverage/radarCache";
 import type { Plan } from "../io/planSchema";
@@ -51,6 +59,24 @@ function focusSite(site: PreparedSite, focus: { classId: string; heightM: number
       ...site.requirement,
       targetIds: site.requirement.targetIds.filter((id) => id === focus.classId),
     },
+  };
+}
+
+/**
+ * One radar's result of the full site seen as a result of `focused` (one class at one height): the
+ * same arrays, picked out, nothing copied.
+ */
+function narrowRadar(r: RadarCoverage, full: PreparedSite, focused: PreparedSite): RadarCoverage {
+  const h = focused.heightsAglM[0];
+  const classId = focused.targets[0].id;
+  const k = full.heightsAglM.indexOf(h);
+  const t = full.targets.findIndex((x) => x.id === classId);
+  const height = r.heights[k];
+  return {
+    ...r,
+    heightsAglM: [h],
+    targetIds: [classId],
+    heights: [{ ...height, targets: [height.targets[t]] }],
   };
 }
 
@@ -172,11 +198,43 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     async evaluate(req: EvaluateRequest): Promise<CoverageView> {
       const t0 = now();
       const full = await prepare(req.plan, req.dem, req.maskMode);
-      const site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
-      const result = await evaluateSite(site, {
-        cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
-        mode: site.maskMode,
-      });
+      let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
+      let result: SiteResult;
+      const focused =
+        req.sliceFirst && req.focus && site.maskMode !== "fast" ? focusSite(full, req.focus) : full;
+      if (focused !== full) {
+        // The shown slice first: every radar of the full site (cached under the full site's keys, so
+        // the run of the other slices that follows takes them all from the cache), fused for one slice.
+        const mode = full.maskMode;
+        const terrainId = siteTerrainId(full);
+        const computed: string[] = [];
+        const accurate = cache;
+        result = await evaluateSite(focused, {
+          mode,
+          runRadar: async (_s, i) => {
+            const key = radarKey(full, i, mode, terrainId);
+            let r = accurate.get(key);
+            if (r === undefined) {
+              r = computeRadarCoverage(full, i, mode);
+              accurate.computed++;
+              accurate.set(key, r);
+              computed.push(full.radars[i].id);
+            } else accurate.hits++;
+            return narrowRadar(r, full, focused);
+          },
+        });
+        result = {
+          ...result,
+          computedRadarIds: computed,
+          cachedRadarIds: full.radars.map((r) => r.id).filter((id) => !computed.includes(id)),
+        };
+        site = focused;
+      } else {
+        result = await evaluateSite(site, {
+          cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
+          mode: site.maskMode,
+        });
+      }
       const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
       if (site.frame.cellSizeM !== prepared?.site.frame.cellSizeM) {
         notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
@@ -194,6 +252,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           perRadarPostId: req.perRadarPostId ?? null,
         }),
       );
+      if (site !== full && site.maskMode !== "fast") view.partial = true;
       if (site.maskMode !== "fast" || !req.focus) {
         const focused = view.slices.find(
           (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,

@@ -26,6 +26,12 @@ export interface EvaluateRequest {
   /** The terrainKey whose ground arrays the caller holds; they are not sent again. */
   haveTerrainKey?: string;
   /**
+   * With a focus on an accurate run: compute every radar but fuse only the focused slice, and reply
+   * with that one slice (`partial` in the view); a run of the same plan without it then takes every
+   * radar from the cache and fuses the other slices.
+   */
+  sliceFirst?: boolean;
+  /**
    * The class and height shown on the map. A preview (maskMode "fast") computes only this slice; a full
    * run computes every slice and outlines the gaps of this one.
    */
@@ -77,6 +83,8 @@ export interface CoverageView {
   elapsedMs: number;
   /** Post ids of the radars this run computed (the others came from the worker's per-radar cache). */
   computedRadarIds?: string[];
+  /** Only the focused slice of an accurate run (`sliceFirst`); the full view follows. */
+  partial?: boolean;
 }
 
 export interface PointRequest {
