@@ -594,6 +594,27 @@ export function radarCoverageFromHorizon(
       const base = g - H - d2 * curv;
       // Lowest visible height (terrainMask.ts rule TM5): −base + σ·d, at least 0; 0 where nothing obstructs.
       lowest[i] = sigma === Number.NEGATIVE_INFINITY ? 0 : Math.max(0, sigma * d - base);
+      const top = obstructionTopAglM[i];
+      if (aTx < 0) {
+        // Outside the instrumented azimuths: only the reason differs by height (the codes that come
+        // before "out of sector"), with no gain or knife-edge work.
+        for (let k = 0; k < nh; k++) {
+          const h = heights[k];
+          const dh = base + h;
+          const R2 = d2 + dh * dh;
+          let code: number = rOutOfSector;
+          if (top > h) code = rInside;
+          else if (R2 < minR2 || R2 === 0) code = rBlindZone;
+          else if (R2 > maxR2) code = rOutOfRange;
+          snrOut[k][i] = Number.NaN;
+          const q0 = k * nt;
+          for (let t = 0; t < nt; t++) {
+            pdOut[q0 + t][i] = 0;
+            reasonOut[q0 + t][i] = code;
+          }
+        }
+        continue;
+      }
       // Knife edge: v = Kv·s·(σ − Δh/d), Kv = √((2/λ)(1/s + 1/(d − s))); so v = va − vb·Δh.
       let va = -1e30;
       let vb = 0;
@@ -604,7 +625,6 @@ export function radarCoverageFromHorizon(
         va = kv * s * sigma;
         vb = (kv * s) / d;
       }
-      const top = obstructionTopAglM[i];
       for (let k = 0; k < nh; k++) {
         const h = heights[k];
         const q0 = k * nt;
@@ -614,7 +634,6 @@ export function radarCoverageFromHorizon(
         if (top > h) code = rInside;
         else if (R2 < minR2 || R2 === 0) code = rBlindZone;
         else if (R2 > maxR2) code = rOutOfRange;
-        else if (aTx < 0) code = rOutOfSector;
         if (code >= 0) {
           snrOut[k][i] = Number.NaN;
           for (let t = 0; t < nt; t++) {
