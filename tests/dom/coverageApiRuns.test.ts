@@ -1,0 +1,88 @@
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { describe, expect, it } from "vitest";
+import type { Plan } from "../../src/io/planSchema";
+import { parsePlan } from "../../src/io/planValidation";
+import { siteGridFrame } from "../../src/io/siteGrid";
+import { createCoverageApi } from "../../src/workers/coverageApi";
+import type { CoverageView, EvaluateRequest } from "../../src/workers/protocol";
+
+const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
+
+function demoPlan(): Plan {
+  const r = parsePlan(JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")));
+  if (!r.ok) throw new Error("demo plan does not parse");
+  return r.plan;
+}
+
+function dem() {
+  const b = readFileSync(join(DEMO, "terrain.tif"));
+  return { fileName: "terrain.tif", bytes: b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) };
+}
+
+let generation = 0;
+function request(plan: Plan, extra: Partial<EvaluateRequest> = {}): EvaluateRequest {
+  return { generation: ++generation, plan, dem: dem(), perRadarPostId: null, ...extra };
+}
+
+/** The demo plan with its south gate post (a ground post inside the grid) moved by `k` small steps. */
+function moved(plan: Plan, k: number): { plan: Plan; postId: string } {
+  const i = plan.posts.findIndex((p) => p.id === "south-gate");
+  const m: Plan = structuredClone(plan);
+  m.posts[i].position.lonDeg += 0.00002 * k;
+  m.posts[i].position.latDeg -= 0.00001 * k;
+  return { plan: m, postId: m.posts[i].id };
+}
+
+function sliceOf(v: CoverageView, classId: string, heightM: number) {
+  const s = v.slices.find((x) => x.classId === classId && x.heightM === heightM);
+  if (!s) throw new Error(`no slice ${classId} at ${heightM} m`);
+  return s;
+}
+
+describe("coverage API runs", () => {
+  it("gives the shown slice first with the figures of the full run, then the other slices from the cache", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    const api = createCoverageApi();
+    const first = await api.evaluate(request(plan, { focus, sliceFirst: true }));
+    expect(first.partial).toBe(true);
+    expect(first.slices.map((s) => [s.classId, s.heightM])).toEqual([[focus.classId, focus.heightM]]);
+    const enabled = plan.posts.filter((p) => p.enabled).map((p) => p.id);
+    expect([...(first.computedRadarIds ?? [])].sort()).toEqual([...enabled].sort());
+    expect(sliceOf(first, focus.classId, focus.heightM).gapShapes).toBeDefined();
+
+    const rest = await api.evaluate(request(plan, { focus }));
+    expect(rest.partial).toBeUndefined();
+    expect(rest.computedRadarIds).toEqual([]);
+    const reference = await createCoverageApi().evaluate(request(plan, { focus }));
+    expect(rest.slices.length).toBe(reference.slices.length);
+    for (const s of reference.slices) {
+      const r = sliceOf(rest, s.classId, s.heightM);
+      expect(r.metrics).toEqual(s.metrics);
+      expect(Array.from(r.combinedPd)).toEqual(Array.from(s.combinedPd));
+    }
+    const shown = sliceOf(first, focus.classId, focus.heightM);
+    const same = sliceOf(reference, focus.classId, focus.heightM);
+    expect(shown.metrics).toEqual(same.metrics);
+    expect(Array.from(shown.combinedPd)).toEqual(Array.from(same.combinedPd));
+    expect(Array.from(shown.gap)).toEqual(Array.from(same.gap));
+    expect(Array.from(first.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
+  });
+
+  it("recomputes only the moved radar on release, however long the drag previews went on", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[0] };
+    const api = createCoverageApi();
+    await api.evaluate(request(plan));
+    // More preview steps than the per-radar cache holds entries: each stores one for the moved radar.
+    const steps = 70;
+    for (let k = 1; k <= steps; k++)
+      await api.evaluate(request(moved(plan, k).plan, { maskMode: "fast", focus }));
+    const end = moved(plan, steps);
+    // The grid frame (bounded by the posts) stays the same, so the other radars' keys are unchanged.
+    expect(siteGridFrame(end.plan).frame).toEqual(siteGridFrame(plan).frame);
+    const release = await api.evaluate(request(end.plan));
+    expect(release.computedRadarIds).toEqual([end.postId]);
+  });
+});
