@@ -417,6 +417,318 @@ function fillOutside(
 }
 
 /**
+ * Everything one row of the radar stage reads: the per-radar constants and tables, the inputs and
+ * the outputs (radarCoverageFromHorizon builds it once per call; stageRow reads it once per row).
+ */
+interface StageRowContext {
+  w: number;
+  cellM: number;
+  oc: number;
+  orow: number;
+  c0: number;
+  c1: number;
+  maxR: number;
+  nh: number;
+  nq: number;
+  nt: number;
+  H: number;
+  curv: number;
+  twoOverLambda: number;
+  minR2: number;
+  maxR2: number;
+  elScale: number;
+  floorTx: number;
+  floorRx: number;
+  vScale: number;
+  vLast: number;
+  C: number;
+  gasScale: number;
+  mantShift: number;
+  mantMask: number;
+  requiredPd: number;
+  rcs0: number;
+  lo0: number;
+  hi0: number;
+  shift0: number;
+  fracMask0: number;
+  fracScale0: number;
+  pfa0: number;
+  lowSlope0: number;
+  pdHigh0: number;
+  ground: Float32Array;
+  hs: Float32Array;
+  od: Float32Array;
+  obstructionTopAglM: Float32Array;
+  lowest: Float32Array;
+  snrOut: Float32Array[];
+  pdOut: Float32Array[];
+  reasonOut: Uint8Array[];
+  heights: Float64Array;
+  rotating: boolean;
+  azTx: Float32Array;
+  azRx: Float32Array;
+  azInSector: Uint8Array;
+  elTx: Float32Array;
+  elRx: Float32Array;
+  knifeEdgeF4: Float32Array;
+  gasFactor: Float32Array;
+  f32: Float32Array;
+  u32: Uint32Array;
+  rcs: Float64Array;
+  tBitsLow: Int32Array;
+  tBitsHigh: Int32Array;
+  tShift: Int32Array;
+  tFracMask: Int32Array;
+  tFracScale: Float64Array;
+  tPfa: Float64Array;
+  tLowSlope: Float64Array;
+  tPdHigh: Float64Array;
+  tValues: Float32Array[];
+  vals0: Float32Array;
+}
+
+/**
+ * One row of the radar stage (cells c0..c1). A function of its own so that V8 optimises it as a whole
+ * and keeps that code from call to call (a loop inside the caller is compiled on stack replacement,
+ * dropped when the code after the loop deoptimises, and recompiled on every call).
+ */
+function stageRow(s: StageRowContext, row: number): void {
+  const {
+    w,
+    cellM,
+    oc,
+    orow,
+    c0,
+    c1,
+    maxR,
+    nh,
+    nq,
+    nt,
+    H,
+    curv,
+    twoOverLambda,
+    minR2,
+    maxR2,
+    elScale,
+    floorTx,
+    floorRx,
+    vScale,
+    vLast,
+    C,
+    gasScale,
+    mantShift,
+    mantMask,
+    requiredPd,
+    rcs0,
+    lo0,
+    hi0,
+    shift0,
+    fracMask0,
+    fracScale0,
+    pfa0,
+    lowSlope0,
+    pdHigh0,
+    ground,
+    hs,
+    od,
+    obstructionTopAglM,
+    lowest,
+    snrOut,
+    pdOut,
+    reasonOut,
+    heights,
+    rotating,
+    azTx,
+    azRx,
+    azInSector,
+    elTx,
+    elRx,
+    knifeEdgeF4,
+    gasFactor,
+    f32,
+    u32,
+    rcs,
+    tBitsLow,
+    tBitsHigh,
+    tShift,
+    tFracMask,
+    tFracScale,
+    tPfa,
+    tLowSlope,
+    tPdHigh,
+    tValues,
+    vals0,
+  } = s;
+  const log2Mantissa = LOG2_MANTISSA;
+  const dbPerLog2 = DB_PER_LOG2;
+  const vMin = V_MIN;
+  const expBias = F32_EXPONENT_BIAS;
+  const expShift = F32_MANTISSA_BITS;
+  const infBits = F32_POSITIVE_INFINITY_BITS;
+  const rCovered = Reason.covered;
+  const rMasked = Reason.masked;
+  const rOutOfRange = Reason.outOfRange;
+  const rBlindZone = Reason.blindZone;
+  const rOutOfSector = Reason.outOfSector;
+  const rTooWeak = Reason.tooWeak;
+  const rInside = Reason.insideObstruction;
+  const rNodata = Reason.nodata;
+  const northM = (orow - row) * cellM;
+  const dy2 = (row - orow) * (row - orow);
+  for (let col = c0; col <= c1; col++) {
+    const i = row * w + col;
+    // Horizontal distance between cell centres, as terrainMask.ts defines it (rule TM1), computed
+    // here rather than read from horizon.distanceM (filled lazily there; this saves that pass).
+    const dxc = col - oc;
+    const d = cellM * Math.sqrt(dxc * dxc + dy2);
+    const g = ground[i];
+    const sigma = hs[i];
+    if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
+      // No ground: nodata. Ground but no horizon: beyond the sweep's range limit (its own distance
+      // test at the edge), so out of range like the cells beyond maxR.
+      const code = Number.isNaN(g) ? rNodata : rOutOfRange;
+      lowest[i] = Number.NaN;
+      for (let k = 0; k < nh; k++) snrOut[k][i] = Number.NaN;
+      for (let q = 0; q < nq; q++) {
+        pdOut[q][i] = 0;
+        reasonOut[q][i] = code;
+      }
+      continue;
+    }
+    // Azimuth factors (height-independent).
+    let aTx = 1;
+    let aRx = 1;
+    let inSectorAz = 1;
+    if (!rotating) {
+      const j = pseudoAngleBin((col - oc) * cellM, northM);
+      aTx = azTx[j];
+      aRx = azRx[j];
+      inSectorAz = azInSector[j];
+    }
+    const d2 = d * d;
+    const base = g - H - d2 * curv;
+    // Lowest visible height (terrainMask.ts rule TM5): −base + σ·d, at least 0; 0 where nothing obstructs.
+    lowest[i] = sigma === Number.NEGATIVE_INFINITY ? 0 : Math.max(0, sigma * d - base);
+    const top = obstructionTopAglM[i];
+    if (aTx < 0) {
+      // Outside the instrumented azimuths: only the reason differs by height (the codes that come
+      // before "out of sector"), with no gain or knife-edge work.
+      for (let k = 0; k < nh; k++) {
+        const h = heights[k];
+        const dh = base + h;
+        const R2 = d2 + dh * dh;
+        let code: number = rOutOfSector;
+        if (top > h) code = rInside;
+        else if (R2 < minR2 || R2 === 0) code = rBlindZone;
+        else if (R2 > maxR2) code = rOutOfRange;
+        snrOut[k][i] = Number.NaN;
+        const q0 = k * nt;
+        for (let t = 0; t < nt; t++) {
+          pdOut[q0 + t][i] = 0;
+          reasonOut[q0 + t][i] = code;
+        }
+      }
+      continue;
+    }
+    // Knife edge: v = Kv·s·(σ − Δh/d), Kv = √((2/λ)(1/s + 1/(d − s))); so v = va − vb·Δh.
+    let va = -1e30;
+    let vb = 0;
+    if (sigma !== Number.NEGATIVE_INFINITY) {
+      const s = od[i];
+      const rest = d - s > 0 ? d - s : cellM * 0.5;
+      const kv = Math.sqrt(twoOverLambda * (1 / s + 1 / rest));
+      va = kv * s * sigma;
+      vb = (kv * s) / d;
+    }
+    for (let k = 0; k < nh; k++) {
+      const h = heights[k];
+      const q0 = k * nt;
+      const dh = base + h;
+      const R2 = d2 + dh * dh;
+      let code = -1;
+      if (top > h) code = rInside;
+      else if (R2 < minR2 || R2 === 0) code = rBlindZone;
+      else if (R2 > maxR2) code = rOutOfRange;
+      if (code >= 0) {
+        snrOut[k][i] = Number.NaN;
+        for (let t = 0; t < nt; t++) {
+          pdOut[q0 + t][i] = 0;
+          reasonOut[q0 + t][i] = code;
+        }
+        continue;
+      }
+      const invR = 1 / Math.sqrt(R2);
+      const m = (dh * invR * elScale + elScale + 0.5) | 0;
+      const eTx = elTx[m];
+      if (eTx < 0) {
+        snrOut[k][i] = Number.NaN;
+        for (let t = 0; t < nt; t++) {
+          pdOut[q0 + t][i] = 0;
+          reasonOut[q0 + t][i] = rOutOfSector;
+        }
+        continue;
+      }
+      let gt = aTx * eTx;
+      if (gt < floorTx) gt = floorTx;
+      let gr = aRx * elRx[m];
+      if (gr < floorRx) gr = floorRx;
+      const v = va - vb * dh;
+      let f4 = 1;
+      if (v > vMin) {
+        const b = ((v - vMin) * vScale + 0.5) | 0;
+        f4 = knifeEdgeF4[Math.min(b, vLast)];
+      }
+      const invR2 = invR * invR;
+      const snr = C * gt * gr * f4 * gasFactor[(R2 * invR * gasScale) | 0] * invR2 * invR2;
+      f32[0] = snr;
+      const bits = u32[0];
+      snrOut[k][i] =
+        snr > 0
+          ? dbPerLog2 * ((bits >>> expShift) - expBias + log2Mantissa[(bits >>> mantShift) & mantMask])
+          : Number.NEGATIVE_INFINITY;
+      const weakCode = inSectorAz === 0 ? rOutOfSector : v > 0 ? rMasked : rTooWeak;
+      if (nt === 1) {
+        // One class (the common case): its table fields in locals, no per-class array loads.
+        f32[0] = snr * rcs0;
+        const u = u32[0];
+        let pd: number;
+        if (u >= lo0 && u < hi0) {
+          const du = u - lo0;
+          const jj = du >>> shift0;
+          const a = vals0[jj];
+          pd = a + (du & fracMask0) * fracScale0 * (vals0[jj + 1] - a);
+        } else if (u < lo0) {
+          const f = f32[0];
+          pd = f > 0 ? pfa0 + f * lowSlope0 : 0;
+        } else pd = u <= infBits ? pdHigh0 : 0;
+        pdOut[q0][i] = pd;
+        reasonOut[q0][i] = pd >= requiredPd ? rCovered : weakCode;
+        continue;
+      }
+      for (let t = 0; t < nt; t++) {
+        // Inline pdTable lookup (pdTable.ts pdFromSnr): Float32 bits → bin and fraction.
+        f32[0] = snr * rcs[t];
+        const u = u32[0];
+        let pd: number;
+        const lo = tBitsLow[t];
+        if (u >= lo && u < tBitsHigh[t]) {
+          const du = u - lo;
+          const jj = du >>> tShift[t];
+          const vals = tValues[t];
+          const a = vals[jj];
+          pd = a + (du & tFracMask[t]) * tFracScale[t] * (vals[jj + 1] - a);
+        } else if (u < lo) {
+          const f = f32[0];
+          pd = f > 0 ? tPfa[t] + f * tLowSlope[t] : 0;
+        } else pd = u <= infBits ? tPdHigh[t] : 0;
+        pdOut[q0 + t][i] = pd;
+        reasonOut[q0 + t][i] = pd >= requiredPd ? rCovered : weakCode;
+      }
+    }
+  }
+}
+
+/**
  * The radar stage: SNR, Pd and reason per cell for every height and target class, from the radar's
  * horizon (computeHorizon on the obstruction surface, same frame). Only the square around the radar
  * within its maximum instrumented range is visited; the rest stays "out of range".
@@ -509,21 +821,6 @@ export function radarCoverageFromHorizon(
   const u32 = new Uint32Array(f32.buffer);
   const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS;
   const mantMask = (1 << LOG_MANTISSA_BITS) - 1;
-  // Module-level constants copied to locals: V8 reloads module bindings inside the loop otherwise.
-  const log2Mantissa = LOG2_MANTISSA;
-  const dbPerLog2 = DB_PER_LOG2;
-  const vMin = V_MIN;
-  const expBias = F32_EXPONENT_BIAS;
-  const expShift = F32_MANTISSA_BITS;
-  const infBits = F32_POSITIVE_INFINITY_BITS;
-  const rCovered = Reason.covered;
-  const rMasked = Reason.masked;
-  const rOutOfRange = Reason.outOfRange;
-  const rBlindZone = Reason.blindZone;
-  const rOutOfSector = Reason.outOfSector;
-  const rTooWeak = Reason.tooWeak;
-  const rInside = Reason.insideObstruction;
-  const rNodata = Reason.nodata;
   // The first class's table fields (the only one in most plans), for the one-class path of the loop.
   const rcs0 = nt > 0 ? rcs[0] : 0;
   const lo0 = nt > 0 ? tBitsLow[0] : 0;
@@ -549,168 +846,82 @@ export function radarCoverageFromHorizon(
   const outsideFilled =
     old !== undefined && old.rowMin >= r0 && old.rowMax <= r1 && old.colMin >= c0 && old.colMax <= c1;
   out.extent = undefined; // while being written, the arrays match no extent
+  const ctx: StageRowContext = {
+    w,
+    cellM,
+    oc,
+    orow,
+    c0,
+    c1,
+    maxR,
+    nh,
+    nq,
+    nt,
+    H,
+    curv,
+    twoOverLambda,
+    minR2,
+    maxR2,
+    elScale,
+    floorTx,
+    floorRx,
+    vScale,
+    vLast,
+    C,
+    gasScale,
+    mantShift,
+    mantMask,
+    requiredPd,
+    rcs0,
+    lo0,
+    hi0,
+    shift0,
+    fracMask0,
+    fracScale0,
+    pfa0,
+    lowSlope0,
+    pdHigh0,
+    ground,
+    hs,
+    od,
+    obstructionTopAglM,
+    lowest,
+    snrOut,
+    pdOut,
+    reasonOut,
+    heights,
+    rotating,
+    azTx,
+    azRx,
+    azInSector,
+    elTx,
+    elRx,
+    knifeEdgeF4,
+    gasFactor,
+    f32,
+    u32,
+    rcs,
+    tBitsLow,
+    tBitsHigh,
+    tShift,
+    tFracMask,
+    tFracScale,
+    tPfa,
+    tLowSlope,
+    tPdHigh,
+    tValues,
+    vals0,
+  };
   if (!outsideFilled) {
     fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
     fillOutside((r1 + 1) * w, n, lowest, snrOut, pdOut, reasonOut);
   }
   for (let row = r0; row <= r1; row++) {
-    const northM = (orow - row) * cellM;
-    const dy2 = (row - orow) * (row - orow);
     if (!outsideFilled) {
       fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
       fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
     }
-    for (let col = c0; col <= c1; col++) {
-      const i = row * w + col;
-      // Horizontal distance between cell centres, as terrainMask.ts defines it (rule TM1), computed
-      // here rather than read from horizon.distanceM (filled lazily there; this saves that pass).
-      const dxc = col - oc;
-      const d = cellM * Math.sqrt(dxc * dxc + dy2);
-      const g = ground[i];
-      const sigma = hs[i];
-      if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
-        // No ground: nodata. Ground but no horizon: beyond the sweep's range limit (its own distance
-        // test at the edge), so out of range like the cells beyond maxR.
-        const code = Number.isNaN(g) ? rNodata : rOutOfRange;
-        lowest[i] = Number.NaN;
-        for (let k = 0; k < nh; k++) snrOut[k][i] = Number.NaN;
-        for (let q = 0; q < nq; q++) {
-          pdOut[q][i] = 0;
-          reasonOut[q][i] = code;
-        }
-        continue;
-      }
-      // Azimuth factors (height-independent).
-      let aTx = 1;
-      let aRx = 1;
-      let inSectorAz = 1;
-      if (!rotating) {
-        const j = pseudoAngleBin((col - oc) * cellM, northM);
-        aTx = azTx[j];
-        aRx = azRx[j];
-        inSectorAz = azInSector[j];
-      }
-      const d2 = d * d;
-      const base = g - H - d2 * curv;
-      // Lowest visible height (terrainMask.ts rule TM5): −base + σ·d, at least 0; 0 where nothing obstructs.
-      lowest[i] = sigma === Number.NEGATIVE_INFINITY ? 0 : Math.max(0, sigma * d - base);
-      const top = obstructionTopAglM[i];
-      if (aTx < 0) {
-        // Outside the instrumented azimuths: only the reason differs by height (the codes that come
-        // before "out of sector"), with no gain or knife-edge work.
-        for (let k = 0; k < nh; k++) {
-          const h = heights[k];
-          const dh = base + h;
-          const R2 = d2 + dh * dh;
-          let code: number = rOutOfSector;
-          if (top > h) code = rInside;
-          else if (R2 < minR2 || R2 === 0) code = rBlindZone;
-          else if (R2 > maxR2) code = rOutOfRange;
-          snrOut[k][i] = Number.NaN;
-          const q0 = k * nt;
-          for (let t = 0; t < nt; t++) {
-            pdOut[q0 + t][i] = 0;
-            reasonOut[q0 + t][i] = code;
-          }
-        }
-        continue;
-      }
-      // Knife edge: v = Kv·s·(σ − Δh/d), Kv = √((2/λ)(1/s + 1/(d − s))); so v = va − vb·Δh.
-      let va = -1e30;
-      let vb = 0;
-      if (sigma !== Number.NEGATIVE_INFINITY) {
-        const s = od[i];
-        const rest = d - s > 0 ? d - s : cellM * 0.5;
-        const kv = Math.sqrt(twoOverLambda * (1 / s + 1 / rest));
-        va = kv * s * sigma;
-        vb = (kv * s) / d;
-      }
-      for (let k = 0; k < nh; k++) {
-        const h = heights[k];
-        const q0 = k * nt;
-        const dh = base + h;
-        const R2 = d2 + dh * dh;
-        let code = -1;
-        if (top > h) code = rInside;
-        else if (R2 < minR2 || R2 === 0) code = rBlindZone;
-        else if (R2 > maxR2) code = rOutOfRange;
-        if (code >= 0) {
-          snrOut[k][i] = Number.NaN;
-          for (let t = 0; t < nt; t++) {
-            pdOut[q0 + t][i] = 0;
-            reasonOut[q0 + t][i] = code;
-          }
-          continue;
-        }
-        const invR = 1 / Math.sqrt(R2);
-        const m = (dh * invR * elScale + elScale + 0.5) | 0;
-        const eTx = elTx[m];
-        if (eTx < 0) {
-          snrOut[k][i] = Number.NaN;
-          for (let t = 0; t < nt; t++) {
-            pdOut[q0 + t][i] = 0;
-            reasonOut[q0 + t][i] = rOutOfSector;
-          }
-          continue;
-        }
-        let gt = aTx * eTx;
-        if (gt < floorTx) gt = floorTx;
-        let gr = aRx * elRx[m];
-        if (gr < floorRx) gr = floorRx;
-        const v = va - vb * dh;
-        let f4 = 1;
-        if (v > vMin) {
-          const b = ((v - vMin) * vScale + 0.5) | 0;
-          f4 = knifeEdgeF4[Math.min(b, vLast)];
-        }
-        const invR2 = invR * invR;
-        const snr = C * gt * gr * f4 * gasFactor[(R2 * invR * gasScale) | 0] * invR2 * invR2;
-        f32[0] = snr;
-        const bits = u32[0];
-        snrOut[k][i] =
-          snr > 0
-            ? dbPerLog2 * ((bits >>> expShift) - expBias + log2Mantissa[(bits >>> mantShift) & mantMask])
-            : Number.NEGATIVE_INFINITY;
-        const weakCode = inSectorAz === 0 ? rOutOfSector : v > 0 ? rMasked : rTooWeak;
-        if (nt === 1) {
-          // One class (the common case): its table fields in locals, no per-class array loads.
-          f32[0] = snr * rcs0;
-          const u = u32[0];
-          let pd: number;
-          if (u >= lo0 && u < hi0) {
-            const du = u - lo0;
-            const jj = du >>> shift0;
-            const a = vals0[jj];
-            pd = a + (du & fracMask0) * fracScale0 * (vals0[jj + 1] - a);
-          } else if (u < lo0) {
-            const f = f32[0];
-            pd = f > 0 ? pfa0 + f * lowSlope0 : 0;
-          } else pd = u <= infBits ? pdHigh0 : 0;
-          pdOut[q0][i] = pd;
-          reasonOut[q0][i] = pd >= requiredPd ? rCovered : weakCode;
-          continue;
-        }
-        for (let t = 0; t < nt; t++) {
-          // Inline pdTable lookup (pdTable.ts pdFromSnr): Float32 bits → bin and fraction.
-          f32[0] = snr * rcs[t];
-          const u = u32[0];
-          let pd: number;
-          const lo = tBitsLow[t];
-          if (u >= lo && u < tBitsHigh[t]) {
-            const du = u - lo;
-            const jj = du >>> tShift[t];
-            const vals = tValues[t];
-            const a = vals[jj];
-            pd = a + (du & tFracMask[t]) * tFracScale[t] * (vals[jj + 1] - a);
-          } else if (u < lo) {
-            const f = f32[0];
-            pd = f > 0 ? tPfa[t] + f * tLowSlope[t] : 0;
-          } else pd = u <= infBits ? tPdHigh[t] : 0;
-          pdOut[q0 + t][i] = pd;
-          reasonOut[q0 + t][i] = pd >= requiredPd ? rCovered : weakCode;
-        }
-      }
-    }
+    stageRow(ctx, row);
   }
   out.extent = { rowMin: r0, rowMax: r1, colMin: c0, colMax: c1 };
   return out;
