@@ -485,6 +485,8 @@ interface StageRowContext {
   tPdHigh: Float64Array;
   tValues: Float32Array[];
   vals0: Float32Array;
+  /** Rotating radar: C·g_t·g_r per elevation bin, −1 outside the elevation field (else empty). */
+  cGain: Float64Array;
 }
 
 /**
@@ -558,6 +560,7 @@ function stageRow(s: StageRowContext, row: number): void {
     tPdHigh,
     tValues,
     vals0,
+    cGain,
   } = s;
   const log2Mantissa = LOG2_MANTISSA;
   const dbPerLog2 = DB_PER_LOG2;
@@ -659,8 +662,20 @@ function stageRow(s: StageRowContext, row: number): void {
       }
       const invR = 1 / Math.sqrt(R2);
       const m = (dh * invR * elScale + elScale + 0.5) | 0;
-      const eTx = elTx[m];
-      if (eTx < 0) {
+      // C·g_t·g_r (−1 outside the elevation field): from the per-call table for a rotating radar,
+      // whose azimuth factors are 1 (same products in the same order, so the same value).
+      let cg = rotating ? cGain[m] : -1;
+      if (!rotating) {
+        const eTx = elTx[m];
+        if (eTx >= 0) {
+          let gt = aTx * eTx;
+          if (gt < floorTx) gt = floorTx;
+          let gr = aRx * elRx[m];
+          if (gr < floorRx) gr = floorRx;
+          cg = C * gt * gr;
+        }
+      }
+      if (cg < 0) {
         snrOut[k][i] = Number.NaN;
         for (let t = 0; t < nt; t++) {
           pdOut[q0 + t][i] = 0;
@@ -668,10 +683,6 @@ function stageRow(s: StageRowContext, row: number): void {
         }
         continue;
       }
-      let gt = aTx * eTx;
-      if (gt < floorTx) gt = floorTx;
-      let gr = aRx * elRx[m];
-      if (gr < floorRx) gr = floorRx;
       const v = va - vb * dh;
       let f4 = 1;
       if (v > vMin) {
@@ -679,7 +690,7 @@ function stageRow(s: StageRowContext, row: number): void {
         f4 = knifeEdgeF4[Math.min(b, vLast)];
       }
       const invR2 = invR * invR;
-      const snr = C * gt * gr * f4 * gasFactor[(R2 * invR * gasScale) | 0] * invR2 * invR2;
+      const snr = cg * f4 * gasFactor[(R2 * invR * gasScale) | 0] * invR2 * invR2;
       f32[0] = snr;
       const bits = u32[0];
       snrOut[k][i] =
@@ -846,6 +857,20 @@ export function radarCoverageFromHorizon(
   const outsideFilled =
     old !== undefined && old.rowMin >= r0 && old.rowMax <= r1 && old.colMin >= c0 && old.colMax <= c1;
   out.extent = undefined; // while being written, the arrays match no extent
+  // Rotating: the azimuth factors are 1, so C·g_t·g_r depends on the elevation bin alone.
+  const cGain = new Float64Array(rotating ? elTx.length : 0);
+  for (let m = 0; m < cGain.length; m++) {
+    const eTx = elTx[m];
+    if (eTx < 0) {
+      cGain[m] = -1;
+      continue;
+    }
+    let gt = eTx;
+    if (gt < floorTx) gt = floorTx;
+    let gr = elRx[m];
+    if (gr < floorRx) gr = floorRx;
+    cGain[m] = C * gt * gr;
+  }
   const ctx: StageRowContext = {
     w,
     cellM,
@@ -911,6 +936,7 @@ export function radarCoverageFromHorizon(
     tPdHigh,
     tValues,
     vals0,
+    cGain,
   };
   if (!outsideFilled) {
     fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
