@@ -41,6 +41,7 @@ export async function getPool(): Promise<WorkerPool<CoverageApi>> {
       size,
       createWorker: () =>
         new Worker(new URL("../workers/coverage.worker.ts", import.meta.url), { type: "module" }),
+      onSuperseded: (remote, _channel, g) => void remote.supersede(g).catch(() => undefined),
       onCrash: (message) => {
         say("error", message);
         // The plan is intact; run it again on the new worker.

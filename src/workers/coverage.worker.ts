@@ -17,6 +17,7 @@ const exposed: CoverageApi = {
   },
   point: (req) => api.point(req),
   crashForTest: () => api.crashForTest(),
+  supersede: (generation) => api.supersede(generation),
 };
 
 Comlink.expose(exposed);

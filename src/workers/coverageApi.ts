@@ -5,6 +5,7 @@
  */
 import type { PlacedRadar, RadarCoverage } from "../coverage/coverage";
 import {
+  CancelledError,
   computeRadarCoverage,
   evaluatePoint,
   evaluateSite,
@@ -39,6 +40,11 @@ const RADAR_CACHE_ENTRIES = 64;
 
 function now(): number {
   return performance.now();
+}
+
+/** Resolves on a later task (messages that arrived meanwhile are handled first). */
+function nextTurn(): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, 0));
 }
 
 /** A request whose plan does not validate: the message names the fields. */
@@ -193,10 +199,17 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     return maskMode ? { ...r.site, maskMode } : r.site;
   };
 
+  /** The newest generation this worker was told of; older runs stop at their next check. */
+  let newest = 0;
+
   return {
     lastSite: () => prepared?.site ?? null,
+    async supersede(generation: number) {
+      newest = Math.max(newest, generation);
+    },
     async evaluate(req: EvaluateRequest): Promise<CoverageView> {
       const t0 = now();
+      const stale = () => req.generation < newest;
       const full = await prepare(req.plan, req.dem, req.maskMode);
       let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
       let result: SiteResult;
@@ -211,7 +224,11 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         const accurate = cache;
         result = await evaluateSite(focused, {
           mode,
+          shouldCancel: stale,
           runRadar: async (_s, i) => {
+            // A turn of the event loop before each radar, so that a newer generation can be heard.
+            await nextTurn();
+            if (stale()) throw new CancelledError();
             const key = radarKey(full, i, mode, terrainId);
             let r = accurate.get(key);
             if (r === undefined) {
@@ -233,6 +250,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         result = await evaluateSite(site, {
           cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
           mode: site.maskMode,
+          shouldCancel: stale,
         });
       }
       const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];

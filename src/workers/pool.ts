@@ -34,6 +34,11 @@ export interface PoolOptions<Api> {
   inline?: Api;
   /** Told when a worker crashed and was replaced. */
   onCrash?: (message: string) => void;
+  /**
+   * Told when a newer generation of a channel is submitted while a worker runs an older one, so that
+   * the worker can stop it early (its reply would be dropped as stale anyway).
+   */
+  onSuperseded?: (remote: Comlink.Remote<Api>, channel: string, generation: number) => void;
 }
 
 type AnyFn = (...args: never[]) => unknown;
@@ -105,7 +110,12 @@ export class WorkerPool<Api extends object> {
     const prev = this.latest.get(channel) ?? 0;
     if (generation < prev) return Promise.reject(new StaleResultError(`generation ${generation} < ${prev}`));
     this.latest.set(channel, generation);
-    // Drop queued older work of the channel.
+    // Tell workers running older work of the channel, then drop queued older work.
+    for (const slot of this.slots) {
+      const j = slot.job;
+      if (j && j.channel === channel && j.generation < generation)
+        this.options.onSuperseded?.(slot.remote, channel, generation);
+    }
     for (let i = this.queue.length - 1; i >= 0; i--) {
       const q = this.queue[i];
       if (q.channel === channel && q.generation < generation) {
@@ -214,7 +224,8 @@ export class WorkerPool<Api extends object> {
     } catch (err) {
       if (slot.job !== job) return;
       slot.job = null;
-      job.reject(err);
+      // A run stopped because it was superseded is stale, not an error.
+      job.reject(this.isStale(job) ? new StaleResultError("superseded while running") : err);
     } finally {
       this.pump();
     }

@@ -160,6 +160,11 @@ export interface CoverageApi {
   point(req: PointRequest): Promise<PointReply>;
   /** Crashes the worker on purpose (tests of the crash recovery). */
   crashForTest(): Promise<void>;
+  /**
+   * A newer generation was submitted: a run of an older one stops at its next check (between radars)
+   * with a CancelledError instead of finishing work nobody will see.
+   */
+  supersede(generation: number): Promise<void>;
 }
 
 /** The arrays of a view, for a transfer list. */

@@ -70,6 +70,21 @@ describe("coverage API runs", () => {
     expect(Array.from(first.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
   });
 
+  it("stops a run once a newer generation is announced, and runs the newer one in full", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[0] };
+    const api = createCoverageApi();
+    for (const extra of [{}, { focus, sliceFirst: true }]) {
+      const old = request(plan, extra);
+      const running = api.evaluate(old);
+      await api.supersede(old.generation + 1);
+      await expect(running).rejects.toMatchObject({ name: "CancelledError" });
+    }
+    const next = await api.evaluate(request(plan, { focus, sliceFirst: true }));
+    expect(next.partial).toBe(true);
+    expect(next.computedRadarIds?.length).toBe(plan.posts.filter((p) => p.enabled).length);
+  });
+
   it("recomputes only the moved radar on release, however long the drag previews went on", async () => {
     const plan = demoPlan();
     const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[0] };
