@@ -133,9 +133,13 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
       haveTerrainKey: view.terrainKey,
     };
     const all = withTerrain(await p.run("evaluate", g2, "evaluate", [rest], { slot }), kind);
-    // The run's time in the worker is both steps.
+    // The run's time in the worker and the radars it computed are those of both steps.
     useCoverage.getState().set({
-      view: { ...all, elapsedMs: view.elapsedMs + all.elapsedMs },
+      view: {
+        ...all,
+        elapsedMs: view.elapsedMs + all.elapsedMs,
+        computedRadarIds: [...(view.computedRadarIds ?? []), ...(all.computedRadarIds ?? [])],
+      },
       preview: null,
       running: false,
       problem: null,

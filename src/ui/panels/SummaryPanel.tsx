@@ -55,6 +55,8 @@ export function SummaryPanel() {
       data-testid="summary"
       data-generation={view.generation}
       data-mask-mode={view.maskMode}
+      data-partial={view.partial ? "true" : undefined}
+      data-computed-radars={view.computedRadarIds?.length}
     >
       <h3>Summary — {plan.targetClasses.find((t) => t.id === slice.classId)?.name}</h3>
       <table className="summary-table">
@@ -83,6 +85,15 @@ export function SummaryPanel() {
               </td>
             </tr>
           ))}
+          {view.partial && (
+            // The shown height is drawn first; the others follow from the same run a moment later.
+            <tr data-testid="summary-updating">
+              <th scope="row">Other heights</th>
+              <td className="muted" colSpan={4}>
+                updating…
+              </td>
+            </tr>
+          )}
         </tbody>
       </table>
       {slice.metrics.protectedArea.insideObstructionCells > 0 && (
