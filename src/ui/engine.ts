@@ -130,9 +130,14 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
       ...req,
       generation: g2,
       sliceFirst: false,
+      gapShapesHeld: true,
       haveTerrainKey: view.terrainKey,
     };
     const all = withTerrain(await p.run("evaluate", g2, "evaluate", [rest], { slot }), kind);
+    // The shown slice's gap outlines came with the first step (the same slice, the same run).
+    const [shown] = view.slices;
+    const again = all.slices.find((s) => s.classId === shown.classId && s.heightM === shown.heightM);
+    if (again) again.gapShapes = shown.gapShapes;
     // The run's time in the worker and the radars it computed are those of both steps.
     useCoverage.getState().set({
       view: {

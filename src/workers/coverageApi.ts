@@ -271,7 +271,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         }),
       );
       if (site !== full && site.maskMode !== "fast") view.partial = true;
-      if (site.maskMode !== "fast" || !req.focus) {
+      if ((site.maskMode !== "fast" || !req.focus) && !req.gapShapesHeld) {
         const focused = view.slices.find(
           (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
         );

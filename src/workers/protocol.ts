@@ -31,6 +31,8 @@ export interface EvaluateRequest {
    * radar from the cache and fuses the other slices.
    */
   sliceFirst?: boolean;
+  /** The caller holds the gap outlines of the focused slice (from the sliceFirst step): not redone. */
+  gapShapesHeld?: boolean;
   /**
    * The class and height shown on the map. A preview (maskMode "fast") computes only this slice; a full
    * run computes every slice and outlines the gaps of this one.

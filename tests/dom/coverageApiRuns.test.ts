@@ -52,9 +52,11 @@ describe("coverage API runs", () => {
     expect([...(first.computedRadarIds ?? [])].sort()).toEqual([...enabled].sort());
     expect(sliceOf(first, focus.classId, focus.heightM).gapShapes).toBeDefined();
 
-    const rest = await api.evaluate(request(plan, { focus }));
+    const rest = await api.evaluate(request(plan, { focus, gapShapesHeld: true }));
     expect(rest.partial).toBeUndefined();
     expect(rest.computedRadarIds).toEqual([]);
+    // The caller kept the shown slice's outlines from the first step: they are not redone.
+    expect(sliceOf(rest, focus.classId, focus.heightM).gapShapes).toBeUndefined();
     const reference = await createCoverageApi().evaluate(request(plan, { focus }));
     expect(rest.slices.length).toBe(reference.slices.length);
     for (const s of reference.slices) {
