@@ -19,7 +19,7 @@ export * from "./marcumQ.ts";
 export * from "./metrics.ts";
 export * from "./pdTable.ts";
 export * from "./propagation.ts";
-// propagation.ts and waveform.ts both define wavelengthM (the same c/f); one is published.
+// wavelengthM is defined in propagation.ts; waveform.ts re-exports it, so it is published once here.
 export { wavelengthM } from "./propagation.ts";
 export * from "./radarCache.ts";
 export * from "./radarEquation.ts";

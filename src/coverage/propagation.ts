@@ -17,13 +17,14 @@ const KNIFE_EDGE_V_SHIFT = 0.1;
 const KNIFE_EDGE_V_MIN = -0.78;
 
 /**
- * Wavelength λ = c/f, m, with c the defined speed of light in vacuum.
- * @param frequencyHz carrier frequency, Hz, > 0.
- * @returns metres; NaN for f ≤ 0 or NaN; 0 for f = +Infinity.
+ * Wavelength λ = c/f, m, with c the defined speed of light in vacuum. The one definition in the model
+ * (waveform.ts and the radar equation use this one).
+ * @param frequencyHz carrier frequency, Hz, finite > 0.
+ * @returns metres; NaN for a zero, negative, infinite or NaN frequency.
  * Reference: λ = c/f (common practice); c = 299 792 458 m/s exactly (SI definition, constants.ts).
  */
 export function wavelengthM(frequencyHz: number): number {
-  if (!(frequencyHz > 0)) return Number.NaN;
+  if (!(frequencyHz > 0 && frequencyHz < Number.POSITIVE_INFINITY)) return Number.NaN;
   return SPEED_OF_LIGHT_M_PER_S / frequencyHz;
 }
 

@@ -9,6 +9,7 @@
  */
 
 import { SPEED_OF_LIGHT_M_PER_S } from "./constants.ts";
+import { wavelengthM } from "./propagation.ts";
 import type { FmcwWaveform, Waveform } from "./radarModel.ts";
 
 /** True when x is a finite number > 0. */
@@ -202,14 +203,8 @@ export function unambiguousRangeM(w: Waveform): number {
   return (SPEED_OF_LIGHT_M_PER_S * repetitionPeriodS(w)) / 2;
 }
 
-/**
- * Carrier wavelength, m: λ = c / f, with c the defined speed of light in vacuum (common practice).
- * @param frequencyHz carrier frequency, Hz, finite > 0.
- * @returns metres; NaN for a zero, negative, infinite or NaN frequency.
- */
-export function wavelengthM(frequencyHz: number): number {
-  return isPositive(frequencyHz) ? SPEED_OF_LIGHT_M_PER_S / frequencyHz : Number.NaN;
-}
+/** Carrier wavelength λ = c/f, m: defined once, in propagation.ts, and re-exported here for waveform users. */
+export { wavelengthM };
 
 /**
  * Velocity (Doppler) resolution of one look, m/s: Δv = λ / (2 · T_int), from the Doppler resolution
