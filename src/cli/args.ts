@@ -2,6 +2,7 @@
  * Command-line value parsing shared by the `calc` and `plan` commands. Every error names the flag,
  * so the user knows which value to fix.
  */
+import { CommanderError } from "commander";
 
 /** A bad command-line value; `flag` is the option as typed (e.g. "--pfa"). */
 export class UsageError extends Error {
@@ -12,6 +13,25 @@ export class UsageError extends Error {
   ) {
     super(`${flag}: ${message}`);
   }
+}
+
+/** A run that could not be done with valid flags (a plan that cannot be prepared, …): exit status 1. */
+export class RunError extends Error {
+  override name = "RunError";
+}
+
+/**
+ * The exit status for an error a command threw, after printing it as `command: message`:
+ * 2 for bad input (UsageError, or commander's own usage errors, which it has already printed),
+ * 1 for a failed run, 0 for commander's --help/--version exits. Anything else is a bug: rethrown.
+ */
+export function exitStatus(command: string, e: unknown): number {
+  if (e instanceof UsageError || e instanceof RunError) {
+    process.stderr.write(`${command}: ${e.message}\n`);
+    return e instanceof UsageError ? 2 : 1;
+  }
+  if (e instanceof CommanderError) return e.exitCode === 0 ? 0 : 2;
+  throw e;
 }
 
 export interface NumberRule {

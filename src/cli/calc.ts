@@ -3,14 +3,13 @@
  * free-space range with its link budget, radar horizon, RF exposure distances). `--json` prints a
  * machine-readable result. Bad input exits with status 2 and a message that names the flag.
  */
-import { readFileSync } from "node:fs";
-import { Command, CommanderError } from "commander";
+import { Command } from "commander";
 import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../coverage/constants.ts";
 import type { SwerlingCase } from "../coverage/detection.ts";
 import type { RadarModel } from "../coverage/radarModel.ts";
 import { loadRadarModelFile } from "../io/radarFile.ts";
 import { formatErrors } from "../io/schemaFields.ts";
-import { parseNumber, UsageError } from "./args.ts";
+import { exitStatus, parseNumber, UsageError } from "./args.ts";
 import {
   type CalcOutput,
   exposureCommand,
@@ -19,6 +18,7 @@ import {
   rangeCommand,
   snrCommand,
 } from "./calcCommands.ts";
+import { readTextFile } from "./cliFiles.ts";
 
 type Opts = Record<string, string | boolean | undefined>;
 
@@ -37,12 +37,7 @@ function probability(flag: string, raw: unknown): number {
 function readRadar(raw: unknown): RadarModel {
   if (typeof raw !== "string" || raw === "")
     throw new UsageError("--radar", "a radar model file is required");
-  let text: string;
-  try {
-    text = readFileSync(raw, "utf8");
-  } catch (e) {
-    throw new UsageError("--radar", `cannot read ${raw}: ${(e as Error).message}`);
-  }
+  const text = readTextFile("--radar", raw);
   const parsed = loadRadarModelFile(text);
   if (!parsed.ok)
     throw new UsageError("--radar", `${raw} is not a valid radar model:\n${formatErrors(parsed.errors)}`);
@@ -130,12 +125,7 @@ export function runCalc(argv: string[]): number {
     buildCalcProgram().parse(argv, { from: "user" });
     return 0;
   } catch (e) {
-    if (e instanceof UsageError) {
-      process.stderr.write(`calc: ${e.message}\n`);
-      return 2;
-    }
-    if (e instanceof CommanderError) return e.exitCode === 0 ? 0 : 2;
-    throw e;
+    return exitStatus("calc", e);
   }
 }
 

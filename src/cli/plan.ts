@@ -8,7 +8,7 @@
 import { readFileSync } from "node:fs";
 import { basename, dirname, join, resolve } from "node:path";
 import cliProgress from "cli-progress";
-import { Command, CommanderError } from "commander";
+import { Command } from "commander";
 import { fromArrayBuffer } from "geotiff";
 import proj4 from "proj4";
 import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../coverage/constants.ts";
@@ -29,33 +29,12 @@ import type { Plan } from "../io/planSchema.ts";
 import { formatPlanErrors, loadPlanFile } from "../io/planValidation.ts";
 import { type LoadedDem, PrepareError, preparePlan } from "../io/preparePlan.ts";
 import type { SiteGrid } from "../io/siteGrid.ts";
-import { parseLatLon, parseNumber, UsageError } from "./args.ts";
-import { ensureOutputDir, writeOutputFile } from "./outputFiles.ts";
+import { exitStatus, parseLatLon, parseNumber, RunError, UsageError } from "./args.ts";
+import { ensureOutputDir, readBinaryFile, readTextFile, writeOutputFile } from "./cliFiles.ts";
 
 type Opts = Record<string, string | boolean | undefined>;
 
 /** A failure of the run itself (unreadable file, terrain that does not fit): exit status 1. */
-export class RunError extends Error {
-  override name = "RunError";
-}
-
-function readText(flag: string, path: string): string {
-  try {
-    return readFileSync(path, "utf8");
-  } catch (e) {
-    throw new UsageError(flag, `cannot read ${path}: ${(e as Error).message}`);
-  }
-}
-
-function readBytes(flag: string, path: string): ArrayBuffer {
-  try {
-    const b = readFileSync(path);
-    return b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer;
-  } catch (e) {
-    throw new UsageError(flag, `cannot read ${path}: ${(e as Error).message}`);
-  }
-}
-
 function parseMode(raw: unknown, fallback: MaskMode): MaskMode {
   if (raw === undefined) return fallback;
   if (raw === "accurate" || raw === "fast") return raw;
@@ -64,7 +43,7 @@ function parseMode(raw: unknown, fallback: MaskMode): MaskMode {
 
 /** Load and validate a plan file; errors name the file and each field path. */
 function loadPlan(planPath: string): Plan {
-  const parsed = loadPlanFile(readText("<plan.json>", planPath));
+  const parsed = loadPlanFile(readTextFile("<plan.json>", planPath));
   if (!parsed.ok) {
     throw new UsageError(
       "<plan.json>",
@@ -87,9 +66,9 @@ function loadDem(plan: Plan, planPath: string): LoadedDem | undefined {
     } catch {
       prjWkt = undefined;
     }
-    return { fileName: basename(path), data: readText(flag, path), prjWkt };
+    return { fileName: basename(path), data: readTextFile(flag, path), prjWkt };
   }
-  return { fileName: basename(path), data: readBytes(flag, path) };
+  return { fileName: basename(path), data: readBinaryFile(flag, path) };
 }
 
 async function prepare(planPath: string): Promise<{ plan: Plan; site: PreparedSite; grid: SiteGrid }> {
@@ -248,7 +227,7 @@ async function pointCommand(planPath: string, o: Opts): Promise<void> {
 
 /** The DEM's own grid (north-up, square cells, projected CRS) and its values. */
 async function demOnOwnGrid(path: string): Promise<{ grid: Grid; epsg: number }> {
-  const buffer = readBytes("--dem", path);
+  const buffer = readBinaryFile("--dem", path);
   let image: Awaited<ReturnType<Awaited<ReturnType<typeof fromArrayBuffer>>["getImage"]>>;
   try {
     image = await (await fromArrayBuffer(buffer)).getImage(0);
@@ -402,16 +381,7 @@ export async function runPlan(argv: string[]): Promise<number> {
     await buildPlanProgram().parseAsync(argv, { from: "user" });
     return 0;
   } catch (e) {
-    if (e instanceof UsageError) {
-      process.stderr.write(`plan: ${e.message}\n`);
-      return 2;
-    }
-    if (e instanceof RunError) {
-      process.stderr.write(`plan: ${e.message}\n`);
-      return 1;
-    }
-    if (e instanceof CommanderError) return e.exitCode === 0 ? 0 : 2;
-    throw e;
+    return exitStatus("plan", e);
   }
 }
 

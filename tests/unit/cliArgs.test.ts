@@ -41,7 +41,7 @@ describe("command-line output files", () => {
     const { mkdtempSync, writeFileSync } = await import("node:fs");
     const { tmpdir } = await import("node:os");
     const { join } = await import("node:path");
-    const { ensureOutputDir, writeOutputFile } = await import("../../src/cli/outputFiles.ts");
+    const { ensureOutputDir, writeOutputFile } = await import("../../src/cli/cliFiles.ts");
     const dir = mkdtempSync(join(tmpdir(), "picket-out-"));
     const file = join(dir, "a-file");
     writeFileSync(file, "x");

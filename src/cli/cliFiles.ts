@@ -1,8 +1,9 @@
 /**
- * Writing command-line outputs. A path the user gave that cannot be written (a file where a folder
- * should be, no permission, a full disk) becomes a UsageError naming the flag, not a stack trace.
+ * Files named on the command line. A path the user gave that cannot be read or written (missing, a
+ * file where a folder should be, no permission, a full disk) becomes a UsageError naming the flag,
+ * not a stack trace.
  */
-import { mkdirSync, writeFileSync } from "node:fs";
+import { mkdirSync, readFileSync, writeFileSync } from "node:fs";
 import { UsageError } from "./args.ts";
 
 function reason(e: unknown): string {
@@ -19,8 +20,29 @@ function reason(e: unknown): string {
       return "the disk is full";
     case "EISDIR":
       return "it is a folder";
+    case "ENOENT":
+      return "no such file or folder";
     default:
       return err.message;
+  }
+}
+
+/** The text of the file at `path`, named by `flag`. */
+export function readTextFile(flag: string, path: string): string {
+  try {
+    return readFileSync(path, "utf8");
+  } catch (e) {
+    throw new UsageError(flag, `cannot read ${path}: ${reason(e)}`);
+  }
+}
+
+/** The bytes of the file at `path`, named by `flag`. */
+export function readBinaryFile(flag: string, path: string): ArrayBuffer {
+  try {
+    const b = readFileSync(path);
+    return b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer;
+  } catch (e) {
+    throw new UsageError(flag, `cannot read ${path}: ${reason(e)}`);
   }
 }
 
