@@ -24,6 +24,7 @@ import {
   type SourceRaster,
   type SurfaceKind,
 } from "./demResample.ts";
+import { readBand1Window } from "./geotiffBand.ts";
 import { ImportError } from "./importErrors.ts";
 
 /** Options for reading a GeoTIFF DEM. */
@@ -305,6 +306,27 @@ async function pickImage(
   return best;
 }
 
+/** Samples as metres: × `scale`, NaN for the nodata value (either precision) and NaN samples. */
+function elevationsM(
+  raw: ArrayLike<number>,
+  cells: number,
+  nodata: number | null,
+  nodata32: number | null,
+  scale: number,
+): Float32Array {
+  if (raw instanceof Float32Array && scale === 1) {
+    // The common Float32 DEM in metres: only the nodata value changes, in place.
+    if (nodata32 !== null) for (let i = 0; i < cells; i++) if (raw[i] === nodata32) raw[i] = Number.NaN;
+    return raw;
+  }
+  const data = new Float32Array(cells);
+  for (let i = 0; i < cells; i++) {
+    const v = raw[i];
+    data[i] = v === nodata || v === nodata32 || Number.isNaN(v) ? Number.NaN : v * scale;
+  }
+  return data;
+}
+
 /**
  * Read a GeoTIFF DEM (band 1) and resample it bilinearly to the site frame.
  * Only the window that covers the frame is decoded. Elevations are converted to metres
@@ -398,8 +420,7 @@ export async function readGeoTiffDem(
   }
   let raw: ArrayLike<number>;
   try {
-    const bands = await image.readRasters({ window: [w0, h0, w1, h1], samples: [0], interleave: false });
-    raw = bands[0];
+    raw = await readBand1Window(image, [w0, h0, w1, h1]);
   } catch (e) {
     throw new ImportError(
       file,
@@ -409,11 +430,7 @@ export async function readGeoTiffDem(
   const nodata = main.getGDALNoData();
   // A Float32 band stores the nodata value rounded to single precision.
   const nodata32 = nodata === null ? null : Math.fround(nodata);
-  const data = new Float32Array(cells);
-  for (let i = 0; i < cells; i++) {
-    const v = raw[i];
-    data[i] = v === nodata || v === nodata32 || Number.isNaN(v) ? Number.NaN : v * scale;
-  }
+  const data = elevationsM(raw, cells, nodata, nodata32, scale);
   const source: SourceRaster = {
     data,
     width: w1 - w0,

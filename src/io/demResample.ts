@@ -8,10 +8,11 @@
  * the value at the nearest lattice edge, as a raster covers its full pixel extent. NaN where the
  * point lies outside the source or any of the four neighbouring samples is nodata.
  * A geographic (degrees) source is thus used only through its coordinates: values land on the
- * metric grid, never on degrees.
+ * metric grid, never on degrees. A frame on the source's own lattice (same CRS and cell size,
+ * whole-pixel offset; `plan los` on a DEM's own grid) is copied pixel for pixel instead.
  */
 import proj4 from "proj4";
-import { createGrid, type Grid, type GridFrame, sampleBilinear } from "../coverage/grid.ts";
+import { createGrid, frameOf, type Grid, type GridFrame, sampleBilinear } from "../coverage/grid.ts";
 import { ImportError } from "./importErrors.ts";
 
 /** A north-up source raster in its own CRS (degrees or metres), NaN as nodata. */
@@ -122,6 +123,8 @@ export function resampleToFrame(
   source: SourceRaster,
   frame: GridFrame,
 ): { grid: Grid; coveredFraction: number } {
+  const offset = latticeOffset(source, frame);
+  if (offset !== undefined) return copyAligned(source, frame, offset);
   const grid = createGrid(frame);
   const toSource = frameToSourceTransform(frame.crs, source.crs);
   const geographic = isGeographicCrs(source.crs);
@@ -156,6 +159,54 @@ export function resampleToFrame(
     }
   }
   const total = frame.width * frame.height;
+  return { grid, coveredFraction: total > 0 ? covered / total : 0 };
+}
+
+/**
+ * Whole-pixel offset (columns, rows) of the frame's corner in the source lattice when both share the
+ * CRS and the cell size, else undefined. Such a frame is the source grid itself or a window of it.
+ */
+function latticeOffset(source: SourceRaster, frame: GridFrame): { col: number; row: number } | undefined {
+  if (!sameCrs(frame.crs, source.crs)) return undefined;
+  const s = frame.cellSizeM;
+  const tolerance = 1e-9 * s;
+  if (Math.abs(source.pixelSizeX - s) > tolerance || Math.abs(source.pixelSizeY - s) > tolerance)
+    return undefined;
+  const col = (frame.originX - source.originX) / s;
+  const row = (source.originY - frame.originY) / s;
+  const c = Math.round(col);
+  const r = Math.round(row);
+  if (Math.abs(col - c) > 1e-6 || Math.abs(row - r) > 1e-6) return undefined;
+  return { col: c, row: r };
+}
+
+/**
+ * A frame on the source lattice takes each cell's own pixel: bilinear weights there are 1 and 0, and
+ * a copy also keeps a cell beside nodata (where 0 × NaN would make it NaN). NaN outside the source.
+ */
+function copyAligned(
+  source: SourceRaster,
+  frame: GridFrame,
+  offset: { col: number; row: number },
+): { grid: Grid; coveredFraction: number } {
+  const whole =
+    offset.col === 0 && offset.row === 0 && frame.width === source.width && frame.height === source.height;
+  // The source grid itself: its array is taken over, not copied.
+  const grid = whole ? { ...frameOf(frame), data: source.data } : createGrid(frame);
+  const out = grid.data;
+  const colFrom = Math.max(0, -offset.col);
+  const colTo = Math.min(grid.width, source.width - offset.col);
+  let covered = 0;
+  if (!whole && colTo > colFrom) {
+    for (let row = 0; row < grid.height; row++) {
+      const sourceRow = row + offset.row;
+      if (sourceRow < 0 || sourceRow >= source.height) continue;
+      const from = sourceRow * source.width + offset.col;
+      out.set(source.data.subarray(from + colFrom, from + colTo), row * grid.width + colFrom);
+    }
+  }
+  for (let i = 0; i < out.length; i++) if (!Number.isNaN(out[i])) covered++;
+  const total = grid.width * grid.height;
   return { grid, coveredFraction: total > 0 ? covered / total : 0 };
 }
 
