@@ -3,6 +3,10 @@
  * so the user knows which value to fix.
  */
 import { CommanderError } from "commander";
+import type { MaskMode } from "../coverage/terrainMask.ts";
+
+/** Parsed options of one subcommand, as commander gives them. */
+export type Opts = Record<string, string | boolean | undefined>;
 
 /** A bad command-line value; `flag` is the option as typed (e.g. "--pfa"). */
 export class UsageError extends Error {
@@ -80,4 +84,11 @@ export function parseLatLon(flag: string, raw: unknown): { lat: number; lon: num
   }
   if (Math.abs(lon) > 180) throw new UsageError(flag, `longitude ${lon}° must lie within ±180°`);
   return { lat, lon };
+}
+
+/** `--mode`: the masking mode, or `fallback` when the flag is not given. */
+export function parseMaskMode(raw: unknown, fallback: MaskMode): MaskMode {
+  if (raw === undefined) return fallback;
+  if (raw === "accurate" || raw === "fast") return raw;
+  throw new UsageError("--mode", `"${String(raw)}" must be accurate or fast`);
 }

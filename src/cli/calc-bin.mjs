@@ -1,7 +1,6 @@
 #!/usr/bin/env node
-// Installed entry for `picket-calc`: registers tsx so the TypeScript CLI runs without a build step.
-import { register } from "tsx/esm/api";
+// Installed entry for `picket-calc` and `npm run calc`: runs src/cli/calc.ts from its bundle (launch.mjs).
+import { loadEntry } from "./launch.mjs";
 
-register();
-const { runCalc } = await import("./calc.ts");
+const { runCalc } = await loadEntry("calc");
 process.exitCode = runCalc(process.argv.slice(2));
