@@ -26,20 +26,57 @@ export interface GapShapesXY {
   labels: GapLabelXY[];
 }
 
-/** Gap outlines in grid metres (at most `limit` polygons, the ones with the most vertices first). */
+/** Columns c0…c1−1 and rows r0…r1−1 that hold every gap cell, or null when there is none. */
+function gapBounds(gap: Uint8Array, width: number): { c0: number; c1: number; r0: number; r1: number } | null {
+  let c0 = width;
+  let c1 = -1;
+  let r0 = -1;
+  let r1 = -1;
+  const height = gap.length / width;
+  for (let r = 0; r < height; r++) {
+    const row = r * width;
+    let first = -1;
+    let last = -1;
+    for (let c = 0; c < width; c++) {
+      if (gap[row + c] !== 0) {
+        if (first < 0) first = c;
+        last = c;
+      }
+    }
+    if (first < 0) continue;
+    if (r0 < 0) r0 = r;
+    r1 = r;
+    if (first < c0) c0 = first;
+    if (last > c1) c1 = last;
+  }
+  return r0 < 0 ? null : { c0, c1: c1 + 1, r0, r1: r1 + 1 };
+}
+
+/**
+ * Gap outlines in grid metres (at most `limit` polygons, the ones with the most vertices first).
+ * Contoured on the gaps' bounding box only: d3-contour treats everything beyond its raster as below
+ * the threshold, so the rings are the same as on the whole grid, in less time when gaps are few.
+ */
 export function gapOutlinesXY(gap: Uint8Array, frame: GridFrame, limit = 400): GapPolygonXY[] {
-  const values = new Float64Array(gap.length);
-  for (let i = 0; i < gap.length; i++) values[i] = gap[i];
-  const [multi] = contours().size([frame.width, frame.height]).thresholds([0.5]).smooth(false)(
-    values as unknown as number[],
-  );
+  const box = gapBounds(gap, frame.width);
+  if (box === null) return [];
+  const w = box.c1 - box.c0;
+  const h = box.r1 - box.r0;
+  const values = new Float64Array(w * h);
+  for (let r = 0; r < h; r++) {
+    const from = (r + box.r0) * frame.width + box.c0;
+    for (let c = 0; c < w; c++) values[r * w + c] = gap[from + c];
+  }
+  const [multi] = contours().size([w, h]).thresholds([0.5]).smooth(false)(values as unknown as number[]);
+  const x0 = frame.originX + box.c0 * frame.cellSizeM;
+  const y0 = frame.originY - box.r0 * frame.cellSizeM;
   const polys = multi.coordinates.map((polygon) => ({
     rings: polygon.map((ring) => {
       const flat = new Float64Array(ring.length * 2);
-      ring.forEach(([c, r], k) => {
-        flat[2 * k] = frame.originX + c * frame.cellSizeM;
-        flat[2 * k + 1] = frame.originY - r * frame.cellSizeM;
-      });
+      for (let k = 0; k < ring.length; k++) {
+        flat[2 * k] = x0 + ring[k][0] * frame.cellSizeM;
+        flat[2 * k + 1] = y0 - ring[k][1] * frame.cellSizeM;
+      }
       return flat;
     }),
   }));
@@ -47,61 +84,63 @@ export function gapOutlinesXY(gap: Uint8Array, frame: GridFrame, limit = 400): G
   return polys.slice(0, limit);
 }
 
-/** One label per 8-connected gap component, largest first, at most `limit`. */
+/**
+ * One label per 8-connected gap component, largest first, at most `limit`. Flood fill with one
+ * typed array that holds the stack and, behind it, the members found so far of the component.
+ */
 export function gapLabelsXY(gap: Uint8Array, frame: GridFrame, limit = 50): GapLabelXY[] {
   const { width: w, height: h, cellSizeM } = frame;
   const seen = new Uint8Array(gap.length);
-  const stack: number[] = [];
+  // Members of the current component fill cells[0…count) in the order they were reached; the cells
+  // still to visit are the members not yet expanded, cells[next…count).
+  const cells = new Int32Array(gap.length);
   const labels: (GapLabelXY & { cells: number })[] = [];
-  const members: number[] = [];
   for (let start = 0; start < gap.length; start++) {
-    if (!gap[start] || seen[start]) continue;
-    members.length = 0;
-    stack.push(start);
+    if (gap[start] === 0 || seen[start] !== 0) continue;
+    let count = 0;
+    cells[count++] = start;
     seen[start] = 1;
     let sumC = 0;
     let sumR = 0;
-    while (stack.length > 0) {
-      const i = stack.pop() as number;
-      members.push(i);
-      const r = Math.floor(i / w);
+    for (let next = 0; next < count; next++) {
+      const i = cells[next];
+      const r = (i / w) | 0;
       const c = i - r * w;
       sumC += c;
       sumR += r;
-      for (let dr = -1; dr <= 1; dr++) {
-        const rr = r + dr;
-        if (rr < 0 || rr >= h) continue;
-        for (let dc = -1; dc <= 1; dc++) {
-          const cc = c + dc;
-          if (cc < 0 || cc >= w || (dr === 0 && dc === 0)) continue;
-          const j = rr * w + cc;
-          if (gap[j] && !seen[j]) {
+      const rLo = r > 0 ? r - 1 : 0;
+      const rHi = r < h - 1 ? r + 1 : h - 1;
+      const cLo = c > 0 ? c - 1 : 0;
+      const cHi = c < w - 1 ? c + 1 : w - 1;
+      for (let rr = rLo; rr <= rHi; rr++) {
+        for (let cc = cLo, j = rr * w + cLo; cc <= cHi; cc++, j++) {
+          if (gap[j] !== 0 && seen[j] === 0) {
             seen[j] = 1;
-            stack.push(j);
+            cells[count++] = j;
           }
         }
       }
     }
-    const n = members.length;
-    const mc = sumC / n;
-    const mr = sumR / n;
-    let best = members[0];
+    const mc = sumC / count;
+    const mr = sumR / count;
+    let best = cells[0];
     let bestD = Number.POSITIVE_INFINITY;
-    for (const i of members) {
-      const r = Math.floor(i / w);
+    for (let k = 0; k < count; k++) {
+      const i = cells[k];
+      const r = (i / w) | 0;
       const d = (i - r * w - mc) ** 2 + (r - mr) ** 2;
-      if (d < bestD) {
+      if (d < bestD || (d === bestD && i < best)) {
         bestD = d;
         best = i;
       }
     }
-    const br = Math.floor(best / w);
+    const br = (best / w) | 0;
     const bc = best - br * w;
     labels.push({
       x: frame.originX + (bc + 0.5) * cellSizeM,
       y: frame.originY - (br + 0.5) * cellSizeM,
-      areaM2: n * cellSizeM * cellSizeM,
-      cells: n,
+      areaM2: count * cellSizeM * cellSizeM,
+      cells: count,
     });
   }
   labels.sort((a, b) => b.cells - a.cells);

@@ -1,4 +1,6 @@
 // @vitest-environment jsdom
+
+import { contours } from "d3-contour";
 import { describe, expect, it } from "vitest";
 import type { Grid, GridFrame } from "../../src/coverage/grid";
 import { hillshadeIndices } from "../../src/map/hillshade";
@@ -44,6 +46,28 @@ describe("gap shapes", () => {
     expect(Math.max(...xs)).toBeLessThanOrEqual(1030);
     expect(Math.max(...ys)).toBeLessThanOrEqual(4995);
     expect(Math.min(...ys)).toBeGreaterThanOrEqual(4980);
+  });
+
+  it("outlines contoured on the gaps' bounding box equal d3-contour on the whole grid", () => {
+    const gap = new Uint8Array(frame.width * frame.height);
+    // Two blobs away from the grid edges and one on the eastern edge.
+    for (let r = 3; r <= 6; r++) for (let c = 7; c <= 9; c++) gap[r * frame.width + c] = 1;
+    gap[5 * frame.width + 12] = 1;
+    for (let r = 0; r <= 2; r++) gap[r * frame.width + 19] = 1;
+    const values = Array.from(gap);
+    const [whole] = contours().size([frame.width, frame.height]).thresholds([0.5]).smooth(false)(values);
+    const expected = whole.coordinates
+      .map((polygon) =>
+        polygon.map((ring) =>
+          ring.flatMap(([c, r]) => [
+            frame.originX + c * frame.cellSizeM,
+            frame.originY - r * frame.cellSizeM,
+          ]),
+        ),
+      )
+      .sort((a, b) => b[0].length - a[0].length);
+    const ours = gapOutlinesXY(gap, frame).map((p) => p.rings.map((ring) => Array.from(ring)));
+    expect(ours).toEqual(expected);
   });
 
   it("finds nothing without gaps", () => {
