@@ -344,6 +344,45 @@ function now(): number {
 }
 
 /**
+ * Lowest height above ground that at least one radar sees, per cell (NaN where none computed), into
+ * the previous result's array when it can be overwritten.
+ */
+function mergeLowestVisible(
+  site: PreparedSite,
+  radars: readonly RadarCoverage[],
+  prev: SiteResult | undefined,
+): Float32Array {
+  const n = site.frame.width * site.frame.height;
+  const w = site.frame.width;
+  const reusable =
+    prev !== undefined && prev.frame.width === site.frame.width && prev.frame.height === site.frame.height;
+  const lowest =
+    reusable &&
+    prev.lowestVisibleHeightAglM.length === n &&
+    !radars.some((r) => r.lowestVisibleHeightAglM === prev.lowestVisibleHeightAglM)
+      ? prev.lowestVisibleHeightAglM.fill(Number.NaN)
+      : new Float32Array(n).fill(Number.NaN);
+  for (const r of radars) {
+    const l = r.lowestVisibleHeightAglM;
+    // Outside its extent a radar's lowest height is NaN, which changes nothing here.
+    const e = r.extent;
+    const r0 = e ? e.rowMin : 0;
+    const r1 = e ? e.rowMax : site.frame.height - 1;
+    const c0 = e ? e.colMin : 0;
+    const c1 = e ? e.colMax : w - 1;
+    for (let row = r0; row <= r1; row++) {
+      const end = row * w + c1;
+      for (let i = row * w + c0; i <= end; i++) {
+        const v = l[i];
+        // v < lowest, or lowest NaN, for a v that is not NaN.
+        if (!Number.isNaN(v) && !(v >= lowest[i])) lowest[i] = v;
+      }
+    }
+  }
+  return lowest;
+}
+
+/**
  * Evaluate a prepared site: every enabled radar (from the cache when its key is unchanged), then per
  * target class and height the fused Pd, overlap, best radar, gaps and metrics.
  * @returns the SiteResult; throws CancelledError when cancelled, ObserverOutsideGridError for a radar
@@ -356,7 +395,8 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
     opts.runRadar ?? (async (s, i, m, reuse) => computeRadarCoverage(s, i, m, reuse));
   const previousById = new Map((opts.previous?.radars ?? []).map((r) => [r.radarId, r]));
 
-  const terrainId = siteTerrainId(site);
+  // Hashing the terrain costs tens of ms on a large grid; only the cache keys need it.
+  const terrainId = opts.cache ? siteTerrainId(site) : "";
   const total = site.radars.length;
   const computedRadarIds: string[] = [];
   const cachedRadarIds: string[] = [];
@@ -401,33 +441,10 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   const t1 = now();
 
   const n = site.frame.width * site.frame.height;
-  const w = site.frame.width;
   // Arrays of the previous result (which the caller no longer needs) are overwritten, not allocated.
   const prev = opts.previous;
   const reusable =
     prev !== undefined && prev.frame.width === site.frame.width && prev.frame.height === site.frame.height;
-  const lowest =
-    reusable &&
-    prev.lowestVisibleHeightAglM.length === n &&
-    !radars.some((r) => r.lowestVisibleHeightAglM === prev.lowestVisibleHeightAglM)
-      ? prev.lowestVisibleHeightAglM.fill(Number.NaN)
-      : new Float32Array(n).fill(Number.NaN);
-  for (const r of radars) {
-    const l = r.lowestVisibleHeightAglM;
-    // Outside its extent a radar's lowest height is NaN, which changes nothing here.
-    const e = r.extent;
-    const r0 = e ? e.rowMin : 0;
-    const r1 = e ? e.rowMax : site.frame.height - 1;
-    const c0 = e ? e.colMin : 0;
-    const c1 = e ? e.colMax : w - 1;
-    for (let row = r0; row <= r1; row++) {
-      const end = row * w + c1;
-      for (let i = row * w + c0; i <= end; i++) {
-        const v = l[i];
-        if (v < lowest[i] || (Number.isNaN(lowest[i]) && !Number.isNaN(v))) lowest[i] = v;
-      }
-    }
-  }
   const extents = radars.map((r) => r.extent);
   /** A previous fused height of this class and height, when its arrays can be overwritten. */
   const previousHeight = (targetId: string, h: number): SiteHeightResult | undefined =>
@@ -461,11 +478,13 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
     });
   });
   let fused: SiteHeightResult[];
+  let lowest: Float32Array;
   if (opts.runFusion) {
-    // Elsewhere (workers holding the radars' results): all steps in flight together.
+    // Elsewhere (workers holding the radars' results): all steps in flight together, the lowest
+    // visible height merged here meanwhile.
     const runFusion = opts.runFusion;
     checkCancel(opts);
-    fused = await Promise.all(
+    const steps = Promise.all(
       jobs.map(async (job) => {
         const r = await runFusion(site, job);
         fusionDone++;
@@ -473,8 +492,11 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
         return r;
       }),
     );
+    lowest = mergeLowestVisible(site, radars, prev);
+    fused = await steps;
     checkCancel(opts);
   } else {
+    lowest = mergeLowestVisible(site, radars, prev);
     fused = jobs.map((job) => {
       checkCancel(opts);
       const h = site.heightsAglM[job.heightIndex];

@@ -77,34 +77,36 @@ export function fuseHeight(input: FusionInput): FusedHeight {
   const gap = fits ? reuse.gap : new Uint8Array(n);
   const protectedArea = regions.protectedArea;
   const ring = regions.approachRing;
-  const width = extents !== undefined && input.width !== undefined && input.width > 0 ? input.width : n;
+  const width = input.width !== undefined && input.width > 0 ? input.width : n;
   const rows = width > 0 ? Math.ceil(n / width) : 0;
-  // Per row, the radars whose square reaches it, with their column span; radars in index order so
-  // the product below is formed in the same order as over all radars.
-  const active = new Int32Array(radarCount);
-  const colLo = new Int32Array(radarCount);
-  const colHi = new Int32Array(radarCount);
+  // Per row, radar by radar in index order over the columns its square covers (so the product
+  // below is formed in the same order as over all radars), into row accumulators; then the row's
+  // outputs. Each Pd raster is read once, along rows, with no per-cell test of its square.
+  const miss = new Float64Array(width);
+  const count = new Uint8Array(width);
+  const best = new Uint8Array(width);
+  const bestPd = new Float32Array(width);
   const rasters = pdPerRadar.slice();
   for (let row = 0; row < rows; row++) {
-    let na = 0;
-    for (let r = 0; r < radarCount; r++) {
-      const e = extents?.[r];
-      if (e === undefined) {
-        active[na] = r;
-        colLo[na] = 0;
-        colHi[na] = width - 1;
-        na++;
-      } else if (row >= e.rowMin && row <= e.rowMax) {
-        active[na] = r;
-        colLo[na] = e.colMin;
-        colHi[na] = e.colMax;
-        na++;
-      }
-    }
     const start = row * width;
     const end = Math.min(n, start + width);
-    // Cell by cell across the radars: each Pd raster is read once, each output written once.
+    miss.fill(1);
+    count.fill(0);
+    best.fill(NO_RADAR);
+    bestPd.fill(0);
+    for (let r = 0; r < radarCount; r++) {
+      const e = extents?.[r];
+      let lo = 0;
+      let hi = end - start - 1;
+      if (e !== undefined) {
+        if (row < e.rowMin || row > e.rowMax) continue;
+        lo = e.colMin;
+        hi = Math.min(hi, e.colMax);
+      }
+      accumulateRadarRow(rasters[r], r, start, lo, hi, requiredPd, miss, count, best, bestPd);
+    }
     for (let i = start; i < end; i++) {
+      const col = i - start;
       if (cellState[i] !== CellState.valid) {
         combinedPd[i] = 0;
         overlapCount[i] = 0;
@@ -112,31 +114,39 @@ export function fuseHeight(input: FusionInput): FusedHeight {
         gap[i] = 0;
         continue;
       }
-      const col = i - start;
-      let miss = 1;
-      let count = 0;
-      let best = NO_RADAR;
-      let bestPd = 0;
-      for (let a = 0; a < na; a++) {
-        if (col < colLo[a] || col > colHi[a]) continue;
-        const r = active[a];
-        const p = rasters[r][i];
-        if (!(p > 0)) continue;
-        miss *= 1 - p;
-        if (p >= requiredPd) count++;
-        if (p > bestPd) {
-          bestPd = p;
-          best = r;
-        }
-      }
-      const pdc = 1 - miss;
+      const pdc = 1 - miss[col];
       combinedPd[i] = pdc;
-      overlapCount[i] = count;
-      bestRadar[i] = best;
+      overlapCount[i] = count[col];
+      bestRadar[i] = best[col];
       gap[i] = (protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd ? 1 : 0;
     }
   }
   return { combinedPd, overlapCount, bestRadar, gap };
+}
+
+/** One radar's Pd over columns lo..hi of one row into the row accumulators of fuseHeight. */
+function accumulateRadarRow(
+  pd: Float32Array,
+  radar: number,
+  start: number,
+  lo: number,
+  hi: number,
+  requiredPd: number,
+  miss: Float64Array,
+  count: Uint8Array,
+  best: Uint8Array,
+  bestPd: Float32Array,
+): void {
+  for (let col = lo; col <= hi; col++) {
+    const p = pd[start + col];
+    if (!(p > 0)) continue;
+    miss[col] *= 1 - p;
+    if (p >= requiredPd) count[col]++;
+    if (p > bestPd[col]) {
+      bestPd[col] = p;
+      best[col] = radar;
+    }
+  }
 }
 
 /**

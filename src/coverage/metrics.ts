@@ -79,48 +79,49 @@ export interface MetricsInput {
   extents?: ReadonlyArray<RadarExtent | undefined>;
 }
 
-function regionFigures(
-  mask: Uint8Array,
-  cellState: Uint8Array,
-  combinedPd: Float32Array,
-  requiredPd: number,
-  cellAreaM2: number,
-): RegionFigures {
-  let cells = 0;
-  let validCells = 0;
-  let coveredCells = 0;
-  let inside = 0;
-  let nodata = 0;
-  for (let i = 0; i < mask.length; i++) {
-    if (!mask[i]) continue;
-    cells++;
-    const s = cellState[i];
-    if (s === CellState.insideObstruction) inside++;
-    else if (s === CellState.nodata) nodata++;
-    else {
-      validCells++;
-      if (combinedPd[i] >= requiredPd) coveredCells++;
-    }
-  }
+/** Cell counts of one region, gathered by heightMetrics' single pass over the grid. */
+interface RegionCounts {
+  cells: number;
+  validCells: number;
+  coveredCells: number;
+  inside: number;
+  nodata: number;
+}
+
+function regionFigures(c: RegionCounts, cellAreaM2: number): RegionFigures {
   return {
-    cells,
-    validCells,
-    coveredCells,
-    coveredFraction: validCells > 0 ? coveredCells / validCells : Number.NaN,
-    areaM2: cells * cellAreaM2,
-    coveredAreaM2: coveredCells * cellAreaM2,
-    insideObstructionCells: inside,
-    insideObstructionAreaM2: inside * cellAreaM2,
-    nodataCells: nodata,
+    cells: c.cells,
+    validCells: c.validCells,
+    coveredCells: c.coveredCells,
+    coveredFraction: c.validCells > 0 ? c.coveredCells / c.validCells : Number.NaN,
+    areaM2: c.cells * cellAreaM2,
+    coveredAreaM2: c.coveredCells * cellAreaM2,
+    insideObstructionCells: c.inside,
+    insideObstructionAreaM2: c.inside * cellAreaM2,
+    nodataCells: c.nodata,
   };
 }
 
-/** Label and stack arrays of gapComponents, kept between calls of one thread (labels cleared each call). */
-let scratch: { label: Int32Array; stack: Int32Array } | null = null;
+/** Adds one region cell of the given state to its counts. */
+function countRegionCell(c: RegionCounts, state: number, covered: boolean): void {
+  c.cells++;
+  if (state === CellState.insideObstruction) c.inside++;
+  else if (state === CellState.nodata) c.nodata++;
+  else {
+    c.validCells++;
+    if (covered) c.coveredCells++;
+  }
+}
 
-function componentScratch(n: number): { label: Int32Array; stack: Int32Array } {
+/**
+ * Visited flags and stack of gapComponents, kept between calls of one thread (flags cleared each
+ * call). Bytes, not labels: only "already in a component" is ever asked.
+ */
+let scratch: { label: Uint8Array; stack: Int32Array } | null = null;
+
+function componentScratch(n: number): { label: Uint8Array; stack: Int32Array } {
   if (scratch === null || scratch.label.length !== n) {
-    scratch = { label: new Int32Array(n), stack: new Int32Array(n) };
+    scratch = { label: new Uint8Array(n), stack: new Int32Array(n) };
   } else scratch.label.fill(0);
   return scratch;
 }
@@ -151,7 +152,7 @@ export function gapComponents(
     count++;
     let top = 0;
     stack[top++] = start;
-    label[start] = count;
+    label[start] = 1;
     let size = 0;
     let sumCol = 0;
     let sumRow = 0;
@@ -170,7 +171,7 @@ export function gapComponents(
           if (c < 0 || c >= width || (dr === 0 && dc === 0)) continue;
           const j = r * width + c;
           if (gap[j] && !label[j]) {
-            label[j] = count;
+            label[j] = 1;
             stack[top++] = j;
           }
         }
@@ -191,46 +192,60 @@ export function heightMetrics(input: MetricsInput): HeightMetrics {
   const { fused, pdPerRadar, radarIds, requiredPd, cellState, regions, width, height, cellSizeM } = input;
   const { originX, originY } = input;
   const cellAreaM2 = cellSizeM * cellSizeM;
-  const protectedArea = regionFigures(
-    regions.protectedArea,
-    cellState,
-    fused.combinedPd,
-    requiredPd,
-    cellAreaM2,
-  );
-  const approachRing = regionFigures(
-    regions.approachRing,
-    cellState,
-    fused.combinedPd,
-    requiredPd,
-    cellAreaM2,
-  );
   const comps = gapComponents(fused.gap, width, height);
-  const overlapHistogram = new Array<number>(pdPerRadar.length + 1).fill(0);
-  const coveredCells = new Array<number>(pdPerRadar.length).fill(0);
-  const onlyCells = new Array<number>(pdPerRadar.length).fill(0);
-  const n = cellState.length;
   const radarCount = pdPerRadar.length;
+  const overlapHistogram = new Array<number>(radarCount + 1).fill(0);
+  const coveredCells = new Array<number>(radarCount).fill(0);
+  const onlyCells = new Array<number>(radarCount).fill(0);
   const extents = input.extents;
   const overlap = fused.overlapCount;
+  const combinedPd = fused.combinedPd;
   const pa = regions.protectedArea;
   const ring = regions.approachRing;
-  for (let i = 0; i < n; i++) {
-    if ((pa[i] | ring[i]) === 0 || cellState[i] !== CellState.valid) continue;
-    const k = overlap[i];
-    overlapHistogram[k]++;
-    if (k === 0) continue;
-    const row = (i / width) | 0;
-    const col = i - row * width;
+  const paCounts: RegionCounts = { cells: 0, validCells: 0, coveredCells: 0, inside: 0, nodata: 0 };
+  const ringCounts: RegionCounts = { cells: 0, validCells: 0, coveredCells: 0, inside: 0, nodata: 0 };
+  const valid = CellState.valid;
+  // Per row, the radars whose square reaches it and their column spans (as in fuseHeight).
+  const active = new Int32Array(radarCount);
+  const colLo = new Int32Array(radarCount);
+  const colHi = new Int32Array(radarCount);
+  // One pass over the grid, row by row: region figures, overlap histogram and per-radar areas.
+  for (let row = 0; row < height; row++) {
+    const start = row * width;
+    let na = 0;
     for (let r = 0; r < radarCount; r++) {
       const e = extents?.[r];
-      if (e !== undefined && (row < e.rowMin || row > e.rowMax || col < e.colMin || col > e.colMax)) continue;
-      if (pdPerRadar[r][i] >= requiredPd) {
-        coveredCells[r]++;
-        if (k === 1) onlyCells[r]++;
+      if (e !== undefined && (row < e.rowMin || row > e.rowMax)) continue;
+      active[na] = r;
+      colLo[na] = e === undefined ? 0 : e.colMin;
+      colHi[na] = e === undefined ? width - 1 : e.colMax;
+      na++;
+    }
+    for (let col = 0; col < width; col++) {
+      const i = start + col;
+      const inPa = pa[i];
+      const inRing = ring[i];
+      if ((inPa | inRing) === 0) continue;
+      const state = cellState[i];
+      const covered = combinedPd[i] >= requiredPd;
+      if (inPa) countRegionCell(paCounts, state, covered);
+      if (inRing) countRegionCell(ringCounts, state, covered);
+      if (state !== valid) continue;
+      const k = overlap[i];
+      overlapHistogram[k]++;
+      if (k === 0) continue;
+      for (let a = 0; a < na; a++) {
+        if (col < colLo[a] || col > colHi[a]) continue;
+        const r = active[a];
+        if (pdPerRadar[r][i] >= requiredPd) {
+          coveredCells[r]++;
+          if (k === 1) onlyCells[r]++;
+        }
       }
     }
   }
+  const protectedArea = regionFigures(paCounts, cellAreaM2);
+  const approachRing = regionFigures(ringCounts, cellAreaM2);
   return {
     heightAglM: input.heightAglM,
     protectedArea,
