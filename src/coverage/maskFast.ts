@@ -8,18 +8,24 @@
  * through the point where the sight line crosses the previous grid line, interpolated between the two
  * cells it passes between. Rules TM1–TM7, TM9 in docs/model-spec.md.
  *
- * Speed: the distance, its reciprocal, the curvature drop and the interpolation weights depend only on
- * (|dx|, |dy|), so they are tabulated once per |dy| (one interleaved array) and serve the four cells
- * (±dx, ±dy). Each half row is split where the sight line changes the grid line it crosses (|dx| < |dy|,
- * the diagonal, |dx| > |dy|) and where the nearer of the two neighbours changes, so the inner loops carry
- * no branch on geometry; the rows |dy| north and south are swept in one pass, reading each table entry
- * once for both. A row's observable heights and obstacle distances share one interleaved array.
+ * Speed: the four quadrants (NE, SE, NW, SW) are "lanes" that meet the same geometry at the same
+ * (|dx|, |dy|), so they are advanced side by side, one loop iteration per |dx| for all four. One work
+ * array indexed by |dx| (stride S) holds that row's table (distance, its reciprocal, the curvature drop,
+ * the two interpolation weights) and each lane's observable height and obstacle distance for the previous
+ * and the current row (two row sets that swap roles with the row's parity): one index serves every table
+ * and state access, and a lane step carries no value from the previous column in registers. The work
+ * array is a plain array of doubles, not a Float64Array: V8 keeps it unboxed (PACKED_DOUBLE_ELEMENTS) and
+ * reaches its elements through one pointer, where a typed-array access adds the external pointer and
+ * sign-extends the index every time (1.2× on the whole sweep). Each half row is split where the sight
+ * line changes the grid line it crosses (|dx| < |dy|, the diagonal, |dx| > |dy|) and where the nearer of
+ * the two neighbours changes; one loop serves the four resulting segments through the offsets of the two
+ * neighbours it reads.
  */
 
 import type { SweepSetup } from "./terrainMask.ts";
 
-/** Table entries per |dx|: level, 1/distance, distance, two interpolation weights. */
-const TS = 5;
+/** Stride of the work array per |dx|: 5 table entries, then 2 row sets × 4 lanes × (height, distance). */
+const S = 21;
 /** Antenna height plus the curvature drop, m ASL: a cell's height relative to the antenna is z − level. */
 const T_LEVEL = 0;
 /** 1 / distance, m⁻¹. */
@@ -30,24 +36,19 @@ const T_DIST = 2;
 const T_W_DIAG = 3;
 /** Weight of the other neighbour: (|dx|, |dy|−1) where |dx| < |dy|, (|dx|−1, |dy|) where |dx| > |dy|. */
 const T_W_SIDE = 4;
+/** Offset of the row set of even |dy|; odd |dy| at +8. Within a set, lane q at +2q: height, then distance. */
+const STATE = 5;
+/** Lanes: the quadrant's offset within a row set. */
+const LANE_NE = 0;
+const LANE_SE = 2;
+const LANE_NW = 4;
+const LANE_SW = 6;
 
-/**
- * Row buffers of one direction (north or south), reused across rows: per column c the observable height
- * (m relative to the antenna) at [2c] and the distance of the obstruction that set it (m) at [2c + 1].
- */
-interface RowBuffers {
-  last: Float64Array;
-  current: Float64Array;
-}
-
-function rowBuffers(w: number): RowBuffers {
-  return { last: new Float64Array(2 * w), current: new Float64Array(2 * w) };
-}
-
-function swap(b: RowBuffers): void {
-  const t = b.last;
-  b.last = b.current;
-  b.current = t;
+/** The output arrays and the surface, shared by every piece of a sweep. */
+interface Target {
+  z: Float32Array;
+  outSlope: Float32Array;
+  outObstacleM: Float32Array;
 }
 
 /**
@@ -59,12 +60,13 @@ export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObs
   const oc = s.observerCol;
   const or = s.observerRow;
   const cell = s.cellSizeM;
-  const north = rowBuffers(w);
-  const south = rowBuffers(w);
   const reachMax = Math.max(oc, w - 1 - oc);
-  const table = new Float64Array(TS * (reachMax + 1));
+  // Filled with a double (not 0) so that V8 keeps the array unboxed from the start.
+  const work: number[] = [];
+  for (let i = 0; i < S * (reachMax + 1); i++) work.push(0.5);
   const inv = new Float64Array(Math.max(s.width, s.height) + 1);
   for (let i = 1; i < inv.length; i++) inv[i] = 1 / i;
+  const target: Target = { z: s.z, outSlope, outObstacleM };
   const rangeCells = s.maxRangeM / cell;
   const exclCells = s.ownFootprintRadiusM / cell;
   const excl2 = exclCells * exclCells;
@@ -77,31 +79,53 @@ export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObs
       ? Math.floor(Math.sqrt(rangeCells * rangeCells - ady * ady))
       : reachMax;
     const reach = Math.min(halfSpan, reachMax);
-    const cLo = Math.max(0, oc - halfSpan);
-    const cHi = Math.min(w - 1, oc + halfSpan);
-    fillRowTable(table, inv, reach, ady, s);
+    const reachE = Math.min(w - 1, oc + halfSpan) - oc;
+    const reachW = oc - Math.max(0, oc - halfSpan);
+    fillRowTable(work, inv, reach, ady, s);
+    const cur = STATE + 8 * (ady & 1);
+    const last = STATE + 8 * ((ady + 1) & 1);
+    const izN = (or - ady) * w + oc;
+    const izS = (or + ady) * w + oc;
     // Rows inside the footprint (and the first two) take the general path with every test.
-    const general = ady <= 1 || ady * ady <= excl2;
-    if (ady === 0) {
-      sweepRowGeneral(s, north, table, inv, or, cLo, cHi, outSlope, outObstacleM);
-      south.current.set(north.current);
+    if (ady <= 1 || ady * ady <= excl2) {
+      if (ady <= nNorth) {
+        generalRow(target, work, inv, izN, ady, reachE, reachW, cur + LANE_NE, cur + LANE_NW, last, excl2);
+      }
+      if (ady === 0) {
+        // The observer's row starts both the north and the south sweeps.
+        for (let k = 0; k <= S * reachMax; k += S) {
+          work[k + cur + LANE_SE] = work[k + cur + LANE_NE];
+          work[k + cur + LANE_SE + 1] = work[k + cur + LANE_NE + 1];
+          work[k + cur + LANE_SW] = work[k + cur + LANE_NW];
+          work[k + cur + LANE_SW + 1] = work[k + cur + LANE_NW + 1];
+        }
+      } else if (ady <= nSouth) {
+        generalRow(target, work, inv, izS, ady, reachE, reachW, cur + LANE_SE, cur + LANE_SW, last, excl2);
+      }
       continue;
     }
-    if (!general && ady <= nNorth && ady <= nSouth) {
-      swap(north);
-      swap(south);
-      sweepRowPair(s, north, south, table, inv, ady, cLo, cHi, outSlope, outObstacleM);
-      continue;
-    }
-    if (ady <= nNorth) {
-      swap(north);
-      if (general) sweepRowGeneral(s, north, table, inv, or - ady, cLo, cHi, outSlope, outObstacleM);
-      else sweepRow(s, north, table, inv, or - ady, cLo, cHi, outSlope, outObstacleM);
-    }
-    if (ady <= nSouth) {
-      swap(south);
-      if (general) sweepRowGeneral(s, south, table, inv, or + ady, cLo, cHi, outSlope, outObstacleM);
-      else sweepRow(s, south, table, inv, or + ady, cLo, cHi, outSlope, outObstacleM);
+    const both = ady <= nNorth && ady <= nSouth;
+    if (ady <= nNorth)
+      observerColumn(target, work, inv, izN, ady, last + LANE_NE, cur, LANE_NE, LANE_NW, both);
+    if (ady <= nSouth)
+      observerColumn(target, work, inv, izS, ady, last + LANE_SE, cur, LANE_SE, LANE_SW, both);
+    if (both) {
+      // Four lanes while both halves are on the grid, then the longer half's two.
+      const common = Math.min(reachE, reachW);
+      sweepSegments(target, work, ady, 1, common, last, cur, izN, izS, 4);
+      if (reachE > common) sweepSegments(target, work, ady, common + 1, reachE, last, cur, izN, izS, 2);
+      if (reachW > common) sweepSegments(target, work, ady, common + 1, reachW, last, cur, izN, izS, -2);
+    } else {
+      const north = ady <= nNorth;
+      const iz = north ? izN : izS;
+      const laneE = north ? LANE_NE : LANE_SE;
+      const laneW = north ? LANE_NW : LANE_SW;
+      const common = Math.min(reachE, reachW);
+      sweepSegmentsOneRow(target, work, ady, 1, common, last, cur, iz, 1, laneE, iz, -1, laneW);
+      if (reachE > common)
+        sweepSegmentsOneRow(target, work, ady, common + 1, reachE, last, cur, iz, 1, laneE, iz, 1, laneE);
+      if (reachW > common)
+        sweepSegmentsOneRow(target, work, ady, common + 1, reachW, last, cur, iz, -1, laneW, iz, -1, laneW);
     }
   }
 }
@@ -111,13 +135,13 @@ export function computeHorizonFast(s: SweepSetup, outSlope: Float32Array, outObs
  * dx² + dy²: V8 writes vsqrtsd into a register it also merges from, and with that ordering the square root
  * does not wait on the previous iteration's division.
  */
-function fillRowTable(t: Float64Array, inv: Float64Array, reach: number, ady: number, s: SweepSetup): void {
+function fillRowTable(t: number[], inv: Float64Array, reach: number, ady: number, s: SweepSetup): void {
   const cell = s.cellSizeM;
   const curv = s.curvaturePerM;
   const antenna = s.antennaHeightAslM;
   const ady2 = ady * ady;
   const invSteep = ady > 1 ? inv[ady - 1] : 0;
-  for (let adx = 0, k = 0; adx <= reach; adx++, k += TS) {
+  for (let adx = 0, k = 0; adx <= reach; adx++, k += S) {
     const dM = Math.sqrt(adx * adx + ady2) * cell;
     t[k + T_LEVEL] = antenna + dM * dM * curv;
     t[k + T_INV_DIST] = 1 / dM;
@@ -138,636 +162,510 @@ function fillRowTable(t: Float64Array, inv: Float64Array, reach: number, ady: nu
   }
 }
 
-/** One row with every test (observer's row, ring 1, footprint rows). */
-function sweepRowGeneral(
-  s: SweepSetup,
-  b: RowBuffers,
-  t: Float64Array,
+/**
+ * One row with every test (observer's row, ring 1, footprint rows): the observer's column, then each half
+ * row outward. `laneE`/`laneW` are the absolute offsets of the current row's lanes, `last` the previous
+ * row set's.
+ */
+function generalRow(
+  tg: Target,
+  work: number[],
   inv: Float64Array,
-  row: number,
-  cLo: number,
-  cHi: number,
-  outSlope: Float32Array,
-  outObstacleM: Float32Array,
+  iz: number,
+  ady: number,
+  reachE: number,
+  reachW: number,
+  laneE: number,
+  laneW: number,
+  last: number,
+  excl2: number,
 ): void {
-  const w = s.width;
-  const oc = s.observerCol;
-  const cell = s.cellSizeM;
-  const ady = Math.abs(row - s.observerRow);
-  const z = s.z;
-  const base = row * w;
-  const excl2 = (s.ownFootprintRadiusM / cell) * (s.ownFootprintRadiusM / cell);
-  const last = b.last;
-  const cur = b.current;
-  const ady2 = ady * ady;
   const NEG = Number.NEGATIVE_INFINITY;
-
+  const z = tg.z;
+  const lastE = last + ((laneE - STATE) & 7);
+  const lastW = last + ((laneW - STATE) & 7);
   // Observer's column.
   {
-    const idx = base + oc;
-    const zc = z[idx];
-    const rel = zc - t[T_LEVEL];
+    const zc = z[iz];
+    const rel = zc - work[T_LEVEL];
     let zp: number;
     let zo: number;
     if (ady <= 1) {
       zp = NEG;
       zo = Number.NaN;
     } else {
-      zp = last[2 * oc] * ady * inv[ady - 1];
-      zo = last[2 * oc + 1];
+      zp = work[lastE] * ady * inv[ady - 1];
+      zo = work[lastE + 1];
     }
-    outSlope[idx] = Number.NaN;
-    outObstacleM[idx] = Number.NaN;
+    tg.outSlope[iz] = Number.NaN;
+    tg.outObstacleM[iz] = Number.NaN;
+    let h: number;
+    let od: number;
     if (ady === 0) {
       // The observer's own cell never obstructs (TM2).
-      cur[2 * oc] = NEG;
-      cur[2 * oc + 1] = Number.NaN;
-      if (!Number.isNaN(zc)) outSlope[idx] = NEG;
+      h = NEG;
+      od = Number.NaN;
+      if (!Number.isNaN(zc)) tg.outSlope[iz] = NEG;
     } else {
       if (!Number.isNaN(zc)) {
-        outSlope[idx] = zp * t[T_INV_DIST];
-        outObstacleM[idx] = zo;
+        tg.outSlope[iz] = zp * work[T_INV_DIST];
+        tg.outObstacleM[iz] = zo;
       }
-      if (rel > zp && ady2 > excl2) {
-        cur[2 * oc] = rel;
-        cur[2 * oc + 1] = t[T_DIST];
-      } else {
-        cur[2 * oc] = zp;
-        cur[2 * oc + 1] = zo;
-      }
+      const up = rel > zp && ady * ady > excl2;
+      h = up ? rel : zp;
+      od = up ? work[T_DIST] : zo;
     }
+    work[laneE] = h;
+    work[laneE + 1] = od;
+    work[laneW] = h;
+    work[laneW + 1] = od;
   }
-  // Right half (dir +1) and left half (dir −1). The values of the previous column (this row and the row
-  // nearer the observer) ride along in locals rather than being read back from the buffers.
-  for (let dir = 1; dir >= -1; dir -= 2) {
-    const reach = dir > 0 ? cHi - oc : oc - cLo;
-    let prevH = cur[2 * oc];
-    let prevOd = cur[2 * oc + 1];
-    let lastPrevH = last[2 * oc];
-    let lastPrevOd = last[2 * oc + 1];
-    for (let adx = 1; adx <= reach; adx++) {
-      const c = oc + dir * adx;
-      const idx = base + c;
-      const zc = z[idx];
-      const lastH = last[2 * c];
-      const lastOdC = last[2 * c + 1];
-      const d2 = adx * adx + ady2;
-      const rel = zc - t[TS * adx + T_LEVEL];
-      let zp: number;
-      let zo: number;
-      if (adx > ady) {
-        if (ady === 0) {
-          zp = adx === 1 ? NEG : prevH * adx * inv[adx - 1];
-          zo = prevOd;
-        } else {
-          // Crosses column adx−1 between rows ady−1 (weight ady/adx) and ady.
-          zp = (lastPrevH * ady + prevH * (adx - ady)) * inv[adx - 1];
-          zo = 2 * ady < adx ? prevOd : lastPrevOd;
-        }
-      } else if (adx === ady) {
-        zp = adx === 1 ? NEG : lastPrevH * adx * inv[adx - 1];
-        zo = lastPrevOd;
-      } else {
-        // Crosses row ady−1 between columns adx−1 (weight adx/ady) and adx.
-        zp = (lastPrevH * adx + lastH * (ady - adx)) * inv[ady - 1];
-        zo = 2 * adx < ady ? lastOdC : lastPrevOd;
-      }
-      // Nothing obstructs: no obstacle distance. (A neighbour that saw nothing has a -Infinity height,
-      // so the projection is -Infinity whenever the nearer neighbour's obstacle distance is NaN.)
-      if (!(zp > NEG)) zo = Number.NaN;
-      if (!Number.isNaN(zc)) {
-        outSlope[idx] = zp * t[TS * adx + T_INV_DIST];
-        outObstacleM[idx] = zo;
-      } else {
-        outSlope[idx] = Number.NaN;
-        outObstacleM[idx] = Number.NaN;
-      }
-      if (rel > zp && d2 > excl2) {
-        prevH = rel;
-        prevOd = t[TS * adx + T_DIST];
-      } else {
-        prevH = zp;
-        prevOd = zo;
-      }
-      cur[2 * c] = prevH;
-      cur[2 * c + 1] = prevOd;
-      lastPrevH = lastH;
-      lastPrevOd = lastOdC;
-    }
-  }
+  generalHalfRow(tg, work, inv, iz, 1, ady, reachE, laneE, lastE, excl2);
+  generalHalfRow(tg, work, inv, iz, -1, ady, reachW, laneW, lastW, excl2);
 }
 
-/**
- * One row at |dy| ≥ 2 outside the footprint: the half rows in segments with no geometry test inside.
- * A nodata cell (NaN) writes NaN through `zc − zc` and never raises the observable height (NaN > x is false).
- */
-function sweepRow(
-  s: SweepSetup,
-  b: RowBuffers,
-  t: Float64Array,
+/** One half row of generalRow, outward in direction `dir` (±1). */
+function generalHalfRow(
+  tg: Target,
+  work: number[],
   inv: Float64Array,
-  row: number,
-  cLo: number,
-  cHi: number,
-  outSlope: Float32Array,
-  outObstacleM: Float32Array,
-): void {
-  const oc = s.observerCol;
-  const ady = Math.abs(row - s.observerRow);
-  const z = s.z;
-  const base = row * s.width;
-  const last = b.last;
-  const cur = b.current;
-  // Literals: TurboFan folds them to float constants (a Number.* property load is unboxed in the loop).
-  const NEG = -Infinity;
-  const NAN = NaN;
-  // Table offsets as locals: TurboFan folds them, where module constants are reloaded on every access.
-  const tLevel = T_LEVEL;
-  const tInvDist = T_INV_DIST;
-  const tDist = T_DIST;
-  const tWDiag = T_W_DIAG;
-  const tWSide = T_W_SIDE;
-  const ts = TS;
-
-  // Observer's column: straight out along the column.
-  // Same as the observer's column in sweepRowPair, which sweeps two rows at once; change both.
-  {
-    const idx = base + oc;
-    const zc = z[idx];
-    const rel = zc - t[tLevel];
-    const zp = last[2 * oc] * ady * inv[ady - 1];
-    const zo = last[2 * oc + 1];
-    const nan = zc - zc;
-    outSlope[idx] = zp * t[tInvDist] + nan;
-    outObstacleM[idx] = zo + nan;
-    const up = rel > zp;
-    cur[2 * oc] = up ? rel : zp;
-    cur[2 * oc + 1] = up ? t[tDist] : zo;
-  }
-  const halfSteep = (ady + 1) >> 1; // |dx| < halfSteep ⇔ 2|dx| < |dy|
-  for (let dir = 1; dir >= -1; dir -= 2) {
-    const reach = dir > 0 ? cHi - oc : oc - cLo;
-    const dir2 = 2 * dir;
-    let lastPrevH = last[2 * oc];
-    let lastPrevOd = last[2 * oc + 1];
-    let idx = base + oc;
-    let cb = 2 * oc;
-    let k = 0;
-    // Steep part, |dx| < |dy|: the sight line crosses row |dy|−1 between columns |dx|−1 and |dx|.
-    const steepEnd = Math.min(ady - 1, reach);
-    const nearEnd = Math.min(halfSteep - 1, steepEnd);
-    // Nearer neighbour: the same column of the previous row.
-    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
-    for (let adx = 1; adx <= nearEnd; adx++) {
-      idx += dir;
-      cb += dir2;
-      k += ts;
-      const zc = z[idx];
-      const lastH = last[cb];
-      const lastOdC = last[cb + 1];
-      const rel = zc - t[k + tLevel];
-      const zp = lastPrevH * t[k + tWDiag] + lastH * t[k + tWSide];
-      const zo = zp > NEG ? lastOdC : NAN;
-      const nan = zc - zc;
-      outSlope[idx] = zp * t[k + tInvDist] + nan;
-      outObstacleM[idx] = zo + nan;
-      if (rel > zp) {
-        cur[cb] = rel;
-        cur[cb + 1] = t[k + tDist];
-      } else {
-        cur[cb] = zp;
-        cur[cb + 1] = zo;
-      }
-      lastPrevH = lastH;
-      lastPrevOd = lastOdC;
-    }
-    // Nearer neighbour: the previous column of the previous row.
-    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
-    for (let adx = nearEnd + 1; adx <= steepEnd; adx++) {
-      idx += dir;
-      cb += dir2;
-      k += ts;
-      const zc = z[idx];
-      const lastH = last[cb];
-      const lastOdC = last[cb + 1];
-      const rel = zc - t[k + tLevel];
-      const zp = lastPrevH * t[k + tWDiag] + lastH * t[k + tWSide];
-      const zo = zp > NEG ? lastPrevOd : NAN;
-      const nan = zc - zc;
-      outSlope[idx] = zp * t[k + tInvDist] + nan;
-      outObstacleM[idx] = zo + nan;
-      if (rel > zp) {
-        cur[cb] = rel;
-        cur[cb + 1] = t[k + tDist];
-      } else {
-        cur[cb] = zp;
-        cur[cb + 1] = zo;
-      }
-      lastPrevH = lastH;
-      lastPrevOd = lastOdC;
-    }
-    if (reach < ady) continue;
-    // Diagonal: straight through the previous diagonal cell.
-    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
-    let prevH: number;
-    let prevOd: number;
-    {
-      idx += dir;
-      cb += dir2;
-      k += ts;
-      const zc = z[idx];
-      const rel = zc - t[k + tLevel];
-      const zp = lastPrevH * t[k + tWDiag];
-      const zo = lastPrevOd;
-      const nan = zc - zc;
-      outSlope[idx] = zp * t[k + tInvDist] + nan;
-      outObstacleM[idx] = zo + nan;
-      if (rel > zp) {
-        prevH = rel;
-        prevOd = t[k + tDist];
-      } else {
-        prevH = zp;
-        prevOd = zo;
-      }
-      cur[cb] = prevH;
-      cur[cb + 1] = prevOd;
-      lastPrevH = last[cb];
-      lastPrevOd = last[cb + 1];
-    }
-    // Shallow part, |dx| > |dy|: the sight line crosses column |dx|−1 between rows |dy|−1 and |dy|.
-    const farStart = Math.min(2 * ady, reach); // 2|dy| < |dx| beyond
-    // Nearer neighbour: the previous column of the previous row.
-    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
-    for (let adx = ady + 1; adx <= farStart; adx++) {
-      idx += dir;
-      cb += dir2;
-      k += ts;
-      const zc = z[idx];
-      const lastH = last[cb];
-      const lastOdC = last[cb + 1];
-      const rel = zc - t[k + tLevel];
-      const zp = lastPrevH * t[k + tWDiag] + prevH * t[k + tWSide];
-      const zo = zp > NEG ? lastPrevOd : NAN;
-      const nan = zc - zc;
-      outSlope[idx] = zp * t[k + tInvDist] + nan;
-      outObstacleM[idx] = zo + nan;
-      if (rel > zp) {
-        prevH = rel;
-        prevOd = t[k + tDist];
-      } else {
-        prevH = zp;
-        prevOd = zo;
-      }
-      cur[cb] = prevH;
-      cur[cb + 1] = prevOd;
-      lastPrevH = lastH;
-      lastPrevOd = lastOdC;
-    }
-    // Nearer neighbour: the previous column of this row.
-    // Same loop as this segment in sweepRowPair, which sweeps two rows at once; change both.
-    for (let adx = farStart + 1; adx <= reach; adx++) {
-      idx += dir;
-      cb += dir2;
-      k += ts;
-      const zc = z[idx];
-      const lastH = last[cb];
-      const rel = zc - t[k + tLevel];
-      const zp = lastPrevH * t[k + tWDiag] + prevH * t[k + tWSide];
-      const zo = zp > NEG ? prevOd : NAN;
-      const nan = zc - zc;
-      outSlope[idx] = zp * t[k + tInvDist] + nan;
-      outObstacleM[idx] = zo + nan;
-      if (rel > zp) {
-        prevH = rel;
-        prevOd = t[k + tDist];
-      } else {
-        prevH = zp;
-        prevOd = zo;
-      }
-      cur[cb] = prevH;
-      cur[cb + 1] = prevOd;
-      lastPrevH = lastH;
-    }
-  }
-}
-
-/**
- * The rows |dy| north and south of the observer (|dy| ≥ 2, outside the footprint) in one pass: the same
- * segments as sweepRow, each column's table entries read once for both rows.
- */
-function sweepRowPair(
-  s: SweepSetup,
-  bn: RowBuffers,
-  bs: RowBuffers,
-  t: Float64Array,
-  inv: Float64Array,
+  iz: number,
+  dir: number,
   ady: number,
-  cLo: number,
-  cHi: number,
-  outSlope: Float32Array,
-  outObstacleM: Float32Array,
+  reach: number,
+  lane: number,
+  lastLane: number,
+  excl2: number,
 ): void {
-  const oc = s.observerCol;
-  const z = s.z;
-  const baseN = (s.observerRow - ady) * s.width;
-  const baseS = (s.observerRow + ady) * s.width;
-  const lastN = bn.last;
-  const curN = bn.current;
-  const lastS = bs.last;
-  const curS = bs.current;
-  // Literals and locals: TurboFan folds them (module constants are reloaded on every access).
-  const NEG = -Infinity;
-  const NAN = NaN;
-  const tLevel = T_LEVEL;
-  const tInvDist = T_INV_DIST;
-  const tDist = T_DIST;
-  const tWDiag = T_W_DIAG;
-  const tWSide = T_W_SIDE;
-  const ts = TS;
-
-  // Observer's column: straight out along the column.
-  // Same as sweepRow's observer's column, for the north and south rows; change both.
-  {
-    const axis = ady * inv[ady - 1];
-    const level = t[tLevel];
-    const invD = t[tInvDist];
-    const dM = t[tDist];
-    const zn = z[baseN + oc];
-    const zs = z[baseS + oc];
-    const relN = zn - level;
-    const relS = zs - level;
-    const zpN = lastN[2 * oc] * axis;
-    const zpS = lastS[2 * oc] * axis;
-    const zoN = lastN[2 * oc + 1];
-    const zoS = lastS[2 * oc + 1];
-    const nanN = zn - zn;
-    const nanS = zs - zs;
-    outSlope[baseN + oc] = zpN * invD + nanN;
-    outObstacleM[baseN + oc] = zoN + nanN;
-    outSlope[baseS + oc] = zpS * invD + nanS;
-    outObstacleM[baseS + oc] = zoS + nanS;
-    const upN = relN > zpN;
-    curN[2 * oc] = upN ? relN : zpN;
-    curN[2 * oc + 1] = upN ? dM : zoN;
-    const upS = relS > zpS;
-    curS[2 * oc] = upS ? relS : zpS;
-    curS[2 * oc + 1] = upS ? dM : zoS;
+  const NEG = Number.NEGATIVE_INFINITY;
+  const z = tg.z;
+  const ady2 = ady * ady;
+  // The values of the previous column (this row and the row nearer the observer).
+  let prevH = work[lane];
+  let prevOd = work[lane + 1];
+  let lastPrevH = work[lastLane];
+  let lastPrevOd = work[lastLane + 1];
+  for (let adx = 1; adx <= reach; adx++) {
+    const k = S * adx;
+    const idx = iz + dir * adx;
+    const zc = z[idx];
+    const lastH = work[k + lastLane];
+    const lastOdC = work[k + lastLane + 1];
+    const d2 = adx * adx + ady2;
+    const rel = zc - work[k + T_LEVEL];
+    let zp: number;
+    let zo: number;
+    if (adx > ady) {
+      if (ady === 0) {
+        zp = adx === 1 ? NEG : prevH * adx * inv[adx - 1];
+        zo = prevOd;
+      } else {
+        // Crosses column adx−1 between rows ady−1 (weight ady/adx) and ady.
+        zp = (lastPrevH * ady + prevH * (adx - ady)) * inv[adx - 1];
+        zo = 2 * ady < adx ? prevOd : lastPrevOd;
+      }
+    } else if (adx === ady) {
+      zp = adx === 1 ? NEG : lastPrevH * adx * inv[adx - 1];
+      zo = lastPrevOd;
+    } else {
+      // Crosses row ady−1 between columns adx−1 (weight adx/ady) and adx.
+      zp = (lastPrevH * adx + lastH * (ady - adx)) * inv[ady - 1];
+      zo = 2 * adx < ady ? lastOdC : lastPrevOd;
+    }
+    // Nothing obstructs: no obstacle distance. (A neighbour that saw nothing has a -Infinity height,
+    // so the projection is -Infinity whenever the nearer neighbour's obstacle distance is NaN.)
+    if (!(zp > NEG)) zo = Number.NaN;
+    if (!Number.isNaN(zc)) {
+      tg.outSlope[idx] = zp * work[k + T_INV_DIST];
+      tg.outObstacleM[idx] = zo;
+    } else {
+      tg.outSlope[idx] = Number.NaN;
+      tg.outObstacleM[idx] = Number.NaN;
+    }
+    if (rel > zp && d2 > excl2) {
+      prevH = rel;
+      prevOd = work[k + T_DIST];
+    } else {
+      prevH = zp;
+      prevOd = zo;
+    }
+    work[k + lane] = prevH;
+    work[k + lane + 1] = prevOd;
+    lastPrevH = lastH;
+    lastPrevOd = lastOdC;
   }
-  const halfSteep = (ady + 1) >> 1; // |dx| < halfSteep ⇔ 2|dx| < |dy|
-  for (let dir = 1; dir >= -1; dir -= 2) {
-    const reach = dir > 0 ? cHi - oc : oc - cLo;
-    const dir2 = 2 * dir;
-    let lpHN = lastN[2 * oc];
-    let lpON = lastN[2 * oc + 1];
-    let lpHS = lastS[2 * oc];
-    let lpOS = lastS[2 * oc + 1];
-    let c = oc;
-    let cb = 2 * oc;
-    let k = 0;
-    const steepEnd = Math.min(ady - 1, reach);
-    const nearEnd = Math.min(halfSteep - 1, steepEnd);
-    // Steep part, nearer neighbour the same column of the previous row.
-    // Same as sweepRow's steep part, same-column neighbour, for the north and south rows; change both.
-    for (let adx = 1; adx <= nearEnd; adx++) {
-      c += dir;
-      cb += dir2;
-      k += ts;
-      const level = t[k + tLevel];
-      const wd = t[k + tWDiag];
-      const ws = t[k + tWSide];
-      const invD = t[k + tInvDist];
-      const zn = z[baseN + c];
-      const zs = z[baseS + c];
-      const lhN = lastN[cb];
-      const loN = lastN[cb + 1];
-      const lhS = lastS[cb];
-      const loS = lastS[cb + 1];
-      const zpN = lpHN * wd + lhN * ws;
-      const zpS = lpHS * wd + lhS * ws;
-      const zoN = zpN > NEG ? loN : NAN;
-      const zoS = zpS > NEG ? loS : NAN;
-      const nanN = zn - zn;
-      const nanS = zs - zs;
-      outSlope[baseN + c] = zpN * invD + nanN;
-      outObstacleM[baseN + c] = zoN + nanN;
-      outSlope[baseS + c] = zpS * invD + nanS;
-      outObstacleM[baseS + c] = zoS + nanS;
-      const relN = zn - level;
-      const relS = zs - level;
-      if (relN > zpN) {
-        curN[cb] = relN;
-        curN[cb + 1] = t[k + tDist];
-      } else {
-        curN[cb] = zpN;
-        curN[cb + 1] = zoN;
+}
+
+/**
+ * Observer's column of a row at |dy| ≥ 2 outside the footprint: straight out along the column. Writes the
+ * state of both lanes of that row side. `paired` selects the product order of the two-row sweep
+ * (h·(|dy|/(|dy|−1))) over the one-row sweep's ((h·|dy|)/(|dy|−1)), which round differently.
+ * A nodata cell (NaN) writes NaN through `zc − zc` and never raises the observable height.
+ */
+function observerColumn(
+  tg: Target,
+  work: number[],
+  inv: Float64Array,
+  iz: number,
+  ady: number,
+  lastLane: number,
+  cur: number,
+  laneE: number,
+  laneW: number,
+  paired: boolean,
+): void {
+  const zc = tg.z[iz];
+  const rel = zc - work[T_LEVEL];
+  const lastH = work[lastLane];
+  const zp = paired ? lastH * (ady * inv[ady - 1]) : lastH * ady * inv[ady - 1];
+  const zo = work[lastLane + 1];
+  const nan = zc - zc;
+  tg.outSlope[iz] = zp * work[T_INV_DIST] + nan;
+  tg.outObstacleM[iz] = zo + nan;
+  const up = rel > zp;
+  const h = up ? rel : zp;
+  const od = up ? work[T_DIST] : zo;
+  work[cur + laneE] = h;
+  work[cur + laneE + 1] = od;
+  work[cur + laneW] = h;
+  work[cur + laneW + 1] = od;
+}
+
+/**
+ * Cells |dx| = lo..hi of the rows |dy| north and south: `lanes` 4 = all four quadrants, 2 = the east
+ * halves only (NE, SE), −2 = the west halves only (NW, SW). Splits the span into the five segments.
+ */
+function sweepSegments(
+  tg: Target,
+  work: number[],
+  ady: number,
+  lo: number,
+  hi: number,
+  last: number,
+  cur: number,
+  izN: number,
+  izS: number,
+  lanes: number,
+): void {
+  const nearEnd = ((ady + 1) >> 1) - 1; // 2|dx| < |dy| up to here
+  // Offsets of the two neighbours read, relative to the lane's entry at |dx|: (1) the second term of the
+  // projection, (2) the obstacle distance handed on.
+  const steepSecond = last;
+  const shallowSecond = cur - S;
+  const pieces: [number, number, number, number][] = [
+    [lo, Math.min(hi, nearEnd), steepSecond, last + 1],
+    [Math.max(lo, nearEnd + 1), Math.min(hi, ady - 1), steepSecond, last + 1 - S],
+    [Math.max(lo, ady + 1), Math.min(hi, 2 * ady), shallowSecond, last + 1 - S],
+    [Math.max(lo, 2 * ady + 1), hi, shallowSecond, cur + 1 - S],
+  ];
+  for (let p = 0; p < 4; p++) {
+    const [a, b, second, handed] = pieces[p];
+    if (p === 2 && lo <= ady && ady <= hi) {
+      if (lanes !== -2) {
+        diagonal(tg, work, ady, last, cur, izN + ady, LANE_NE);
+        diagonal(tg, work, ady, last, cur, izS + ady, LANE_SE);
       }
-      if (relS > zpS) {
-        curS[cb] = relS;
-        curS[cb + 1] = t[k + tDist];
-      } else {
-        curS[cb] = zpS;
-        curS[cb + 1] = zoS;
+      if (lanes !== 2) {
+        diagonal(tg, work, ady, last, cur, izN - ady, LANE_NW);
+        diagonal(tg, work, ady, last, cur, izS - ady, LANE_SW);
       }
-      lpHN = lhN;
-      lpON = loN;
-      lpHS = lhS;
-      lpOS = loS;
     }
-    // Steep part, nearer neighbour the previous column of the previous row.
-    // Same as sweepRow's steep part, previous-column neighbour, for the north and south rows; change both.
-    for (let adx = nearEnd + 1; adx <= steepEnd; adx++) {
-      c += dir;
-      cb += dir2;
-      k += ts;
-      const level = t[k + tLevel];
-      const wd = t[k + tWDiag];
-      const ws = t[k + tWSide];
-      const invD = t[k + tInvDist];
-      const zn = z[baseN + c];
-      const zs = z[baseS + c];
-      const lhN = lastN[cb];
-      const loN = lastN[cb + 1];
-      const lhS = lastS[cb];
-      const loS = lastS[cb + 1];
-      const zpN = lpHN * wd + lhN * ws;
-      const zpS = lpHS * wd + lhS * ws;
-      const zoN = zpN > NEG ? lpON : NAN;
-      const zoS = zpS > NEG ? lpOS : NAN;
-      const nanN = zn - zn;
-      const nanS = zs - zs;
-      outSlope[baseN + c] = zpN * invD + nanN;
-      outObstacleM[baseN + c] = zoN + nanN;
-      outSlope[baseS + c] = zpS * invD + nanS;
-      outObstacleM[baseS + c] = zoS + nanS;
-      const relN = zn - level;
-      const relS = zs - level;
-      if (relN > zpN) {
-        curN[cb] = relN;
-        curN[cb + 1] = t[k + tDist];
-      } else {
-        curN[cb] = zpN;
-        curN[cb + 1] = zoN;
-      }
-      if (relS > zpS) {
-        curS[cb] = relS;
-        curS[cb + 1] = t[k + tDist];
-      } else {
-        curS[cb] = zpS;
-        curS[cb + 1] = zoS;
-      }
-      lpHN = lhN;
-      lpON = loN;
-      lpHS = lhS;
-      lpOS = loS;
+    if (a > b) continue;
+    if (lanes === 4) sweep4(tg, work, a, b, izN, izS, last, second, handed, cur);
+    else if (lanes === 2) sweep2(tg, work, a, b, izN, 1, LANE_NE, izS, 1, LANE_SE, last, second, handed, cur);
+    else sweep2(tg, work, a, b, izN, -1, LANE_NW, izS, -1, LANE_SW, last, second, handed, cur);
+  }
+}
+
+/** As sweepSegments, for one row side: lane A and lane B (which may be the same lane) of row base `iz…`. */
+function sweepSegmentsOneRow(
+  tg: Target,
+  work: number[],
+  ady: number,
+  lo: number,
+  hi: number,
+  last: number,
+  cur: number,
+  izA: number,
+  dirA: number,
+  laneA: number,
+  izB: number,
+  dirB: number,
+  laneB: number,
+): void {
+  const nearEnd = ((ady + 1) >> 1) - 1;
+  const steepSecond = last;
+  const shallowSecond = cur - S;
+  const pieces: [number, number, number, number][] = [
+    [lo, Math.min(hi, nearEnd), steepSecond, last + 1],
+    [Math.max(lo, nearEnd + 1), Math.min(hi, ady - 1), steepSecond, last + 1 - S],
+    [Math.max(lo, ady + 1), Math.min(hi, 2 * ady), shallowSecond, last + 1 - S],
+    [Math.max(lo, 2 * ady + 1), hi, shallowSecond, cur + 1 - S],
+  ];
+  for (let p = 0; p < 4; p++) {
+    const [a, b, second, handed] = pieces[p];
+    if (p === 2 && lo <= ady && ady <= hi) {
+      diagonal(tg, work, ady, last, cur, izA + dirA * ady, laneA);
+      if (laneB !== laneA) diagonal(tg, work, ady, last, cur, izB + dirB * ady, laneB);
     }
-    if (reach < ady) continue;
-    // Diagonal: straight through the previous diagonal cell.
-    // Same as sweepRow's diagonal, for the north and south rows; change both.
-    let pHN: number;
-    let pON: number;
-    let pHS: number;
-    let pOS: number;
+    if (a > b) continue;
+    if (laneA === laneB) sweep1(tg, work, a, b, izA, dirA, laneA, last, second, handed, cur);
+    else sweep2(tg, work, a, b, izA, dirA, laneA, izB, dirB, laneB, last, second, handed, cur);
+  }
+}
+
+/** The diagonal cell |dx| = |dy| of one lane: straight through the previous diagonal cell. */
+function diagonal(
+  tg: Target,
+  work: number[],
+  ady: number,
+  last: number,
+  cur: number,
+  idx: number,
+  lane: number,
+): void {
+  const k = S * ady;
+  const zc = tg.z[idx];
+  const rel = zc - work[k + T_LEVEL];
+  const zp = work[k - S + last + lane] * work[k + T_W_DIAG];
+  const zo = work[k - S + last + lane + 1];
+  const nan = zc - zc;
+  tg.outSlope[idx] = zp * work[k + T_INV_DIST] + nan;
+  tg.outObstacleM[idx] = zo + nan;
+  const up = rel > zp;
+  work[k + cur + lane] = up ? rel : zp;
+  work[k + cur + lane + 1] = up ? work[k + T_DIST] : zo;
+}
+
+/**
+ * |dx| = lo..hi of the four lanes (NE, SE, NW, SW) in one segment. Per lane at |dx| (entry k + lane):
+ * projection = h(prev row, |dx|−1)·w_diag + h(entry k + lane + second)·w_side; the obstacle distance handed
+ * on is entry k + lane + handed, or NaN where the projection is -Infinity (nothing obstructs), taken
+ * without a branch as handed + (zp − zp): V8 keeps a NaN-or-load select boxed. A nodata cell (NaN) writes
+ * NaN through `zc − zc` and never raises the observable height (NaN > x is false). Indices are `| 0` so
+ * that TurboFan adds without overflow checks.
+ */
+function sweep4(
+  tg: Target,
+  work: number[],
+  lo: number,
+  hi: number,
+  izN: number,
+  izS: number,
+  last: number,
+  second: number,
+  handed: number,
+  cur: number,
+): void {
+  const z = tg.z;
+  const outSlope = tg.outSlope;
+  const outOd = tg.outObstacleM;
+  const s = S;
+  const first = last - s;
+  const dSN = izS - izN;
+  let k = s * lo;
+  let e = izN + lo;
+  let wc = izN - lo;
+  for (let adx = lo; adx <= hi; adx++) {
+    const level = work[k];
+    const invD = work[(k + 1) | 0];
+    const dM = work[(k + 2) | 0];
+    const wd = work[(k + 3) | 0];
+    const ws = work[(k + 4) | 0];
+    const kf = (k + first) | 0;
+    const ks = (k + second) | 0;
+    const kh = (k + handed) | 0;
+    const kc = (k + cur) | 0;
+    // NE
     {
-      c += dir;
-      cb += dir2;
-      k += ts;
-      const level = t[k + tLevel];
-      const wd = t[k + tWDiag];
-      const invD = t[k + tInvDist];
-      const dM = t[k + tDist];
-      const zn = z[baseN + c];
-      const zs = z[baseS + c];
-      const zpN = lpHN * wd;
-      const zpS = lpHS * wd;
-      const nanN = zn - zn;
-      const nanS = zs - zs;
-      outSlope[baseN + c] = zpN * invD + nanN;
-      outObstacleM[baseN + c] = lpON + nanN;
-      outSlope[baseS + c] = zpS * invD + nanS;
-      outObstacleM[baseS + c] = lpOS + nanS;
-      const relN = zn - level;
-      const relS = zs - level;
-      if (relN > zpN) {
-        pHN = relN;
-        pON = dM;
-      } else {
-        pHN = zpN;
-        pON = lpON;
-      }
-      if (relS > zpS) {
-        pHS = relS;
-        pOS = dM;
-      } else {
-        pHS = zpS;
-        pOS = lpOS;
-      }
-      curN[cb] = pHN;
-      curN[cb + 1] = pON;
-      curS[cb] = pHS;
-      curS[cb + 1] = pOS;
-      lpHN = lastN[cb];
-      lpON = lastN[cb + 1];
-      lpHS = lastS[cb];
-      lpOS = lastS[cb + 1];
+      const zc = z[e];
+      const zp = work[kf] * wd + work[ks] * ws;
+      const hd = work[kh];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[e] = zp * invD + nan;
+      outOd[e] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[kc] = up ? rel : zp;
+      work[(kc + 1) | 0] = up ? dM : zo;
     }
-    const farStart = Math.min(2 * ady, reach); // 2|dy| < |dx| beyond
-    // Shallow part, nearer neighbour the previous column of the previous row.
-    // Same as sweepRow's shallow part, previous-row neighbour, for the north and south rows; change both.
-    for (let adx = ady + 1; adx <= farStart; adx++) {
-      c += dir;
-      cb += dir2;
-      k += ts;
-      const level = t[k + tLevel];
-      const wd = t[k + tWDiag];
-      const ws = t[k + tWSide];
-      const invD = t[k + tInvDist];
-      const zn = z[baseN + c];
-      const zs = z[baseS + c];
-      const lhN = lastN[cb];
-      const loN = lastN[cb + 1];
-      const lhS = lastS[cb];
-      const loS = lastS[cb + 1];
-      const zpN = lpHN * wd + pHN * ws;
-      const zpS = lpHS * wd + pHS * ws;
-      const zoN = zpN > NEG ? lpON : NAN;
-      const zoS = zpS > NEG ? lpOS : NAN;
-      const nanN = zn - zn;
-      const nanS = zs - zs;
-      outSlope[baseN + c] = zpN * invD + nanN;
-      outObstacleM[baseN + c] = zoN + nanN;
-      outSlope[baseS + c] = zpS * invD + nanS;
-      outObstacleM[baseS + c] = zoS + nanS;
-      const relN = zn - level;
-      const relS = zs - level;
-      if (relN > zpN) {
-        pHN = relN;
-        pON = t[k + tDist];
-      } else {
-        pHN = zpN;
-        pON = zoN;
-      }
-      if (relS > zpS) {
-        pHS = relS;
-        pOS = t[k + tDist];
-      } else {
-        pHS = zpS;
-        pOS = zoS;
-      }
-      curN[cb] = pHN;
-      curN[cb + 1] = pON;
-      curS[cb] = pHS;
-      curS[cb + 1] = pOS;
-      lpHN = lhN;
-      lpON = loN;
-      lpHS = lhS;
-      lpOS = loS;
+    // SE
+    {
+      const i = (e + dSN) | 0;
+      const zc = z[i];
+      const zp = work[(kf + 2) | 0] * wd + work[(ks + 2) | 0] * ws;
+      const hd = work[(kh + 2) | 0];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[i] = zp * invD + nan;
+      outOd[i] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[(kc + 2) | 0] = up ? rel : zp;
+      work[(kc + 3) | 0] = up ? dM : zo;
     }
-    // Shallow part, nearer neighbour the previous column of this row.
-    // Same as sweepRow's shallow part, same-row neighbour, for the north and south rows; change both.
-    for (let adx = farStart + 1; adx <= reach; adx++) {
-      c += dir;
-      cb += dir2;
-      k += ts;
-      const level = t[k + tLevel];
-      const wd = t[k + tWDiag];
-      const ws = t[k + tWSide];
-      const invD = t[k + tInvDist];
-      const zn = z[baseN + c];
-      const zs = z[baseS + c];
-      const lhN = lastN[cb];
-      const lhS = lastS[cb];
-      const zpN = lpHN * wd + pHN * ws;
-      const zpS = lpHS * wd + pHS * ws;
-      const zoN = zpN > NEG ? pON : NAN;
-      const zoS = zpS > NEG ? pOS : NAN;
-      const nanN = zn - zn;
-      const nanS = zs - zs;
-      outSlope[baseN + c] = zpN * invD + nanN;
-      outObstacleM[baseN + c] = zoN + nanN;
-      outSlope[baseS + c] = zpS * invD + nanS;
-      outObstacleM[baseS + c] = zoS + nanS;
-      const relN = zn - level;
-      const relS = zs - level;
-      if (relN > zpN) {
-        pHN = relN;
-        pON = t[k + tDist];
-      } else {
-        pHN = zpN;
-        pON = zoN;
-      }
-      if (relS > zpS) {
-        pHS = relS;
-        pOS = t[k + tDist];
-      } else {
-        pHS = zpS;
-        pOS = zoS;
-      }
-      curN[cb] = pHN;
-      curN[cb + 1] = pON;
-      curS[cb] = pHS;
-      curS[cb + 1] = pOS;
-      lpHN = lhN;
-      lpHS = lhS;
+    // NW
+    {
+      const zc = z[wc];
+      const zp = work[(kf + 4) | 0] * wd + work[(ks + 4) | 0] * ws;
+      const hd = work[(kh + 4) | 0];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[wc] = zp * invD + nan;
+      outOd[wc] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[(kc + 4) | 0] = up ? rel : zp;
+      work[(kc + 5) | 0] = up ? dM : zo;
     }
+    // SW
+    {
+      const i = (wc + dSN) | 0;
+      const zc = z[i];
+      const zp = work[(kf + 6) | 0] * wd + work[(ks + 6) | 0] * ws;
+      const hd = work[(kh + 6) | 0];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[i] = zp * invD + nan;
+      outOd[i] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[(kc + 6) | 0] = up ? rel : zp;
+      work[(kc + 7) | 0] = up ? dM : zo;
+    }
+    k = (k + s) | 0;
+    e = (e + 1) | 0;
+    wc = (wc - 1) | 0;
+  }
+}
+
+/** As sweep4 for two lanes A and B (distinct), each with its own row base and direction. */
+function sweep2(
+  tg: Target,
+  work: number[],
+  lo: number,
+  hi: number,
+  izA: number,
+  dirA: number,
+  laneA: number,
+  izB: number,
+  dirB: number,
+  laneB: number,
+  last: number,
+  second: number,
+  handed: number,
+  cur: number,
+): void {
+  const z = tg.z;
+  const outSlope = tg.outSlope;
+  const outOd = tg.outObstacleM;
+  const s = S;
+  const first = last - s + laneA;
+  const secondA = second + laneA;
+  const handedA = handed + laneA;
+  const curA = cur + laneA;
+  const dB = laneB - laneA;
+  let k = s * lo;
+  let ia = izA + dirA * lo;
+  let ib = izB + dirB * lo;
+  for (let adx = lo; adx <= hi; adx++) {
+    const level = work[k];
+    const invD = work[(k + 1) | 0];
+    const dM = work[(k + 2) | 0];
+    const wd = work[(k + 3) | 0];
+    const ws = work[(k + 4) | 0];
+    let kf = (k + first) | 0;
+    let ks = (k + secondA) | 0;
+    let kh = (k + handedA) | 0;
+    let kc = (k + curA) | 0;
+    // A
+    {
+      const zc = z[ia];
+      const zp = work[kf] * wd + work[ks] * ws;
+      const hd = work[kh];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[ia] = zp * invD + nan;
+      outOd[ia] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[kc] = up ? rel : zp;
+      work[(kc + 1) | 0] = up ? dM : zo;
+    }
+    kf = (kf + dB) | 0;
+    ks = (ks + dB) | 0;
+    kh = (kh + dB) | 0;
+    kc = (kc + dB) | 0;
+    // B
+    {
+      const zc = z[ib];
+      const zp = work[kf] * wd + work[ks] * ws;
+      const hd = work[kh];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[ib] = zp * invD + nan;
+      outOd[ib] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[kc] = up ? rel : zp;
+      work[(kc + 1) | 0] = up ? dM : zo;
+    }
+    k = (k + s) | 0;
+    ia = (ia + dirA) | 0;
+    ib = (ib + dirB) | 0;
+  }
+}
+
+/** As sweep4 for one lane. */
+function sweep1(
+  tg: Target,
+  work: number[],
+  lo: number,
+  hi: number,
+  iz: number,
+  dir: number,
+  lane: number,
+  last: number,
+  second: number,
+  handed: number,
+  cur: number,
+): void {
+  const z = tg.z;
+  const outSlope = tg.outSlope;
+  const outOd = tg.outObstacleM;
+  const s = S;
+  const first = last - s + lane;
+  const sec = second + lane;
+  const hand = handed + lane;
+  const c = cur + lane;
+  let k = s * lo;
+  let ia = iz + dir * lo;
+  for (let adx = lo; adx <= hi; adx++) {
+    const level = work[k];
+    const invD = work[(k + 1) | 0];
+    const dM = work[(k + 2) | 0];
+    const wd = work[(k + 3) | 0];
+    const ws = work[(k + 4) | 0];
+    const kf = (k + first) | 0;
+    const ks = (k + sec) | 0;
+    const kh = (k + hand) | 0;
+    const kc = (k + c) | 0;
+    // the lane
+    {
+      const zc = z[ia];
+      const zp = work[kf] * wd + work[ks] * ws;
+      const hd = work[kh];
+      const zo = hd + (zp - zp);
+      const nan = zc - zc;
+      outSlope[ia] = zp * invD + nan;
+      outOd[ia] = zo + nan;
+      const rel = zc - level;
+      const up = rel > zp;
+      work[kc] = up ? rel : zp;
+      work[(kc + 1) | 0] = up ? dM : zo;
+    }
+    k = (k + s) | 0;
+    ia = (ia + dir) | 0;
   }
 }
