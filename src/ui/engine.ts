@@ -1,10 +1,10 @@
 /**
  * The planner's link to the coverage workers: one pool for the page (module workers sized to the
  * machine; size 0 inline when workers are unavailable or `?workers=0` is in the address, which tests use).
- * Accurate evaluations run on worker 0 (its per-radar cache makes a moved post cost one radar), drag
- * previews on worker 1 (its own cache of coarse, fast-masked radars, so previews never evict the
- * accurate radars and a release never waits behind a running preview), inspections on the last worker,
- * so an inspection never waits behind a run.
+ * An accurate evaluation is split in two parts, on workers 0 and 1 (each part's slices, with a per-radar
+ * cache per worker, so a moved post costs one radar on each); drag previews run on worker 1 (its own
+ * cache of coarse, fast-masked radars, so previews never evict the accurate radars); inspections on
+ * the last worker. With one worker, everything runs there in one part.
  */
 import type { Plan } from "../io/planSchema";
 import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
@@ -76,6 +76,8 @@ function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView
 
 const EVAL_SLOT = 0;
 const PREVIEW_SLOT = 1;
+/** An accurate run is split over at most this many workers (one part each). */
+const ACCURATE_PARTS = 2;
 const POINT_SLOT = -1;
 let generation = 0;
 
@@ -88,11 +90,71 @@ function errorText(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
+/** Post ids in first-seen order, each once (both steps, or both parts, may name the same radar). */
+function unique(ids: (string[] | undefined)[]): string[] {
+  return [...new Set(ids.flatMap((x) => x ?? []))];
+}
+
 /**
- * Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. An accurate
- * run with a shown slice goes in two steps: every radar and the shown class and height first (that
- * view is drawn at once), then the other slices from the worker's cache; the run stays "running"
- * until the second step lands, so the summary of the other heights is marked as updating meanwhile.
+ * One part of an accurate run on the worker of `slot`, in two steps when the part holds the shown
+ * slice: every radar of the part and the shown slice first (`onShown` draws it at once), then the
+ * part's other slices from the worker's cache. Resolves to the whole part.
+ */
+async function runPart(
+  p: WorkerPool<CoverageApi>,
+  req: EvaluateRequest,
+  slot: number,
+  onShown: (view: CoverageView) => void,
+): Promise<CoverageView> {
+  const channel = `evaluate-${slot}`;
+  const view = withTerrain(await p.run(channel, req.generation, "evaluate", [req], { slot }), "full");
+  if (!view.partial) return view;
+  onShown(view);
+  const rest: EvaluateRequest = {
+    ...req,
+    sliceFirst: false,
+    gapShapesHeld: true,
+    haveTerrainKey: view.terrainKey,
+  };
+  const all = withTerrain(await p.run(channel, req.generation, "evaluate", [rest], { slot }), "full");
+  // The shown slice's gap outlines came with the first step (the same slice, the same run).
+  const [shown] = view.slices;
+  const again = all.slices.find((s) => s.classId === shown.classId && s.heightM === shown.heightM);
+  if (again) again.gapShapes = shown.gapShapes;
+  return {
+    ...all,
+    elapsedMs: view.elapsedMs + all.elapsedMs,
+    computedRadarIds: unique([view.computedRadarIds, all.computedRadarIds]),
+  };
+}
+
+/**
+ * The views of the parts of one run as one view: every slice in the order of a whole run (classes,
+ * then heights, as the parts list them in `classIds` and `heightsM`); the arrays common to all parts
+ * (terrain, lowest visible height) from the first.
+ */
+export function mergePartViews(parts: CoverageView[]): CoverageView {
+  const [first] = parts;
+  if (parts.length === 1) return first;
+  const slices = parts.flatMap((v) => v.slices);
+  const order = (s: { classId: string; heightM: number }) =>
+    first.classIds.indexOf(s.classId) * first.heightsM.length + first.heightsM.indexOf(s.heightM);
+  slices.sort((a, b) => order(a) - order(b));
+  return {
+    ...first,
+    slices,
+    notes: [...new Set(parts.flatMap((v) => v.notes))],
+    elapsedMs: Math.max(...parts.map((v) => v.elapsedMs)),
+    computedRadarIds: unique(parts.map((v) => v.computedRadarIds)),
+  };
+}
+
+/**
+ * Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. With two
+ * workers or more, an accurate run is split into one part per worker (each computes every radar's
+ * masking and the SNR and Pd of its own slices, and fuses them), so a release uses every core. The
+ * part holding the shown slice gives it first (drawn at once); the run stays "running" until every
+ * part has landed, so the summary of the other slices is marked as updating meanwhile.
  */
 export async function runEvaluation(options: { preview?: boolean; plan?: Plan } = {}): Promise<void> {
   const plan = options.plan ?? usePlanStore.getState().plan;
@@ -113,42 +175,23 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   };
   useCoverage.getState().set({ running: true, generation: g });
   try {
-    const slot = options.preview && p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT;
-    const view = withTerrain(await p.run("evaluate", g, "evaluate", [req], { slot }), kind);
     if (options.preview) {
+      const slot = p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT;
+      const view = withTerrain(await p.run(`evaluate-${slot}`, g, "evaluate", [req], { slot }), kind);
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }
-    if (!view.partial) {
-      useCoverage.getState().set({ view, preview: null, running: false, problem: null });
-      return;
-    }
-    // The shown slice is on screen; the other slices follow (a newer edit makes this step stale).
-    const g2 = ++generation;
-    useCoverage.getState().set({ view, preview: null, problem: null, running: true, generation: g2 });
-    const rest: EvaluateRequest = {
-      ...req,
-      generation: g2,
-      sliceFirst: false,
-      gapShapesHeld: true,
-      haveTerrainKey: view.terrainKey,
+    const count = Math.max(1, Math.min(p.size, ACCURATE_PARTS));
+    const showShown = (view: CoverageView) => {
+      if (g === generation) useCoverage.getState().set({ view, preview: null, problem: null, running: true });
     };
-    const all = withTerrain(await p.run("evaluate", g2, "evaluate", [rest], { slot }), kind);
-    // The shown slice's gap outlines came with the first step (the same slice, the same run).
-    const [shown] = view.slices;
-    const again = all.slices.find((s) => s.classId === shown.classId && s.heightM === shown.heightM);
-    if (again) again.gapShapes = shown.gapShapes;
-    // The run's time in the worker and the radars it computed are those of both steps.
-    useCoverage.getState().set({
-      view: {
-        ...all,
-        elapsedMs: view.elapsedMs + all.elapsedMs,
-        computedRadarIds: [...(view.computedRadarIds ?? []), ...(all.computedRadarIds ?? [])],
-      },
-      preview: null,
-      running: false,
-      problem: null,
-    });
+    const parts = await Promise.all(
+      Array.from({ length: count }, (_, k) =>
+        runPart(p, count > 1 ? { ...req, part: { index: k, count } } : req, k, showShown),
+      ),
+    );
+    if (g !== generation) return;
+    useCoverage.getState().set({ view: mergePartViews(parts), preview: null, running: false, problem: null });
   } catch (e) {
     if (isStale(e)) return;
     useCoverage.getState().set({ running: false, problem: errorText(e) });

@@ -69,6 +69,36 @@ function focusSite(site: PreparedSite, focus: { classId: string; heightM: number
 }
 
 /**
+ * Part `index` of `count` of the site's slices: the (height, class) pairs in height-major order cut
+ * into equal runs, so that each part computes the SNR of as few heights as it can. The partition
+ * depends on the site alone (not on the slice shown), so each worker's per-radar cache keys stay the
+ * same from run to run.
+ */
+export function partSite(site: PreparedSite, part: { index: number; count: number }): PreparedSite {
+  const pairs: { h: number; t: string }[] = [];
+  for (const h of site.heightsAglM)
+    for (const t of site.targets) if (t.heightsAglM.includes(h)) pairs.push({ h, t: t.id });
+  const from = Math.floor((part.index * pairs.length) / part.count);
+  const to = Math.floor(((part.index + 1) * pairs.length) / part.count);
+  const mine = pairs.slice(from, to);
+  const targets = site.targets
+    .map((t) => ({
+      ...t,
+      heightsAglM: t.heightsAglM.filter((h) => mine.some((m) => m.t === t.id && m.h === h)),
+    }))
+    .filter((t) => t.heightsAglM.length > 0);
+  return {
+    ...site,
+    targets,
+    heightsAglM: site.heightsAglM.filter((h) => mine.some((m) => m.h === h)),
+    requirement: {
+      ...site.requirement,
+      targetIds: site.requirement.targetIds.filter((id) => targets.some((t) => t.id === id)),
+    },
+  };
+}
+
+/**
  * One radar's result of the full site seen as a result of `focused` (one class at one height): the
  * same arrays, picked out, nothing copied.
  */
@@ -210,7 +240,8 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     async evaluate(req: EvaluateRequest): Promise<CoverageView> {
       const t0 = now();
       const stale = () => req.generation < newest;
-      const full = await prepare(req.plan, req.dem, req.maskMode);
+      const whole = await prepare(req.plan, req.dem, req.maskMode);
+      const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
       let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
       let result: SiteResult;
       const focused =
@@ -271,6 +302,11 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         }),
       );
       if (site !== full && site.maskMode !== "fast") view.partial = true;
+      if (full !== whole) {
+        // A part: the whole run's heights and classes, so the parts can be put together.
+        view.heightsM = [...whole.heightsAglM];
+        view.classIds = whole.targets.map((t) => t.id);
+      }
       if ((site.maskMode !== "fast" || !req.focus) && !req.gapShapesHeld) {
         const focused = view.slices.find(
           (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,

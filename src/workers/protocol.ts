@@ -38,6 +38,12 @@ export interface EvaluateRequest {
    * run computes every slice and outlines the gaps of this one.
    */
   focus?: { classId: string; heightM: number };
+  /**
+   * One part of an accurate run split over `count` workers: this reply holds only part `index` of the
+   * slices (heights first, then classes, cut in equal runs), while `heightsM` and `classIds` list the
+   * whole run's, so the caller can put the parts together (engine.ts mergePartViews).
+   */
+  part?: { index: number; count: number };
 }
 
 /** One target class at one height, fused over all enabled radars. */

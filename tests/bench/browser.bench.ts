@@ -96,12 +96,14 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
       __long: number[];
       __gens: number[];
       __accurate: number[];
+      __complete: number[];
       __stop?: () => void;
     };
     w.__stop?.();
     w.__long = [];
     w.__gens = [];
     w.__accurate = [];
+    w.__complete = [];
     const po = new PerformanceObserver((l) => {
       for (const e of l.getEntries()) w.__long.push(e.duration);
     });
@@ -111,13 +113,17 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     const mo = new MutationObserver(() => {
       const t = performance.now();
       w.__gens.push(t);
-      const m = document.querySelector('[data-testid="summary"]')?.getAttribute("data-mask-mode");
-      if (m === "accurate") w.__accurate.push(t);
+      const summary = document.querySelector('[data-testid="summary"]');
+      if (summary?.getAttribute("data-mask-mode") === "accurate") {
+        w.__accurate.push(t);
+        if (summary.getAttribute("data-partial") !== "true") w.__complete.push(t);
+      }
     });
     mo.observe(s?.parentElement ?? document.body, {
       attributes: true,
       subtree: true,
-      attributeFilter: ["data-generation"],
+      // A release shows the shown slice (data-partial) and then every slice under the same generation.
+      attributeFilter: ["data-generation", "data-partial"],
     });
     w.__stop = () => {
       po.disconnect();
@@ -150,7 +156,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
       return (
         s?.getAttribute("data-mask-mode") === "accurate" &&
         !/Computing/.test(st) &&
-        (window as unknown as { __gens: number[] }).__gens.some((g) => g > t)
+        (window as unknown as { __complete: number[] }).__complete.some((g) => g > t)
       );
     },
     tUp,
@@ -158,9 +164,9 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
   );
   // The shown slice lands first (accurate), the other slices a moment later.
   const [firstMs, releaseMs] = await page.evaluate((t) => {
-    const w = window as unknown as { __gens: number[]; __accurate: number[] };
-    const after = w.__accurate.filter((g) => g > t);
-    return [Math.min(...after) - t, Math.max(...w.__gens.filter((g) => g > t)) - t];
+    const w = window as unknown as { __accurate: number[]; __complete: number[] };
+    // No named helper here: the bundler would wrap it in a function the page does not have.
+    return [w.__accurate, w.__complete].map((xs) => Math.min(...xs.filter((g) => g > t)) - t);
   }, tUp);
   const longTasks = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
   const workerMs = Number((await status(page)).match(/Computed in (\d+)/)?.[1] ?? Number.NaN);

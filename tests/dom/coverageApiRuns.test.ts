@@ -4,6 +4,7 @@ import { describe, expect, it } from "vitest";
 import type { Plan } from "../../src/io/planSchema";
 import { parsePlan } from "../../src/io/planValidation";
 import { siteGridFrame } from "../../src/io/siteGrid";
+import { mergePartViews } from "../../src/ui/engine";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import type { CoverageView, EvaluateRequest } from "../../src/workers/protocol";
 
@@ -70,6 +71,42 @@ describe("coverage API runs", () => {
     expect(Array.from(shown.combinedPd)).toEqual(Array.from(same.combinedPd));
     expect(Array.from(shown.gap)).toEqual(Array.from(same.gap));
     expect(Array.from(first.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
+  });
+
+  it("a run split in parts over two workers, put together, equals the whole run", async () => {
+    const plan = demoPlan();
+    const post = plan.posts.find((p) => p.enabled);
+    const focus = { classId: plan.targetClasses[1].id, heightM: plan.analysis.targetHeightsM[2] };
+    const whole = await createCoverageApi().evaluate(request(plan, { focus, perRadarPostId: post?.id }));
+    const parts: CoverageView[] = [];
+    for (let index = 0; index < 2; index++) {
+      const api = createCoverageApi();
+      const req = request(plan, { focus, perRadarPostId: post?.id, part: { index, count: 2 } });
+      const first = await api.evaluate({ ...req, sliceFirst: true });
+      // The part holding the shown slice gives it first; the other part comes whole at once.
+      const holds = first.slices.some((s) => s.classId === focus.classId && s.heightM === focus.heightM);
+      expect(first.partial === true).toBe(holds && first.slices.length === 1);
+      parts.push(first.partial ? await api.evaluate({ ...req, gapShapesHeld: true }) : first);
+    }
+    // Height-major halves: 2 classes × 3 heights gives three slices each, no slice in both.
+    expect(parts.map((v) => v.slices.length)).toEqual([3, 3]);
+    const merged = mergePartViews(parts);
+    expect(merged.slices.map((s) => [s.classId, s.heightM])).toEqual(
+      whole.slices.map((s) => [s.classId, s.heightM]),
+    );
+    for (const s of whole.slices) {
+      const m = sliceOf(merged, s.classId, s.heightM);
+      expect(m.metrics).toEqual(s.metrics);
+      expect(Array.from(m.combinedPd)).toEqual(Array.from(s.combinedPd));
+      expect(Array.from(m.overlap)).toEqual(Array.from(s.overlap));
+      expect(Array.from(m.gap)).toEqual(Array.from(s.gap));
+      expect(m.perRadarPd.map((a) => a.length)).toEqual(s.perRadarPd.map((a) => a.length));
+      for (let r = 0; r < s.perRadarPd.length; r++)
+        expect(Array.from(m.perRadarPd[r])).toEqual(Array.from(s.perRadarPd[r]));
+    }
+    expect(Array.from(merged.lowestVisibleAglM)).toEqual(Array.from(whole.lowestVisibleAglM));
+    expect(merged.heightsM).toEqual(whole.heightsM);
+    expect(merged.classIds).toEqual(whole.classIds);
   });
 
   it("stops a run once a newer generation is announced, and runs the newer one in full", async () => {
