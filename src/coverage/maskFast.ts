@@ -141,23 +141,30 @@ function fillRowTable(t: number[], inv: Float64Array, reach: number, ady: number
   const antenna = s.antennaHeightAslM;
   const ady2 = ady * ady;
   const invSteep = ady > 1 ? inv[ady - 1] : 0;
-  for (let adx = 0, k = 0; adx <= reach; adx++, k += S) {
+  // Locals: TurboFan reloads module constants from the context on every access.
+  const stride = S;
+  const tLevel = T_LEVEL;
+  const tInv = T_INV_DIST;
+  const tDist = T_DIST;
+  const tDiag = T_W_DIAG;
+  const tSide = T_W_SIDE;
+  for (let adx = 0, k = 0; adx <= reach; adx++, k = (k + stride) | 0) {
     const dM = Math.sqrt(adx * adx + ady2) * cell;
-    t[k + T_LEVEL] = antenna + dM * dM * curv;
-    t[k + T_INV_DIST] = 1 / dM;
-    t[k + T_DIST] = dM;
+    t[(k + tLevel) | 0] = antenna + dM * dM * curv;
+    t[(k + tInv) | 0] = 1 / dM;
+    t[(k + tDist) | 0] = dM;
     if (adx < ady) {
       // Crosses row |dy|−1 between columns |dx|−1 (weight |dx|/(|dy|−1)) and |dx|.
-      t[k + T_W_DIAG] = adx * invSteep;
-      t[k + T_W_SIDE] = (ady - adx) * invSteep;
+      t[(k + tDiag) | 0] = adx * invSteep;
+      t[(k + tSide) | 0] = (ady - adx) * invSteep;
     } else if (adx === ady) {
-      t[k + T_W_DIAG] = ady * invSteep;
-      t[k + T_W_SIDE] = 0;
+      t[(k + tDiag) | 0] = ady * invSteep;
+      t[(k + tSide) | 0] = 0;
     } else {
       // Crosses column |dx|−1 between rows |dy|−1 (weight |dy|/(|dx|−1)) and |dy|.
       const invShallow = inv[adx - 1];
-      t[k + T_W_DIAG] = ady * invShallow;
-      t[k + T_W_SIDE] = (adx - ady) * invShallow;
+      t[(k + tDiag) | 0] = ady * invShallow;
+      t[(k + tSide) | 0] = (adx - ady) * invShallow;
     }
   }
 }
@@ -467,6 +474,7 @@ function sweep4(
   let e = izN + lo;
   let wc = izN - lo;
   for (let adx = lo; adx <= hi; adx++) {
+    // The table entries T_LEVEL … T_W_SIDE, as literals (0 … 4).
     const level = work[k];
     const invD = work[(k + 1) | 0];
     const dM = work[(k + 2) | 0];
@@ -570,6 +578,7 @@ function sweep2(
   let ia = izA + dirA * lo;
   let ib = izB + dirB * lo;
   for (let adx = lo; adx <= hi; adx++) {
+    // The table entries T_LEVEL … T_W_SIDE, as literals (0 … 4).
     const level = work[k];
     const invD = work[(k + 1) | 0];
     const dM = work[(k + 2) | 0];
@@ -642,6 +651,7 @@ function sweep1(
   let k = s * lo;
   let ia = iz + dir * lo;
   for (let adx = lo; adx <= hi; adx++) {
+    // The table entries T_LEVEL … T_W_SIDE, as literals (0 … 4).
     const level = work[k];
     const invD = work[(k + 1) | 0];
     const dM = work[(k + 2) | 0];
