@@ -339,8 +339,34 @@ function observerColumn(
 }
 
 /**
+ * The four segments of |dx| = lo..hi on row |dy| = ady, each [from, to, second, handed] (from > to when
+ * empty): |dx| < |dy| with 2|dx| < |dy| (nearer neighbour the same column of the previous row), the rest of
+ * |dx| < |dy| (the previous column of the previous row), |dy| < |dx| ≤ 2|dy| (the same), and 2|dy| < |dx|
+ * (the previous column of this row). `second` and `handed` are the offsets, relative to a lane's entry at
+ * |dx|, of the projection's second term and of the obstacle distance handed on. The diagonal |dx| = |dy|
+ * lies between the second and the third segment.
+ */
+function segments(
+  ady: number,
+  lo: number,
+  hi: number,
+  last: number,
+  cur: number,
+): [number, number, number, number][] {
+  const nearEnd = ((ady + 1) >> 1) - 1; // 2|dx| < |dy| up to here
+  const steepSecond = last;
+  const shallowSecond = cur - S;
+  return [
+    [lo, Math.min(hi, nearEnd), steepSecond, last + 1],
+    [Math.max(lo, nearEnd + 1), Math.min(hi, ady - 1), steepSecond, last + 1 - S],
+    [Math.max(lo, ady + 1), Math.min(hi, 2 * ady), shallowSecond, last + 1 - S],
+    [Math.max(lo, 2 * ady + 1), hi, shallowSecond, cur + 1 - S],
+  ];
+}
+
+/**
  * Cells |dx| = lo..hi of the rows |dy| north and south: `lanes` 4 = all four quadrants, 2 = the east
- * halves only (NE, SE), −2 = the west halves only (NW, SW). Splits the span into the five segments.
+ * halves only (NE, SE), −2 = the west halves only (NW, SW), segment by segment, the diagonal between.
  */
 function sweepSegments(
   tg: Target,
@@ -354,17 +380,7 @@ function sweepSegments(
   izS: number,
   lanes: number,
 ): void {
-  const nearEnd = ((ady + 1) >> 1) - 1; // 2|dx| < |dy| up to here
-  // Offsets of the two neighbours read, relative to the lane's entry at |dx|: (1) the second term of the
-  // projection, (2) the obstacle distance handed on.
-  const steepSecond = last;
-  const shallowSecond = cur - S;
-  const pieces: [number, number, number, number][] = [
-    [lo, Math.min(hi, nearEnd), steepSecond, last + 1],
-    [Math.max(lo, nearEnd + 1), Math.min(hi, ady - 1), steepSecond, last + 1 - S],
-    [Math.max(lo, ady + 1), Math.min(hi, 2 * ady), shallowSecond, last + 1 - S],
-    [Math.max(lo, 2 * ady + 1), hi, shallowSecond, cur + 1 - S],
-  ];
+  const pieces = segments(ady, lo, hi, last, cur);
   for (let p = 0; p < 4; p++) {
     const [a, b, second, handed] = pieces[p];
     if (p === 2 && lo <= ady && ady <= hi) {
@@ -400,15 +416,7 @@ function sweepSegmentsOneRow(
   dirB: number,
   laneB: number,
 ): void {
-  const nearEnd = ((ady + 1) >> 1) - 1;
-  const steepSecond = last;
-  const shallowSecond = cur - S;
-  const pieces: [number, number, number, number][] = [
-    [lo, Math.min(hi, nearEnd), steepSecond, last + 1],
-    [Math.max(lo, nearEnd + 1), Math.min(hi, ady - 1), steepSecond, last + 1 - S],
-    [Math.max(lo, ady + 1), Math.min(hi, 2 * ady), shallowSecond, last + 1 - S],
-    [Math.max(lo, 2 * ady + 1), hi, shallowSecond, cur + 1 - S],
-  ];
+  const pieces = segments(ady, lo, hi, last, cur);
   for (let p = 0; p < 4; p++) {
     const [a, b, second, handed] = pieces[p];
     if (p === 2 && lo <= ady && ady <= hi) {
@@ -446,8 +454,8 @@ function diagonal(
 
 /**
  * |dx| = lo..hi of the four lanes (NE, SE, NW, SW) in one segment. Per lane at |dx| (entry k + lane):
- * projection = h(prev row, |dx|−1)·w_diag + h(entry k + lane + second)·w_side; the obstacle distance handed
- * on is entry k + lane + handed, or NaN where the projection is -Infinity (nothing obstructs), taken
+ * projection = h(prev row, |dx|−1)·w_diag + h(entry k + lane + second)·w_side; the obstacle distance
+ * handed on is entry k + lane + handed, or NaN where the projection is -Infinity (nothing obstructs), taken
  * without a branch as handed + (zp − zp): V8 keeps a NaN-or-load select boxed. A nodata cell (NaN) writes
  * NaN through `zc − zc` and never raises the observable height (NaN > x is false). Indices are `| 0` so
  * that TurboFan adds without overflow checks.
