@@ -1,6 +1,7 @@
 /**
  * The optional tile server: off by default (the app then makes no network request beyond its own
- * files). Stored in localStorage; the Content-Security-Policy is narrowed to its origin at start-up.
+ * files). Stored in localStorage; the Content-Security-Policy is narrowed to its origin at start-up, so
+ * choosing a server of another origin reloads the page (the plan is saved first).
  */
 import { create } from "zustand";
 
@@ -61,4 +62,20 @@ export function tileOrigin(server: TileServer | null): string | null {
   } catch {
     return null;
   }
+}
+
+/**
+ * The tile origin the page's image policy was narrowed to at start-up (undefined before). A policy
+ * set by a meta tag can only be narrowed further, never widened, so a new origin needs a reload.
+ */
+let policyOrigin: string | null | undefined;
+
+export function notePolicyOrigin(origin: string | null): void {
+  policyOrigin = origin;
+}
+
+/** True when `server`'s tiles would be blocked by the policy of this page (a reload lifts that). */
+export function needsReloadFor(server: TileServer | null): boolean {
+  const origin = tileOrigin(server);
+  return policyOrigin !== undefined && origin !== null && origin !== policyOrigin;
 }

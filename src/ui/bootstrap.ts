@@ -4,7 +4,7 @@
  */
 import { useAssets } from "./assets";
 import { restoreAutosave, startAutosave } from "./autosave";
-import { tileOrigin, useBasemap } from "./basemap";
+import { notePolicyOrigin, tileOrigin, useBasemap } from "./basemap";
 import { loadDemo } from "./demo";
 import { crashWorkerForTest, runEvaluation, scheduleEvaluation } from "./engine";
 import { say, useSession } from "./session";
@@ -16,6 +16,7 @@ function narrowImagePolicy(): void {
   meta.httpEquiv = "Content-Security-Policy";
   meta.content = `img-src 'self' data: blob:${origin ? ` ${origin}` : ""}`;
   document.head.appendChild(meta);
+  notePolicyOrigin(origin);
 }
 
 function isTyping(t: EventTarget | null): boolean {

@@ -27,7 +27,10 @@ export interface GapShapesXY {
 }
 
 /** Columns c0…c1−1 and rows r0…r1−1 that hold every gap cell, or null when there is none. */
-function gapBounds(gap: Uint8Array, width: number): { c0: number; c1: number; r0: number; r1: number } | null {
+function gapBounds(
+  gap: Uint8Array,
+  width: number,
+): { c0: number; c1: number; r0: number; r1: number } | null {
   let c0 = width;
   let c1 = -1;
   let r0 = -1;

@@ -1,7 +1,26 @@
 /** About & safety: what Picket is, the RF and mast safety cautions, and the optional tile server. */
 import { useEffect, useRef, useState } from "react";
 import { RF_SAFETY_CAUTIONS } from "../../coverage/rfExposure";
-import { checkTileTemplate, useBasemap } from "../basemap";
+import { savePlanNow } from "../autosave";
+import { checkTileTemplate, needsReloadFor, useBasemap } from "../basemap";
+import { say } from "../session";
+import { usePlanStore } from "../store";
+
+/** Saves the plan, then reloads so the page's image policy admits the new tile server. */
+async function reloadForTiles(): Promise<void> {
+  say("info", "Reloading the page to allow the new tile server; the plan is saved.");
+  const plan = usePlanStore.getState().plan;
+  try {
+    if (plan) await savePlanNow(plan);
+  } catch (e) {
+    say(
+      "error",
+      `The plan could not be saved, so the page was not reloaded: ${String(e)}. Reload it yourself after saving the plan file.`,
+    );
+    return;
+  }
+  location.reload();
+}
 
 function TileServerForm() {
   const server = useBasemap((s) => s.server);
@@ -22,13 +41,16 @@ function TileServerForm() {
         if (problem) return setError(problem);
         if (attribution.trim() === "") return setError("give the attribution the tile provider asks for");
         setError(null);
-        setServer({ urlTemplate: url.trim(), attribution: attribution.trim() });
+        const next = { urlTemplate: url.trim(), attribution: attribution.trim() };
+        setServer(next);
+        if (needsReloadFor(next)) void reloadForTiles();
       }}
     >
       <h3>Basemap tiles (optional)</h3>
       <p className="muted">
         Off by default: the map shows a hillshade of the site's DEM and makes no network request. A tile
-        server you set here is the only address Picket contacts; reload the page after changing it.
+        server you set here is the only address Picket contacts; the page reloads to allow it (your plan is
+        saved first and comes back as it was).
       </p>
       <label>
         Tile URL template
