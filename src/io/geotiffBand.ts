@@ -40,9 +40,11 @@ export async function readBand1Window(image: GeoTIFFImage, window: Window): Prom
   }
   const [x0, y0, x1, y1] = window;
   const outWidth = x1 - x0;
-  const out = image.getArrayForSample(0, outWidth * (y1 - y0)) as unknown as Samples;
   const dir = image.fileDirectory;
   const compression = Number(dir.getValue("Compression") ?? 1);
+  const whole = await wholeRawImage(image, window, compression);
+  if (whole !== null) return whole;
+  const out = image.getArrayForSample(0, outWidth * (y1 - y0)) as unknown as Samples;
   const tileWidth = image.getTileWidth();
   const tileHeight = image.getTileHeight();
   const decoder = await getDecoder(compression, {
@@ -74,4 +76,35 @@ export async function readBand1Window(image: GeoTIFFImage, window: Window): Prom
     }
   }
   return out;
+}
+
+/**
+ * The whole image of an uncompressed file whose strips lie one after the other: one copy of that
+ * byte run (as GDAL and Picket's own GeoTIFF export write them), else null.
+ */
+async function wholeRawImage(
+  image: GeoTIFFImage,
+  window: Window,
+  compression: number,
+): Promise<ArrayLike<number> | null> {
+  const width = image.getWidth();
+  const height = image.getHeight();
+  const [x0, y0, x1, y1] = window;
+  if (compression !== 1 || image.isTiled || x0 !== 0 || y0 !== 0 || x1 !== width || y1 !== height)
+    return null;
+  const dir = image.fileDirectory;
+  const offsets = (await dir.loadValue("StripOffsets")) as ArrayLike<number>;
+  const counts = (await dir.loadValue("StripByteCounts")) as ArrayLike<number>;
+  const bytes = (image.getBitsPerSample(0) / 8) * width * height;
+  let end = Number(offsets[0]);
+  for (let i = 0; i < offsets.length; i++) {
+    if (Number(offsets[i]) !== end) return null;
+    end += Number(counts[i]);
+  }
+  if (end - Number(offsets[0]) !== bytes) return null;
+  const source = (
+    image as unknown as { source: { fetch(s: { offset: number; length: number }[]): Promise<ArrayBuffer[]> } }
+  ).source;
+  const [run] = await source.fetch([{ offset: Number(offsets[0]), length: bytes }]);
+  return image.getArrayForSample(0, run);
 }

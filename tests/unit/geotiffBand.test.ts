@@ -52,6 +52,17 @@ describe("band 1 of a GeoTIFF window, block by block", () => {
     expect(all[12 * 70 + 22]).toBe(-9999);
   });
 
+  it("reads an uncompressed image whose strips follow one another as one byte run", async () => {
+    const spy = vi.spyOn(GeoTIFFImage.prototype, "getTileOrStrip");
+    const image = await open("f32_strip_none");
+    const all = await readBand1Window(image, [0, 0, 70, 45]);
+    expect(spy).not.toHaveBeenCalled();
+    expect(all[20 * 70 + 30]).toBe(Math.fround(100 + 3.25 * 30 - 1.5 * 20 + 0.01 * 30 * 20));
+    await readBand1Window(image, [3, 2, 9, 5]); // a window: block by block
+    expect(spy).toHaveBeenCalled();
+    spy.mockRestore();
+  });
+
   it("copies blocks for plain little-endian layouts and leaves the others to readRasters", async () => {
     const spy = vi.spyOn(GeoTIFFImage.prototype, "readRasters");
     await readBand1Window(await open("i16_strip_lzw"), [0, 0, 70, 45]);
