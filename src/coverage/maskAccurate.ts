@@ -8,9 +8,10 @@
  * (the cell never masks itself). Rules TM1–TM7 in docs/model-spec.md.
  *
  * Memory order: all rays advance together, a band of BAND major lines at a time. Inside a band each ray
- * runs through the band's lines with its state in registers and leaves its horizon before every line in
- * a small ray-major buffer; the band's cells are then written in the grid's own row order. Every pass
- * reads and writes memory in order whichever way the triangle points, with no transposed copies.
+ * runs through the band's lines with its state in registers and leaves its horizon and obstacle distance
+ * before every line in a small ray-major buffer; the band's cells are then written in the grid's own row
+ * order. Every pass reads and writes memory in order whichever way the triangle points, with no
+ * transposed copies.
  */
 
 import type { SweepSetup } from "./terrainMask.ts";
@@ -47,11 +48,18 @@ interface Triangle {
 interface RayBuffers {
   horizon: Float64Array;
   obstacleM: Float64Array;
-  /** Horizon of ray j before band line b, at [j·BAND + b]. */
-  bandHorizon: Float32Array;
-  bandObstacleM: Float32Array;
+  /** Horizon (m/m) and obstacle distance (m) of ray j before band line b, at 2·(j·BAND + b) and the next. */
+  band: Float32Array;
   raysPerMinor: Float64Array;
   invLine: Float64Array;
+  /** Per ray of the triangle: step length L (m), 1/L, 1/t, L²/(2ka) per line², footprint in lines. */
+  lenM: Float64Array;
+  invLenM: Float64Array;
+  invRayStep: Float64Array;
+  curvPerLine2: Float64Array;
+  exclLines: Float64Array;
+  /** First major line on which the ray is off the grid (steps + 1 when it stays on). */
+  exitLine: Float64Array;
   /** Band line numbers as doubles (no integer conversion in the ray loop). */
   lineM: Float64Array;
 }
@@ -60,10 +68,15 @@ function buffers(maxRays: number): RayBuffers {
   return {
     horizon: new Float64Array(maxRays),
     obstacleM: new Float64Array(maxRays),
-    bandHorizon: new Float32Array(maxRays * BAND),
-    bandObstacleM: new Float32Array(maxRays * BAND),
+    band: new Float32Array(2 * maxRays * BAND),
     raysPerMinor: new Float64Array(BAND),
     invLine: new Float64Array(BAND),
+    lenM: new Float64Array(maxRays),
+    invLenM: new Float64Array(maxRays),
+    invRayStep: new Float64Array(maxRays),
+    curvPerLine2: new Float64Array(maxRays),
+    exclLines: new Float64Array(maxRays),
+    exitLine: new Float64Array(maxRays),
     lineM: new Float64Array(BAND),
   };
 }
@@ -101,15 +114,41 @@ export function computeHorizonAccurate(
   for (const t of triangles) {
     const steps = Math.min(t.majorSteps, rangeSteps);
     if (steps < 1) continue;
-    for (let j = 0; j < 2 * Math.ceil(steps * RAYS_PER_PERIMETER_CELL) + 1; j++) {
-      buf.horizon[j] = Number.NEGATIVE_INFINITY;
-      buf.obstacleM[j] = Number.NaN;
-    }
+    prepareRays(s, t, steps, buf);
     for (let m0 = 1; m0 <= steps; m0 += BAND) {
       const nb = Math.min(BAND, steps - m0 + 1);
       advanceRays(s, t, steps, m0, nb, obsIdx, buf);
       writeCells(s, t, steps, m0, nb, obsIdx, buf, outSlope, outObstacleM);
     }
+  }
+}
+
+/** Starts every ray of a triangle unobstructed and tabulates its constants. */
+function prepareRays(s: SweepSetup, t: Triangle, steps: number, buf: RayBuffers): void {
+  const span = Math.ceil(steps * RAYS_PER_PERIMETER_CELL);
+  const invSpan = 1 / span;
+  const minorLast = t.minorLen - 1;
+  const minorObs = t.minorObs;
+  for (let j = 0; j < 2 * span + 1; j++) {
+    const rayStep = (j - span) * invSpan;
+    const lenM = s.cellSizeM * Math.sqrt(1 + rayStep * rayStep);
+    buf.horizon[j] = Number.NEGATIVE_INFINITY;
+    buf.obstacleM[j] = Number.NaN;
+    buf.lenM[j] = lenM;
+    buf.invLenM[j] = 1 / lenM;
+    buf.invRayStep[j] = 1 / rayStep;
+    buf.curvPerLine2[j] = lenM * lenM * s.curvaturePerM;
+    buf.exclLines[j] = s.ownFootprintRadiusM / lenM;
+    // Lines on which the ray is inside the grid (y is monotonic in m and starts inside): m < exit, found
+    // with the ray loop's own expression so that the test agrees with it exactly.
+    let exit = steps + 1;
+    if (rayStep !== 0) {
+      const room = rayStep > 0 ? minorLast - minorObs : minorObs;
+      exit = Math.min(steps + 1, Math.floor(room / Math.abs(rayStep)) + 1);
+      while (exit > 1 && !inside(minorObs + rayStep * (exit - 1), minorLast)) exit--;
+      while (exit <= steps && inside(minorObs + rayStep * exit, minorLast)) exit++;
+    }
+    buf.exitLine[j] = exit;
   }
 }
 
@@ -129,19 +168,18 @@ function advanceRays(
   buf: RayBuffers,
 ): void {
   const z = s.z;
-  const cell = s.cellSizeM;
   const antenna = s.antennaHeightAslM;
-  const curv = s.curvaturePerM;
-  const exclM = s.ownFootprintRadiusM;
   const { majorStride, minorStride, minorObs } = t;
   const minorLast = t.minorLen - 1;
+  // A grid one cell wide on the minor axis interpolates between a cell and itself.
+  const minorLast1 = minorLast > 0 ? minorLast - 1 : 0;
+  const nextMinor = minorLast > 0 ? minorStride : 0;
   const span = Math.ceil(steps * RAYS_PER_PERIMETER_CELL);
   const nRays = 2 * span + 1;
   const invSpan = 1 / span;
   const hz = buf.horizon;
   const od = buf.obstacleM;
-  const bh = buf.bandHorizon;
-  const bo = buf.bandObstacleM;
+  const rec = buf.band;
   const base = obsIdx - minorObs * minorStride;
   const invLine = buf.invLine;
   const lineM = buf.lineM;
@@ -154,73 +192,76 @@ function advanceRays(
   }
   const mEnd = m0 + nb;
   const mStop = Math.min(mEnd, steps);
+  const lenTab = buf.lenM;
+  const invLenTab = buf.invLenM;
+  const invRayStepTab = buf.invRayStep;
+  const curvTab = buf.curvPerLine2;
+  const exclTab = buf.exclLines;
+  const exitTab = buf.exitLine;
   for (let j = 0; j < nRays; j++) {
     const rayStep = (j - span) * invSpan;
-    const lenM = cell * Math.sqrt(1 + rayStep * rayStep);
-    const invLenM = 1 / lenM;
-    const invRayStep = 1 / rayStep;
+    const lenM = lenTab[j];
+    const invLenM = invLenTab[j];
+    const invRayStep = invRayStepTab[j];
     // Curvature term per line, and the footprint in lines, of this ray.
-    const c2 = lenM * lenM * curv;
-    const mExcl = exclM * invLenM;
+    const c2 = curvTab[j];
+    const mExcl = exclTab[j];
     let best = hz[j] * lenM;
     let bestM = od[j];
-    const k = j * band - m0;
-    // Lines on which the ray is inside the grid (y is monotonic in m and starts inside): m < mIn, found
-    // with the loop's own expression so that the test agrees with it exactly.
-    let mIn = mStop;
-    if (rayStep !== 0) {
-      const room = rayStep > 0 ? minorLast - minorObs : minorObs;
-      mIn = Math.min(mStop, Math.max(m0, Math.floor(room / Math.abs(rayStep)) + 1));
-      while (mIn > m0 && !inside(minorObs + rayStep * (mIn - 1), minorLast)) mIn--;
-      while (mIn < mStop && inside(minorObs + rayStep * mIn, minorLast)) mIn++;
-    }
+    const exit = exitTab[j];
+    const mIn = exit < mStop ? Math.max(exit, m0) : mStop;
+    // Ray j's record before band line b is at 2·(j·BAND + b) (horizon) and the next index (obstacle).
+    let k = 2 * j * band;
+    let lineBase = base + m0 * majorStride;
+    // Minor index crossed after the line: floor(y) + 1 going up, floor(y) going down.
+    const up = rayStep > 0 ? 1 : 0;
     // The triangle's last line is written but never sampled (nothing lies beyond it).
     let mD = lineM[0] - 1;
-    for (let m = m0; m < mIn; m++) {
-      const bi = m - m0;
-      bh[k + m] = best * invLenM;
-      bo[k + m] = bestM;
+    // Integer index arithmetic as `| 0` (int32, no overflow checks: every index fits the grid).
+    for (let bi = 0, m = m0; m < mIn; m++, bi++, k = (k + 2) | 0, lineBase = (lineBase + majorStride) | 0) {
+      rec[k] = best * invLenM;
+      rec[(k + 1) | 0] = bestM;
       mD += 1;
       const y = minorObs + rayStep * mD;
-      const lineBase = base + m * majorStride;
       // Sample where the ray crosses major line m (y ≥ 0, so truncation is the floor).
       const k0 = y | 0;
-      const r0 = k0 < minorLast ? k0 : minorLast > 0 ? minorLast - 1 : 0;
+      const r0 = k0 < minorLast ? k0 : minorLast1;
       const f = y - r0;
-      const i0 = lineBase + r0 * minorStride;
+      const i0 = (lineBase + Math.imul(r0, minorStride)) | 0;
       const za = z[i0];
-      const zz = minorLast > 0 ? za + (z[i0 + minorStride] - za) * f : za;
-      const sl = (zz - antenna) * invLine[bi] - mD * c2;
-      if (sl > best && mD > mExcl) {
-        best = sl;
-        bestM = mD * lenM;
+      // Tested in height, as the minor crossings below: rel > m·(σL + m·L²/(2ka)); divides only on a rise.
+      const rel = za + (z[(i0 + nextMinor) | 0] - za) * f - antenna;
+      if (rel > mD * (best + mD * c2) && mD > mExcl) {
+        const sl = rel * invLine[bi] - mD * c2;
+        if (sl > best) {
+          best = sl;
+          bestM = mD * lenM;
+        }
       }
-      // Sample where it crosses a minor line before major line m+1 (m < steps ≤ majorSteps: it exists).
-      const k1 = ((y + rayStep + 1) | 0) - 1;
-      if (k1 !== k0) {
-        const kk = Math.max(k1, k0);
-        const g = (kk - y) * invRayStep;
-        // g = 1 is the node on line m+1 itself (a cell centre, sampled there): only 0 ≤ g < 1 here,
-        // with a margin for the rounding of y + rayStep at exact nodes.
-        if (g < nodeLimit && kk >= 0 && kk <= minorLast) {
-          const ik = lineBase + kk * minorStride;
-          const zp = z[ik];
-          const rel = zp + (z[ik + majorStride] - zp) * g - antenna;
-          const mk = mD + g;
-          if (rel > mk * (best + mk * c2) && mk > mExcl) {
-            const sk = rel / mk - mk * c2;
-            if (sk > best) {
-              best = sk;
-              bestM = mk * lenM;
-            }
+      // Sample where it crosses the next minor line kk before major line m+1 (m < steps ≤ majorSteps: it
+      // exists), at the fraction g of the step: g ≥ 1 means no crossing (NaN on the axis ray). g = 1 is the
+      // node on line m+1 itself (a cell centre, sampled there): only 0 ≤ g < 1 here, with a margin for the
+      // rounding of y at exact nodes.
+      const kk = (k0 + up) | 0;
+      const g = (kk - y) * invRayStep;
+      if (g < nodeLimit && kk <= minorLast && kk >= 0) {
+        const ik = (lineBase + Math.imul(kk, minorStride)) | 0;
+        const zp = z[ik];
+        const relK = zp + (z[(ik + majorStride) | 0] - zp) * g - antenna;
+        const mk = mD + g;
+        if (relK > mk * (best + mk * c2) && mk > mExcl) {
+          const sk = relK / mk - mk * c2;
+          if (sk > best) {
+            best = sk;
+            bestM = mk * lenM;
           }
         }
       }
     }
     // Beyond the grid edge the ray samples nothing: its horizon stays.
-    for (let m = mIn; m < mEnd; m++) {
-      bh[k + m] = best * invLenM;
-      bo[k + m] = bestM;
+    for (let m = mIn; m < mEnd; m++, k += 2) {
+      rec[k] = best * invLenM;
+      rec[k + 1] = bestM;
     }
     hz[j] = best * invLenM;
     od[j] = bestM;
@@ -254,14 +295,14 @@ function writeCells(
   const minorLast = t.minorLen - 1;
   const span = Math.ceil(steps * RAYS_PER_PERIMETER_CELL);
   const jMax = 2 * span - 1;
-  const bh = buf.bandHorizon;
-  const bo = buf.bandObstacleM;
+  const rec = buf.band;
   const rpm = buf.raysPerMinor;
   for (let b = 0; b < nb; b++) rpm[b] = span / (m0 + b);
   const base = obsIdx - minorObs * minorStride;
   // Locals: TurboFan folds them, where module constants are reloaded on every access.
   const NEG = -Infinity;
-  const band = BAND;
+  // Record stride of one ray in the band buffer.
+  const band2 = 2 * BAND;
   const mTop = m0 + nb - 1;
   const reachTop = t.eastWest ? mTop : mTop - 1;
   // Whole band within range (the common case): no per-cell range test.
@@ -274,9 +315,12 @@ function writeCells(
       const aq = q < 0 ? -q : q;
       const bStart = aq > m0 ? aq - m0 : 0;
       const rowBase = base + (minorObs + q) * minorStride;
-      for (let b = bStart; b < nb; b++) {
+      for (
+        let b = bStart, oi = (rowBase + (m0 + bStart) * majorStride) | 0;
+        b < nb;
+        b++, oi = (oi + majorStride) | 0
+      ) {
         const m = m0 + b;
-        const oi = rowBase + m * majorStride;
         if (checkRange && m * m + q * q > maxRange2) continue;
         // Same sampling as the major-axis branch below; change both.
         const zc = z[oi];
@@ -285,14 +329,14 @@ function writeCells(
         let j0 = u | 0;
         if (j0 > jMax) j0 = jMax;
         const f = u - j0;
-        const ka = j0 * band + b;
-        const a = bh[ka];
-        const c = bh[ka + band];
+        const ka = (Math.imul(j0, band2) + 2 * b) | 0;
+        const a = rec[ka];
+        const c = rec[(ka + band2) | 0];
         let v = a + (c - a) * f;
-        const near = f < 0.5 ? ka : ka + band;
-        if (!(v > NEG)) v = bh[near];
+        const near = f < 0.5 ? ka : (ka + band2) | 0;
+        if (!(v > NEG)) v = rec[near];
         outSlope[oi] = v + nan;
-        outObstacleM[oi] = bo[near] + nan;
+        outObstacleM[oi] = rec[(near + 1) | 0] + nan;
       }
     }
   } else {
@@ -312,8 +356,7 @@ function writeCells(
       }
       const lineBase = base + m * majorStride + minorObs * minorStride;
       const r = rpm[b];
-      for (let q = lo; q <= hi; q++) {
-        const oi = lineBase + q;
+      for (let q = lo, oi = (lineBase + lo) | 0; q <= hi; q++, oi = (oi + 1) | 0) {
         // Same sampling as the minor-axis branch above; change both.
         const zc = z[oi];
         const nan = zc - zc;
@@ -321,14 +364,14 @@ function writeCells(
         let j0 = u | 0;
         if (j0 > jMax) j0 = jMax;
         const f = u - j0;
-        const ka = j0 * band + b;
-        const a = bh[ka];
-        const c = bh[ka + band];
+        const ka = (Math.imul(j0, band2) + 2 * b) | 0;
+        const a = rec[ka];
+        const c = rec[(ka + band2) | 0];
         let v = a + (c - a) * f;
-        const near = f < 0.5 ? ka : ka + band;
-        if (!(v > NEG)) v = bh[near];
+        const near = f < 0.5 ? ka : (ka + band2) | 0;
+        if (!(v > NEG)) v = rec[near];
         outSlope[oi] = v + nan;
-        outObstacleM[oi] = bo[near] + nan;
+        outObstacleM[oi] = rec[(near + 1) | 0] + nan;
       }
     }
   }
