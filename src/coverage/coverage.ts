@@ -15,7 +15,10 @@
  *
  * The hot loop does no logarithm, exponential or trigonometric call: every per-radar shape is a table
  * built once (azimuth by a pseudo-angle, elevation by sin(el), F⁴ by v, A by R), SNR in dB comes from
- * the Float32 bit pattern with a 1024-entry mantissa table, Pd from the pdTable lookup. Table errors
+ * a Float32 bit pattern with a mantissa table, Pd from that SNR in dB (pdDbTable.ts). A rotating
+ * radar's SNR is summed in dB (C·g_t·g_r and F⁴ tabulated in dB, the gas loss linear in R, 40·log R
+ * from the bits of R²); a staring radar's is formed linearly, its gains being floored products of
+ * azimuth and elevation factors, and converted once. Table errors
  * are stated beside each table and checked against the exact scalar path (coveragePoint) in tests.
  * Rules CV1–CV9 in docs/model-spec.md ("Coverage").
  */
@@ -23,7 +26,7 @@ import { makeRelativeGain, receiveAntenna, relativeGainDb, scanGeometry } from "
 import { twoWayGasLossDb } from "./atmosphere.ts";
 import { pdExact, type SwerlingCase } from "./detection.ts";
 import type { GridFrame } from "./grid.ts";
-import { buildPdTable, type PdTable, pdFromSnr } from "./pdTable.ts";
+import { cachedPdDbTable, type PdDbTable, pdFromSnrDb } from "./pdDbTable.ts";
 import { knifeEdgeLossDb } from "./propagation.ts";
 import { type RadarEquationParams, radarEquationParams, snrAtRange, snrConstant } from "./radarEquation.ts";
 import type { AntennaSpec, RadarModel, ScanMode } from "./radarModel.ts";
@@ -187,14 +190,21 @@ const GAS_BINS = 4096;
 const LOG_MANTISSA_BITS = 10;
 const F32_MANTISSA_BITS = 23;
 const F32_EXPONENT_BIAS = 127;
-/** Bit pattern of +Infinity (IEEE Std 754-2019 §3.4); above it (unsigned) lie NaNs and negatives. */
-const F32_POSITIVE_INFINITY_BITS = 0x7f800000;
 const DB_PER_LOG2 = linearToDb(2);
+/** log2 mantissa table for 20·log10(R²) from Float32 bits: 4096 bins → ≤ 0.0011 dB (20·log10(1 + 1/4096)/2). */
+const LOG_MANTISSA_BITS_R2 = 12;
 
 const LOG2_MANTISSA = (() => {
   const n = 1 << LOG_MANTISSA_BITS;
   const t = new Float32Array(n);
   // Centre of each bin of 1 + m/n.
+  for (let j = 0; j < n; j++) t[j] = Math.log2(1 + (j + 0.5) / n);
+  return t;
+})();
+
+const LOG2_MANTISSA_R2 = (() => {
+  const n = 1 << LOG_MANTISSA_BITS_R2;
+  const t = new Float32Array(n);
   for (let j = 0; j < n; j++) t[j] = Math.log2(1 + (j + 0.5) / n);
   return t;
 })();
@@ -218,29 +228,18 @@ export interface RadarKernel {
   /** Sidelobe floors, linear (one way). */
   floorTx: number;
   floorRx: number;
-  /** F⁴ (two way) over v. */
+  /** F⁴ (two way) over v, and the same in dB (−2·J(v)). */
   knifeEdgeF4: Float32Array;
+  knifeEdgeF4Db: Float32Array;
   /** Two-way gas-loss factor over R in [0, maxRangeM]. */
   gasFactor: Float32Array;
   /** Two-way gas loss per metre of slant range, dB/m. */
   gasLossDbPerM: number;
-  /** Pd tables per target class, and the RCS in m². */
-  pdTables: PdTable[];
+  /** Pd-by-dB tables per target class, and the RCS in m² and dBsm. */
+  pdTables: PdDbTable[];
   rcsM2: number[];
+  rcsDbsm: number[];
   requiredPd: number;
-}
-
-const pdTableCache = new Map<string, PdTable>();
-
-/** The Pd table for one detection setting, built once per process (tens of ms each) and reused. */
-export function cachedPdTable(pfa: number, looks: number, swerling: SwerlingCase): PdTable {
-  const key = `${pfa}|${looks}|${swerling}`;
-  let t = pdTableCache.get(key);
-  if (t === undefined) {
-    t = buildPdTable({ pfa, looks, swerling });
-    pdTableCache.set(key, t);
-  }
-  return t;
 }
 
 /** Bearing (degrees clockwise from north) at the centre of pseudo-angle bin j. */
@@ -325,7 +324,12 @@ export function buildRadarKernel(input: {
 
   const vBins = Math.round((V_MAX - V_MIN) / V_STEP) + 1;
   const knifeEdgeF4 = new Float32Array(vBins);
-  for (let b = 0; b < vBins; b++) knifeEdgeF4[b] = dbToLinear(-2 * knifeEdgeLossDb(V_MIN + b * V_STEP));
+  const knifeEdgeF4Db = new Float32Array(vBins);
+  for (let b = 0; b < vBins; b++) {
+    const f4Db = -2 * knifeEdgeLossDb(V_MIN + b * V_STEP);
+    knifeEdgeF4Db[b] = f4Db;
+    knifeEdgeF4[b] = dbToLinear(f4Db);
+  }
 
   const gasAt1Km = twoWayGasLossDb({ frequencyHz: model.frequencyHz, rangeM: 1000 });
   // Below 1 GHz P.676 is not evaluated (atmosphere.ts returns NaN) and the loss is negligible: 0.
@@ -349,10 +353,12 @@ export function buildRadarKernel(input: {
     floorTx: dbToLinear(tx.sidelobeFloorDb),
     floorRx: dbToLinear(rx.sidelobeFloorDb),
     knifeEdgeF4,
+    knifeEdgeF4Db,
     gasFactor,
     gasLossDbPerM,
-    pdTables: targets.map((t) => cachedPdTable(requirement.pfa, requirement.looks, t.swerling)),
+    pdTables: targets.map((t) => cachedPdDbTable(requirement.pfa, requirement.looks, t.swerling)),
     rcsM2: targets.map((t) => dbsmToM2(t.rcsDbsm)),
+    rcsDbsm: targets.map((t) => t.rcsDbsm),
     requiredPd: requirement.requiredPd,
   };
 }
@@ -418,7 +424,7 @@ function fillOutside(
 
 /**
  * Everything one row of the radar stage reads: the per-radar constants and tables, the inputs and
- * the outputs (radarCoverageFromHorizon builds it once per call; stageRow reads it once per row).
+ * the outputs (radarCoverageFromHorizon builds it once per call; the row functions read it once per row).
  */
 interface StageRowContext {
   w: number;
@@ -443,18 +449,8 @@ interface StageRowContext {
   vLast: number;
   C: number;
   gasScale: number;
-  mantShift: number;
-  mantMask: number;
+  gasDbPerM: number;
   requiredPd: number;
-  rcs0: number;
-  lo0: number;
-  hi0: number;
-  shift0: number;
-  fracMask0: number;
-  fracScale0: number;
-  pfa0: number;
-  lowSlope0: number;
-  pdHigh0: number;
   ground: Float32Array;
   hs: Float32Array;
   od: Float32Array;
@@ -464,110 +460,68 @@ interface StageRowContext {
   pdOut: Float32Array[];
   reasonOut: Uint8Array[];
   heights: Float64Array;
-  rotating: boolean;
   azTx: Float32Array;
   azRx: Float32Array;
   azInSector: Uint8Array;
   elTx: Float32Array;
   elRx: Float32Array;
   knifeEdgeF4: Float32Array;
+  knifeEdgeF4Db: Float32Array;
   gasFactor: Float32Array;
   f32: Float32Array;
   u32: Uint32Array;
-  rcs: Float64Array;
-  tBitsLow: Int32Array;
-  tBitsHigh: Int32Array;
-  tShift: Int32Array;
-  tFracMask: Int32Array;
-  tFracScale: Float64Array;
-  tPfa: Float64Array;
-  tLowSlope: Float64Array;
-  tPdHigh: Float64Array;
-  tValues: Float32Array[];
-  vals0: Float32Array;
-  /** Rotating radar: C·g_t·g_r per elevation bin, −1 outside the elevation field (else empty). */
-  cGain: Float64Array;
+  /** Per class: RCS (dBsm) and its Pd-by-dB table's fields (pdDbTable.ts). */
+  rcsDb: Float64Array;
+  pdLowDb: Float64Array;
+  pdPerDb: Float64Array;
+  pdLast: Int32Array;
+  pdPfa: Float64Array;
+  pdHigh: Float64Array;
+  pdValues: Float32Array[];
+  /** The first class's fields again (the only class in most plans), for the one-class paths. */
+  rcsDb0: number;
+  pdLowDb0: number;
+  pdPerDb0: number;
+  pdLast0: number;
+  pdPfa0: number;
+  pdHigh0: number;
+  pdValues0: Float32Array;
+  /** Rotating radar: 10·log10(C·g_t·g_r) per elevation bin, −Infinity outside the elevation field. */
+  cGainDb: Float64Array;
+  /** Row scratch: horizontal distance by |column offset|, m. */
+  dRow: Float64Array;
+}
+
+/** Fills dRow with the horizontal distance of each |column offset| on this row (rule TM1's distance). */
+function fillRowDistances(s: StageRowContext, row: number): void {
+  const { cellM, oc, orow, c0, c1, dRow } = s;
+  const dy2 = (row - orow) * (row - orow);
+  const dxMax = Math.max(oc - c0, c1 - oc);
+  // cellM·√(dx² + dy²) as terrainMask.ts defines it; one square root serves both sides of the radar.
+  for (let dx = 0; dx <= dxMax; dx++) dRow[dx] = cellM * Math.sqrt(dx * dx + dy2);
 }
 
 /**
- * One row of the radar stage (cells c0..c1). A function of its own so that V8 optimises it as a whole
- * and keeps that code from call to call (a loop inside the caller is compiled on stack replacement,
- * dropped when the code after the loop deoptimises, and recompiled on every call).
+ * One row of the radar stage for a staring radar (cells c0..c1). A function of its own so that V8
+ * optimises it as a whole and keeps that code from call to call (a loop inside the caller is compiled
+ * on stack replacement, dropped when the code after the loop deoptimises, and recompiled on every
+ * call). Its twin for rotating radars is stageRowRotating: a change to the shared steps reaches both.
  */
 function stageRow(s: StageRowContext, row: number): void {
-  const {
-    w,
-    cellM,
-    oc,
-    orow,
-    c0,
-    c1,
-    maxR,
-    nh,
-    nq,
-    nt,
-    H,
-    curv,
-    twoOverLambda,
-    minR2,
-    maxR2,
-    elScale,
-    floorTx,
-    floorRx,
-    vScale,
-    vLast,
-    C,
-    gasScale,
-    mantShift,
-    mantMask,
-    requiredPd,
-    rcs0,
-    lo0,
-    hi0,
-    shift0,
-    fracMask0,
-    fracScale0,
-    pfa0,
-    lowSlope0,
-    pdHigh0,
-    ground,
-    hs,
-    od,
-    obstructionTopAglM,
-    lowest,
-    snrOut,
-    pdOut,
-    reasonOut,
-    heights,
-    rotating,
-    azTx,
-    azRx,
-    azInSector,
-    elTx,
-    elRx,
-    knifeEdgeF4,
-    gasFactor,
-    f32,
-    u32,
-    rcs,
-    tBitsLow,
-    tBitsHigh,
-    tShift,
-    tFracMask,
-    tFracScale,
-    tPfa,
-    tLowSlope,
-    tPdHigh,
-    tValues,
-    vals0,
-    cGain,
-  } = s;
+  const { w, cellM, oc, orow, c0, c1, maxR, nh, nq, nt, H, curv, twoOverLambda, minR2, maxR2 } = s;
+  const { elScale, floorTx, floorRx, vScale, vLast, C, gasScale, requiredPd } = s;
+  const { ground, hs, od, obstructionTopAglM, lowest, snrOut, pdOut, reasonOut, heights } = s;
+  const { azTx, azRx, azInSector, elTx, elRx, knifeEdgeF4, gasFactor, f32, u32, dRow } = s;
+  const { rcsDb, pdLowDb, pdPerDb, pdLast, pdPfa, pdHigh, pdValues } = s;
+  const { rcsDb0, pdLowDb0, pdPerDb0, pdLast0, pdPfa0, pdHigh0, pdValues0 } = s;
   const log2Mantissa = LOG2_MANTISSA;
+  const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS;
+  const mantMask = (1 << LOG_MANTISSA_BITS) - 1;
   const dbPerLog2 = DB_PER_LOG2;
   const vMin = V_MIN;
   const expBias = F32_EXPONENT_BIAS;
   const expShift = F32_MANTISSA_BITS;
-  const infBits = F32_POSITIVE_INFINITY_BITS;
+  const negInf = Number.NEGATIVE_INFINITY;
   const rCovered = Reason.covered;
   const rMasked = Reason.masked;
   const rOutOfRange = Reason.outOfRange;
@@ -577,13 +531,10 @@ function stageRow(s: StageRowContext, row: number): void {
   const rInside = Reason.insideObstruction;
   const rNodata = Reason.nodata;
   const northM = (orow - row) * cellM;
-  const dy2 = (row - orow) * (row - orow);
+  fillRowDistances(s, row);
   for (let col = c0; col <= c1; col++) {
     const i = row * w + col;
-    // Horizontal distance between cell centres, as terrainMask.ts defines it (rule TM1), computed
-    // here rather than read from horizon.distanceM (filled lazily there; this saves that pass).
-    const dxc = col - oc;
-    const d = cellM * Math.sqrt(dxc * dxc + dy2);
+    const d = dRow[col < oc ? oc - col : col - oc];
     const g = ground[i];
     const sigma = hs[i];
     if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
@@ -599,19 +550,14 @@ function stageRow(s: StageRowContext, row: number): void {
       continue;
     }
     // Azimuth factors (height-independent).
-    let aTx = 1;
-    let aRx = 1;
-    let inSectorAz = 1;
-    if (!rotating) {
-      const j = pseudoAngleBin((col - oc) * cellM, northM);
-      aTx = azTx[j];
-      aRx = azRx[j];
-      inSectorAz = azInSector[j];
-    }
+    const j = pseudoAngleBin((col - oc) * cellM, northM);
+    const aTx = azTx[j];
+    const aRx = azRx[j];
+    const inSectorAz = azInSector[j];
     const d2 = d * d;
     const base = g - H - d2 * curv;
     // Lowest visible height (terrainMask.ts rule TM5): −base + σ·d, at least 0; 0 where nothing obstructs.
-    lowest[i] = sigma === Number.NEGATIVE_INFINITY ? 0 : Math.max(0, sigma * d - base);
+    lowest[i] = sigma === negInf ? 0 : Math.max(0, sigma * d - base);
     const top = obstructionTopAglM[i];
     if (aTx < 0) {
       // Outside the instrumented azimuths: only the reason differs by height (the codes that come
@@ -636,12 +582,12 @@ function stageRow(s: StageRowContext, row: number): void {
     // Knife edge: v = Kv·s·(σ − Δh/d), Kv = √((2/λ)(1/s + 1/(d − s))); so v = va − vb·Δh.
     let va = -1e30;
     let vb = 0;
-    if (sigma !== Number.NEGATIVE_INFINITY) {
-      const s = od[i];
-      const rest = d - s > 0 ? d - s : cellM * 0.5;
-      const kv = Math.sqrt(twoOverLambda * (1 / s + 1 / rest));
-      va = kv * s * sigma;
-      vb = (kv * s) / d;
+    if (sigma !== negInf) {
+      const sd = od[i];
+      const rest = d - sd > 0 ? d - sd : cellM * 0.5;
+      const kv = Math.sqrt(twoOverLambda * (1 / sd + 1 / rest));
+      va = kv * sd * sigma;
+      vb = (kv * sd) / d;
     }
     for (let k = 0; k < nh; k++) {
       const h = heights[k];
@@ -652,20 +598,11 @@ function stageRow(s: StageRowContext, row: number): void {
       if (top > h) code = rInside;
       else if (R2 < minR2 || R2 === 0) code = rBlindZone;
       else if (R2 > maxR2) code = rOutOfRange;
-      if (code >= 0) {
-        snrOut[k][i] = Number.NaN;
-        for (let t = 0; t < nt; t++) {
-          pdOut[q0 + t][i] = 0;
-          reasonOut[q0 + t][i] = code;
-        }
-        continue;
-      }
-      const invR = 1 / Math.sqrt(R2);
-      const m = (dh * invR * elScale + elScale + 0.5) | 0;
-      // C·g_t·g_r (−1 outside the elevation field): from the per-call table for a rotating radar,
-      // whose azimuth factors are 1 (same products in the same order, so the same value).
-      let cg = rotating ? cGain[m] : -1;
-      if (!rotating) {
+      let cg = -1;
+      let invR = 0;
+      if (code < 0) {
+        invR = 1 / Math.sqrt(R2);
+        const m = (dh * invR * elScale + elScale + 0.5) | 0;
         const eTx = elTx[m];
         if (eTx >= 0) {
           let gt = aTx * eTx;
@@ -673,13 +610,13 @@ function stageRow(s: StageRowContext, row: number): void {
           let gr = aRx * elRx[m];
           if (gr < floorRx) gr = floorRx;
           cg = C * gt * gr;
-        }
+        } else code = rOutOfSector;
       }
-      if (cg < 0) {
+      if (code >= 0) {
         snrOut[k][i] = Number.NaN;
         for (let t = 0; t < nt; t++) {
           pdOut[q0 + t][i] = 0;
-          reasonOut[q0 + t][i] = rOutOfSector;
+          reasonOut[q0 + t][i] = code;
         }
         continue;
       }
@@ -693,45 +630,169 @@ function stageRow(s: StageRowContext, row: number): void {
       const snr = cg * f4 * gasFactor[(R2 * invR * gasScale) | 0] * invR2 * invR2;
       f32[0] = snr;
       const bits = u32[0];
-      snrOut[k][i] =
+      const snrDb =
         snr > 0
           ? dbPerLog2 * ((bits >>> expShift) - expBias + log2Mantissa[(bits >>> mantShift) & mantMask])
-          : Number.NEGATIVE_INFINITY;
+          : negInf;
+      snrOut[k][i] = snrDb;
       const weakCode = inSectorAz === 0 ? rOutOfSector : v > 0 ? rMasked : rTooWeak;
       if (nt === 1) {
-        // One class (the common case): its table fields in locals, no per-class array loads.
-        f32[0] = snr * rcs0;
-        const u = u32[0];
+        // One class (the common case): its table fields in locals (pdDbTable.ts pdFromSnrDb inline).
+        const x = snrDb + rcsDb0;
+        const pos = (x - pdLowDb0) * pdPerDb0;
         let pd: number;
-        if (u >= lo0 && u < hi0) {
-          const du = u - lo0;
-          const jj = du >>> shift0;
-          const a = vals0[jj];
-          pd = a + (du & fracMask0) * fracScale0 * (vals0[jj + 1] - a);
-        } else if (u < lo0) {
-          const f = f32[0];
-          pd = f > 0 ? pfa0 + f * lowSlope0 : 0;
-        } else pd = u <= infBits ? pdHigh0 : 0;
+        if (pos >= 0 && pos < pdLast0) {
+          const jj = pos | 0;
+          const a = pdValues0[jj];
+          pd = a + (pos - jj) * (pdValues0[jj + 1] - a);
+        } else pd = pos >= pdLast0 ? pdHigh0 : x > negInf ? pdPfa0 : 0;
         pdOut[q0][i] = pd;
         reasonOut[q0][i] = pd >= requiredPd ? rCovered : weakCode;
         continue;
       }
       for (let t = 0; t < nt; t++) {
-        // Inline pdTable lookup (pdTable.ts pdFromSnr): Float32 bits → bin and fraction.
-        f32[0] = snr * rcs[t];
-        const u = u32[0];
+        const x = snrDb + rcsDb[t];
+        const pos = (x - pdLowDb[t]) * pdPerDb[t];
+        const last = pdLast[t];
         let pd: number;
-        const lo = tBitsLow[t];
-        if (u >= lo && u < tBitsHigh[t]) {
-          const du = u - lo;
-          const jj = du >>> tShift[t];
-          const vals = tValues[t];
+        if (pos >= 0 && pos < last) {
+          const vals = pdValues[t];
+          const jj = pos | 0;
           const a = vals[jj];
-          pd = a + (du & tFracMask[t]) * tFracScale[t] * (vals[jj + 1] - a);
-        } else if (u < lo) {
-          const f = f32[0];
-          pd = f > 0 ? tPfa[t] + f * tLowSlope[t] : 0;
-        } else pd = u <= infBits ? tPdHigh[t] : 0;
+          pd = a + (pos - jj) * (vals[jj + 1] - a);
+        } else pd = pos >= last ? pdHigh[t] : x > negInf ? pdPfa[t] : 0;
+        pdOut[q0 + t][i] = pd;
+        reasonOut[q0 + t][i] = pd >= requiredPd ? rCovered : weakCode;
+      }
+    }
+  }
+}
+
+/**
+ * One row of the radar stage for a rotating radar, the costly case (every cell of its square is in
+ * azimuth and in sector). The azimuth factors are 1, so the SNR is a sum in dB: the per-call table
+ * 10·log10(C·g_t·g_r) by elevation bin, F⁴ in dB by v, minus the gas loss (exact, linear in R) and
+ * 20·log10(R²) from the Float32 bits of R². Twin of stageRow: a change to the shared steps reaches both.
+ */
+function stageRowRotating(s: StageRowContext, row: number): void {
+  const { w, cellM, oc, c0, c1, maxR, nh, nt, H, curv, twoOverLambda, minR2, maxR2, elScale } = s;
+  const { vScale, vLast, gasDbPerM, requiredPd } = s;
+  const { ground, hs, od, obstructionTopAglM, lowest, snrOut, pdOut, reasonOut, heights } = s;
+  const { knifeEdgeF4Db, f32, u32, cGainDb, dRow } = s;
+  const { rcsDb, pdLowDb, pdPerDb, pdLast, pdPfa, pdHigh, pdValues } = s;
+  const { rcsDb0, pdLowDb0, pdPerDb0, pdLast0, pdPfa0, pdHigh0, pdValues0 } = s;
+  const log2Mantissa = LOG2_MANTISSA_R2;
+  const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS_R2;
+  const mantMask = (1 << LOG_MANTISSA_BITS_R2) - 1;
+  const dbPerLog2R2 = 2 * DB_PER_LOG2;
+  const vMin = V_MIN;
+  const expBias = F32_EXPONENT_BIAS;
+  const expShift = F32_MANTISSA_BITS;
+  const negInf = Number.NEGATIVE_INFINITY;
+  const rCovered = Reason.covered;
+  const rMasked = Reason.masked;
+  const rOutOfRange = Reason.outOfRange;
+  const rBlindZone = Reason.blindZone;
+  const rOutOfSector = Reason.outOfSector;
+  const rTooWeak = Reason.tooWeak;
+  const rInside = Reason.insideObstruction;
+  const rNodata = Reason.nodata;
+  fillRowDistances(s, row);
+  for (let col = c0; col <= c1; col++) {
+    const i = row * w + col;
+    const d = dRow[col < oc ? oc - col : col - oc];
+    const g = ground[i];
+    const sigma = hs[i];
+    if (!(d <= maxR) || Number.isNaN(g) || Number.isNaN(sigma)) {
+      // As in stageRow: nodata without ground, else out of range.
+      const code = Number.isNaN(g) ? rNodata : rOutOfRange;
+      lowest[i] = Number.NaN;
+      for (let k = 0; k < nh; k++) {
+        snrOut[k][i] = Number.NaN;
+        for (let t = 0; t < nt; t++) {
+          pdOut[k * nt + t][i] = 0;
+          reasonOut[k * nt + t][i] = code;
+        }
+      }
+      continue;
+    }
+    const d2 = d * d;
+    const base = g - H - d2 * curv;
+    lowest[i] = sigma === negInf ? 0 : Math.max(0, sigma * d - base);
+    const top = obstructionTopAglM[i];
+    // Knife edge as in stageRow: v = va − vb·Δh.
+    let va = -1e30;
+    let vb = 0;
+    if (sigma !== negInf) {
+      const sd = od[i];
+      const rest = d - sd > 0 ? d - sd : cellM * 0.5;
+      const kv = Math.sqrt(twoOverLambda * (1 / sd + 1 / rest));
+      va = kv * sd * sigma;
+      vb = (kv * sd) / d;
+    }
+    for (let k = 0; k < nh; k++) {
+      const h = heights[k];
+      const q0 = k * nt;
+      const dh = base + h;
+      const R2 = d2 + dh * dh;
+      let code = -1;
+      let cgDb = negInf;
+      let R = 0;
+      if (top > h) code = rInside;
+      else if (R2 < minR2 || R2 === 0) code = rBlindZone;
+      else if (R2 > maxR2) code = rOutOfRange;
+      else {
+        R = Math.sqrt(R2);
+        cgDb = cGainDb[((dh / R) * elScale + elScale + 0.5) | 0];
+        if (cgDb === negInf) code = rOutOfSector;
+      }
+      if (code >= 0) {
+        snrOut[k][i] = Number.NaN;
+        for (let t = 0; t < nt; t++) {
+          pdOut[q0 + t][i] = 0;
+          reasonOut[q0 + t][i] = code;
+        }
+        continue;
+      }
+      const v = va - vb * dh;
+      let f4Db = 0;
+      if (v > vMin) {
+        const b = ((v - vMin) * vScale + 0.5) | 0;
+        f4Db = knifeEdgeF4Db[Math.min(b, vLast)];
+      }
+      f32[0] = R2;
+      const bits = u32[0];
+      const snrDb =
+        cgDb +
+        f4Db -
+        gasDbPerM * R -
+        dbPerLog2R2 * ((bits >>> expShift) - expBias + log2Mantissa[(bits >>> mantShift) & mantMask]);
+      snrOut[k][i] = snrDb;
+      const weakCode = v > 0 ? rMasked : rTooWeak;
+      if (nt === 1) {
+        const x = snrDb + rcsDb0;
+        const pos = (x - pdLowDb0) * pdPerDb0;
+        let pd: number;
+        if (pos >= 0 && pos < pdLast0) {
+          const jj = pos | 0;
+          const a = pdValues0[jj];
+          pd = a + (pos - jj) * (pdValues0[jj + 1] - a);
+        } else pd = pos >= pdLast0 ? pdHigh0 : x > negInf ? pdPfa0 : 0;
+        pdOut[q0][i] = pd;
+        reasonOut[q0][i] = pd >= requiredPd ? rCovered : weakCode;
+        continue;
+      }
+      for (let t = 0; t < nt; t++) {
+        const x = snrDb + rcsDb[t];
+        const pos = (x - pdLowDb[t]) * pdPerDb[t];
+        const last = pdLast[t];
+        let pd: number;
+        if (pos >= 0 && pos < last) {
+          const vals = pdValues[t];
+          const jj = pos | 0;
+          const a = vals[jj];
+          pd = a + (pos - jj) * (vals[jj + 1] - a);
+        } else pd = pos >= last ? pdHigh[t] : x > negInf ? pdPfa[t] : 0;
         pdOut[q0 + t][i] = pd;
         reasonOut[q0 + t][i] = pd >= requiredPd ? rCovered : weakCode;
       }
@@ -806,43 +867,21 @@ export function radarCoverageFromHorizon(
     requiredPd,
   } = kernel;
   const nt = input.targets.length;
-  const rcs = Float64Array.from(kernel.rcsM2);
-  // Pd tables unpacked per class (pdTable.ts layout).
-  const tBitsLow = Int32Array.from(kernel.pdTables, (t) => t.bitsLow);
-  const tBitsHigh = Int32Array.from(kernel.pdTables, (t) => t.bitsHigh);
-  const tShift = Int32Array.from(kernel.pdTables, (t) => t.shift);
-  const tFracMask = Int32Array.from(kernel.pdTables, (t) => t.fracMask);
-  const tFracScale = Float64Array.from(kernel.pdTables, (t) => t.fracScale);
-  const tPfa = Float64Array.from(kernel.pdTables, (t) => t.pfa);
-  const tLowSlope = Float64Array.from(kernel.pdTables, (t) => t.lowSlope);
-  const tPdHigh = Float64Array.from(kernel.pdTables, (t) => t.pdHigh);
-  const tValues = kernel.pdTables.map((t) => t.values);
+  // Pd-by-dB tables unpacked per class (pdDbTable.ts layout).
+  const tables = kernel.pdTables;
+  const rcsDb = Float64Array.from(kernel.rcsDbsm);
+  const pdLowDb = Float64Array.from(tables, (t) => t.lowDb);
+  const pdPerDb = Float64Array.from(tables, (t) => t.nodesPerDb);
+  const pdLast = Int32Array.from(tables, (t) => t.values.length - 1);
+  const pdPfa = Float64Array.from(tables, (t) => t.pfa);
+  const pdHigh = Float64Array.from(tables, (t) => t.pdHigh);
+  const pdValues = tables.map((t) => t.values);
   const minR2 = kernel.minRangeM * kernel.minRangeM;
   const maxR = kernel.maxRangeM;
   const maxR2 = maxR * maxR;
   const rotating = azTx.length === 1;
-  const elScale = (EL_BINS - 1) / 2;
-  const vScale = 1 / V_STEP;
-  const vLast = knifeEdgeF4.length - 1;
-  const gasScale = GAS_BINS / maxR;
-  const twoOverLambda = 2 / kernel.wavelengthM;
-  const hs = horizon.horizonSlope;
-  const od = horizon.obstacleDistanceM;
   const f32 = new Float32Array(1);
   const u32 = new Uint32Array(f32.buffer);
-  const mantShift = F32_MANTISSA_BITS - LOG_MANTISSA_BITS;
-  const mantMask = (1 << LOG_MANTISSA_BITS) - 1;
-  // The first class's table fields (the only one in most plans), for the one-class path of the loop.
-  const rcs0 = nt > 0 ? rcs[0] : 0;
-  const lo0 = nt > 0 ? tBitsLow[0] : 0;
-  const hi0 = nt > 0 ? tBitsHigh[0] : 0;
-  const shift0 = nt > 0 ? tShift[0] : 0;
-  const fracMask0 = nt > 0 ? tFracMask[0] : 0;
-  const fracScale0 = nt > 0 ? tFracScale[0] : 0;
-  const pfa0 = nt > 0 ? tPfa[0] : 0;
-  const lowSlope0 = nt > 0 ? tLowSlope[0] : 0;
-  const pdHigh0 = nt > 0 ? tPdHigh[0] : 0;
-  const vals0 = nt > 0 ? tValues[0] : new Float32Array(2);
 
   const spanCells = Number.isFinite(maxR) ? Math.ceil(maxR / cellM) + 1 : Math.max(w, hgt);
   const r0 = Math.max(0, orow - spanCells);
@@ -857,20 +896,21 @@ export function radarCoverageFromHorizon(
   const outsideFilled =
     old !== undefined && old.rowMin >= r0 && old.rowMax <= r1 && old.colMin >= c0 && old.colMax <= c1;
   out.extent = undefined; // while being written, the arrays match no extent
-  // Rotating: the azimuth factors are 1, so C·g_t·g_r depends on the elevation bin alone.
-  const cGain = new Float64Array(rotating ? elTx.length : 0);
-  for (let m = 0; m < cGain.length; m++) {
+  // Rotating: the azimuth factors are 1, so C·g_t·g_r depends on the elevation bin alone (in dB).
+  const cGainDb = new Float64Array(rotating ? elTx.length : 0);
+  for (let m = 0; m < cGainDb.length; m++) {
     const eTx = elTx[m];
     if (eTx < 0) {
-      cGain[m] = -1;
+      cGainDb[m] = Number.NEGATIVE_INFINITY;
       continue;
     }
     let gt = eTx;
     if (gt < floorTx) gt = floorTx;
     let gr = elRx[m];
     if (gr < floorRx) gr = floorRx;
-    cGain[m] = C * gt * gr;
+    cGainDb[m] = linearToDb(C * gt * gr);
   }
+  const t0 = nt > 0 ? 0 : -1;
   const ctx: StageRowContext = {
     w,
     cellM,
@@ -884,59 +924,53 @@ export function radarCoverageFromHorizon(
     nt,
     H,
     curv,
-    twoOverLambda,
+    twoOverLambda: 2 / kernel.wavelengthM,
     minR2,
     maxR2,
-    elScale,
+    elScale: (EL_BINS - 1) / 2,
     floorTx,
     floorRx,
-    vScale,
-    vLast,
+    vScale: 1 / V_STEP,
+    vLast: knifeEdgeF4.length - 1,
     C,
-    gasScale,
-    mantShift,
-    mantMask,
+    gasScale: GAS_BINS / maxR,
+    gasDbPerM: kernel.gasLossDbPerM,
     requiredPd,
-    rcs0,
-    lo0,
-    hi0,
-    shift0,
-    fracMask0,
-    fracScale0,
-    pfa0,
-    lowSlope0,
-    pdHigh0,
     ground,
-    hs,
-    od,
+    hs: horizon.horizonSlope,
+    od: horizon.obstacleDistanceM,
     obstructionTopAglM,
     lowest,
     snrOut,
     pdOut,
     reasonOut,
     heights,
-    rotating,
     azTx,
     azRx,
     azInSector,
     elTx,
     elRx,
     knifeEdgeF4,
+    knifeEdgeF4Db: kernel.knifeEdgeF4Db,
     gasFactor,
     f32,
     u32,
-    rcs,
-    tBitsLow,
-    tBitsHigh,
-    tShift,
-    tFracMask,
-    tFracScale,
-    tPfa,
-    tLowSlope,
-    tPdHigh,
-    tValues,
-    vals0,
-    cGain,
+    rcsDb,
+    pdLowDb,
+    pdPerDb,
+    pdLast,
+    pdPfa,
+    pdHigh,
+    pdValues,
+    rcsDb0: t0 < 0 ? 0 : rcsDb[t0],
+    pdLowDb0: t0 < 0 ? 0 : pdLowDb[t0],
+    pdPerDb0: t0 < 0 ? 0 : pdPerDb[t0],
+    pdLast0: t0 < 0 ? 0 : pdLast[t0],
+    pdPfa0: t0 < 0 ? 0 : pdPfa[t0],
+    pdHigh0: t0 < 0 ? 0 : pdHigh[t0],
+    pdValues0: t0 < 0 ? new Float32Array(2) : pdValues[t0],
+    cGainDb,
+    dRow: new Float64Array(Math.max(oc - c0, c1 - oc) + 1),
   };
   if (!outsideFilled) {
     fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
@@ -947,7 +981,8 @@ export function radarCoverageFromHorizon(
       fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
       fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
     }
-    stageRow(ctx, row);
+    if (rotating) stageRowRotating(ctx, row);
+    else stageRow(ctx, row);
   }
   out.extent = { rowMin: r0, rowMax: r1, colMin: c0, colMax: c1 };
   return out;
@@ -1076,7 +1111,7 @@ export function coveragePoint(
   let pdT = 0;
   if (reason === Reason.tooWeak) {
     pdE = pdExact({ snrLinear, pfa: requirement.pfa, looks: requirement.looks, swerling: target.swerling });
-    pdT = pdFromSnr(cachedPdTable(requirement.pfa, requirement.looks, target.swerling), snrLinear);
+    pdT = pdFromSnrDb(cachedPdDbTable(requirement.pfa, requirement.looks, target.swerling), snrDb);
     if (pdT >= requirement.requiredPd) reason = Reason.covered;
     else if (!geo.inSector) reason = Reason.outOfSector;
     else if (!visible) reason = Reason.masked;

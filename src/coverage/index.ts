@@ -17,6 +17,7 @@ export * from "./grid.ts";
 export * from "./linkBudget.ts";
 export * from "./marcumQ.ts";
 export * from "./metrics.ts";
+export * from "./pdDbTable.ts";
 export * from "./pdTable.ts";
 export * from "./propagation.ts";
 // wavelengthM is defined in propagation.ts; waveform.ts re-exports it, so it is published once here.

@@ -83,7 +83,12 @@ describe("radar stage tables against the exact scalar path", () => {
         }
       }
       // Table resolutions (coverage.ts): pattern bins ≤ 0.014°, knife edge ≤ 0.044 dB two way,
-      // SNR-in-dB mantissa table ≤ 0.002 dB; Pd table ≤ 1e-4 (pdTable.ts). Together well inside these bounds.
+      // SNR-in-dB mantissa tables ≤ 0.002 dB (staring) and ≤ 0.0011 dB on 20·log10 R² (rotating); Pd-by-dB table
+      // ≤ 1.25e-5 (pdDbTable.ts). Together well inside these bounds.
+      console.info(
+        `[CV2] ${c.model}: max |ΔSNR| ${maxSnrErr.toFixed(4)} dB, max |ΔPd| ${maxPdErr.toFixed(5)}, ` +
+          `reasons agree ${((100 * reasonAgree) / compared).toFixed(2)} % (table path − exact path)`,
+      );
       expect(finite).toBeGreaterThan(500);
       expect(maxSnrErr).toBeLessThan(0.1);
       expect(maxPdErr).toBeLessThan(0.01);
