@@ -117,12 +117,11 @@ async function runPart(
     haveTerrainKey: view.terrainKey,
   };
   const all = withTerrain(await p.run(channel, req.generation, "evaluate", [rest], { slot }), "full");
-  // The shown slice's gap outlines came with the first step (the same slice, the same run).
-  const [shown] = view.slices;
-  const again = all.slices.find((s) => s.classId === shown.classId && s.heightM === shown.heightM);
-  if (again) again.gapShapes = shown.gapShapes;
+  // The second step fused the part's other slices only: the shown one (with its gap outlines) is
+  // the first step's.
   return {
     ...all,
+    slices: [...view.slices, ...all.slices],
     elapsedMs: view.elapsedMs + all.elapsedMs,
     computedRadarIds: unique([view.computedRadarIds, all.computedRadarIds]),
   };
@@ -135,7 +134,6 @@ async function runPart(
  */
 export function mergePartViews(parts: CoverageView[]): CoverageView {
   const [first] = parts;
-  if (parts.length === 1) return first;
   const slices = parts.flatMap((v) => v.slices);
   const order = (s: { classId: string; heightM: number }) =>
     first.classIds.indexOf(s.classId) * first.heightsM.length + first.heightsM.indexOf(s.heightM);

@@ -52,20 +52,39 @@ export class BadRequestError extends Error {
   override name = "BadRequestError";
 }
 
-/** The site limited to one class at one height (a preview computes only what the map shows). */
-function focusSite(site: PreparedSite, focus: { classId: string; heightM: number }): PreparedSite {
-  const target = site.targets.find((t) => t.id === focus.classId);
-  if (!target || !site.heightsAglM.includes(focus.heightM) || !target.heightsAglM.includes(focus.heightM))
-    return site;
+/** The site limited to the (height, class) slices `keep` accepts (the radars stay the same). */
+function restrictSite(site: PreparedSite, keep: (heightM: number, classId: string) => boolean): PreparedSite {
+  const targets = site.targets
+    .map((t) => ({ ...t, heightsAglM: t.heightsAglM.filter((h) => keep(h, t.id)) }))
+    .filter((t) => t.heightsAglM.length > 0);
   return {
     ...site,
-    targets: [{ ...target, heightsAglM: [focus.heightM] }],
-    heightsAglM: [focus.heightM],
+    targets,
+    heightsAglM: site.heightsAglM.filter((h) => targets.some((t) => t.heightsAglM.includes(h))),
     requirement: {
       ...site.requirement,
-      targetIds: site.requirement.targetIds.filter((id) => id === focus.classId),
+      targetIds: site.requirement.targetIds.filter((id) => targets.some((t) => t.id === id)),
     },
   };
+}
+
+type Focus = { classId: string; heightM: number };
+
+function holds(site: PreparedSite, f: Focus): boolean {
+  return site.targets.some((t) => t.id === f.classId && t.heightsAglM.includes(f.heightM));
+}
+
+/** The site limited to one class at one height (a preview computes only what the map shows). */
+function focusSite(site: PreparedSite, f: Focus): PreparedSite {
+  const slices = site.targets.reduce((n, t) => n + t.heightsAglM.length, 0);
+  if (!holds(site, f) || slices === 1) return site;
+  return restrictSite(site, (h, t) => h === f.heightM && t === f.classId);
+}
+
+/** Every slice of the site but the focused one (the caller holds that one already). */
+function withoutFocus(site: PreparedSite, f: Focus): PreparedSite {
+  if (!holds(site, f)) return site;
+  return restrictSite(site, (h, t) => !(h === f.heightM && t === f.classId));
 }
 
 /**
@@ -75,44 +94,29 @@ function focusSite(site: PreparedSite, focus: { classId: string; heightM: number
  * same from run to run.
  */
 export function partSite(site: PreparedSite, part: { index: number; count: number }): PreparedSite {
-  const pairs: { h: number; t: string }[] = [];
+  const pairs: string[] = [];
   for (const h of site.heightsAglM)
-    for (const t of site.targets) if (t.heightsAglM.includes(h)) pairs.push({ h, t: t.id });
+    for (const t of site.targets) if (t.heightsAglM.includes(h)) pairs.push(`${h}\u0000${t.id}`);
   const from = Math.floor((part.index * pairs.length) / part.count);
   const to = Math.floor(((part.index + 1) * pairs.length) / part.count);
-  const mine = pairs.slice(from, to);
-  const targets = site.targets
-    .map((t) => ({
-      ...t,
-      heightsAglM: t.heightsAglM.filter((h) => mine.some((m) => m.t === t.id && m.h === h)),
-    }))
-    .filter((t) => t.heightsAglM.length > 0);
-  return {
-    ...site,
-    targets,
-    heightsAglM: site.heightsAglM.filter((h) => mine.some((m) => m.h === h)),
-    requirement: {
-      ...site.requirement,
-      targetIds: site.requirement.targetIds.filter((id) => targets.some((t) => t.id === id)),
-    },
-  };
+  const mine = new Set(pairs.slice(from, to));
+  return restrictSite(site, (h, t) => mine.has(`${h}\u0000${t}`));
 }
 
 /**
- * One radar's result of the full site seen as a result of `focused` (one class at one height): the
- * same arrays, picked out, nothing copied.
+ * One radar's result of the full site seen as a result of `sub` (some of its slices): the same
+ * arrays, picked out, nothing copied.
  */
-function narrowRadar(r: RadarCoverage, full: PreparedSite, focused: PreparedSite): RadarCoverage {
-  const h = focused.heightsAglM[0];
-  const classId = focused.targets[0].id;
-  const k = full.heightsAglM.indexOf(h);
-  const t = full.targets.findIndex((x) => x.id === classId);
-  const height = r.heights[k];
+function narrowRadar(r: RadarCoverage, full: PreparedSite, sub: PreparedSite): RadarCoverage {
+  const classIndex = sub.targets.map((t) => full.targets.findIndex((x) => x.id === t.id));
   return {
     ...r,
-    heightsAglM: [h],
-    targetIds: [classId],
-    heights: [{ ...height, targets: [height.targets[t]] }],
+    heightsAglM: [...sub.heightsAglM],
+    targetIds: sub.targets.map((t) => t.id),
+    heights: sub.heightsAglM.map((h) => {
+      const height = r.heights[full.heightsAglM.indexOf(h)];
+      return { ...height, targets: classIndex.map((k) => height.targets[k]) };
+    }),
   };
 }
 
@@ -244,16 +248,22 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
       let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
       let result: SiteResult;
-      const focused =
-        req.sliceFirst && req.focus && site.maskMode !== "fast" ? focusSite(full, req.focus) : full;
-      if (focused !== full) {
-        // The shown slice first: every radar of the full site (cached under the full site's keys, so
-        // the run of the other slices that follows takes them all from the cache), fused for one slice.
+      // An accurate run with a focus goes in two steps: the shown slice first, then (gapShapesHeld)
+      // the other slices; both take every radar of the full site from the cache, computed once.
+      const sub =
+        site.maskMode === "fast" || !req.focus
+          ? full
+          : req.sliceFirst
+            ? focusSite(full, req.focus)
+            : req.gapShapesHeld
+              ? withoutFocus(full, req.focus)
+              : full;
+      if (sub !== full) {
         const mode = full.maskMode;
         const terrainId = siteTerrainId(full);
         const computed: string[] = [];
         const accurate = cache;
-        result = await evaluateSite(focused, {
+        result = await evaluateSite(sub, {
           mode,
           shouldCancel: stale,
           runRadar: async (_s, i) => {
@@ -268,7 +278,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
               accurate.set(key, r);
               computed.push(full.radars[i].id);
             } else accurate.hits++;
-            return narrowRadar(r, full, focused);
+            return narrowRadar(r, full, sub);
           },
         });
         result = {
@@ -276,7 +286,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           computedRadarIds: computed,
           cachedRadarIds: full.radars.map((r) => r.id).filter((id) => !computed.includes(id)),
         };
-        site = focused;
+        site = sub;
       } else {
         result = await evaluateSite(site, {
           cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
@@ -301,7 +311,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           perRadarPostId: req.perRadarPostId ?? null,
         }),
       );
-      if (site !== full && site.maskMode !== "fast") view.partial = true;
+      if (req.sliceFirst && sub !== full) view.partial = true;
       if (full !== whole) {
         // A part: the whole run's heights and classes, so the parts can be put together.
         view.heightsM = [...whole.heightsAglM];

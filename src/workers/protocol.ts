@@ -31,7 +31,10 @@ export interface EvaluateRequest {
    * radar from the cache and fuses the other slices.
    */
   sliceFirst?: boolean;
-  /** The caller holds the gap outlines of the focused slice (from the sliceFirst step): not redone. */
+  /**
+   * The caller holds the focused slice (from the sliceFirst step): the reply fuses every other slice
+   * and leaves that one out.
+   */
   gapShapesHeld?: boolean;
   /**
    * The class and height shown on the map. A preview (maskMode "fast") computes only this slice; a full

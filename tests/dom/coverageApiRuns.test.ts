@@ -56,11 +56,12 @@ describe("coverage API runs", () => {
     const rest = await api.evaluate(request(plan, { focus, gapShapesHeld: true }));
     expect(rest.partial).toBeUndefined();
     expect(rest.computedRadarIds).toEqual([]);
-    // The caller kept the shown slice's outlines from the first step: they are not redone.
-    expect(sliceOf(rest, focus.classId, focus.heightM).gapShapes).toBeUndefined();
+    // The caller holds the shown slice from the first step: it is not fused again.
+    expect(rest.slices.some((s) => s.classId === focus.classId && s.heightM === focus.heightM)).toBe(false);
     const reference = await createCoverageApi().evaluate(request(plan, { focus }));
-    expect(rest.slices.length).toBe(reference.slices.length);
+    expect(rest.slices.length).toBe(reference.slices.length - 1);
     for (const s of reference.slices) {
+      if (s.classId === focus.classId && s.heightM === focus.heightM) continue;
       const r = sliceOf(rest, s.classId, s.heightM);
       expect(r.metrics).toEqual(s.metrics);
       expect(Array.from(r.combinedPd)).toEqual(Array.from(s.combinedPd));
@@ -86,7 +87,11 @@ describe("coverage API runs", () => {
       // The part holding the shown slice gives it first; the other part comes whole at once.
       const holds = first.slices.some((s) => s.classId === focus.classId && s.heightM === focus.heightM);
       expect(first.partial === true).toBe(holds && first.slices.length === 1);
-      parts.push(first.partial ? await api.evaluate({ ...req, gapShapesHeld: true }) : first);
+      if (!first.partial) parts.push(first);
+      else {
+        const rest = await api.evaluate({ ...req, gapShapesHeld: true });
+        parts.push({ ...rest, slices: [...first.slices, ...rest.slices] });
+      }
     }
     // Height-major halves: 2 classes × 3 heights gives three slices each, no slice in both.
     expect(parts.map((v) => v.slices.length)).toEqual([3, 3]);
