@@ -105,7 +105,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     w.__accurate = [];
     w.__complete = [];
     const po = new PerformanceObserver((l) => {
-      for (const e of l.getEntries()) w.__long.push(e.duration);
+      for (const e of l.getEntries()) w.__long.push(e.duration, e.startTime);
     });
     po.observe({ type: "longtask", buffered: false });
     const s = document.querySelector('[data-testid="summary"]');
@@ -168,10 +168,21 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     // No named helper here: the bundler would wrap it in a function the page does not have.
     return [w.__accurate, w.__complete].map((xs) => Math.min(...xs.filter((g) => g > t)) - t);
   }, tUp);
-  const longTasks = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
+  // Pairs of (duration, start): start told relative to the release, ms (negative: during the drag).
+  const long = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
+  const longTasks = long.filter((_, i) => i % 2 === 0);
+  const longStarts = long.filter((_, i) => i % 2 === 1).map((t) => t - tUp);
   const workerMs = Number((await status(page)).match(/Computed in (\d+)/)?.[1] ?? Number.NaN);
   const computedRadars = await page.getByTestId("summary").getAttribute("data-computed-radars");
-  return { updatesPerS: updates / dragS, firstMs, releaseMs, longTasks, workerMs, computedRadars };
+  return {
+    updatesPerS: updates / dragS,
+    firstMs,
+    releaseMs,
+    longTasks,
+    longStarts,
+    workerMs,
+    computedRadars,
+  };
 }
 
 async function main() {
@@ -216,8 +227,15 @@ async function main() {
         );
         for (const m of await page.getByTestId("message-error").allTextContents())
           console.log(`    message shown: ${m}`);
+        const when = d.longTasks
+          .map((t, i) =>
+            t > 50
+              ? `${t.toFixed(0)} ms at ${d.longStarts[i] >= 0 ? "+" : ""}${d.longStarts[i].toFixed(0)} ms`
+              : "",
+          )
+          .filter(Boolean);
         console.log(
-          `    main-thread long tasks during the drag: ${over.length} over 50 ms${over.length ? ` (longest ${Math.max(...over).toFixed(0)} ms)` : ""}`,
+          `    main-thread long tasks during the drag and release: ${over.length} over 50 ms${over.length ? ` (${when.join(", ")} from the release)` : ""}`,
         );
       }
     }
