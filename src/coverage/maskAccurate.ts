@@ -58,7 +58,7 @@ interface RayBuffers {
   invRayStep: Float64Array;
   curvPerLine2: Float64Array;
   exclLines: Float64Array;
-  /** First major line on which the ray is off the grid (steps + 1 when it stays on). */
+  /** First major line the ray does not sample: off the grid or beyond what the range needs (≤ steps + 1). */
   exitLine: Float64Array;
   /** Band line numbers as doubles (no integer conversion in the ray loop). */
   lineM: Float64Array;
@@ -129,6 +129,7 @@ function prepareRays(s: SweepSetup, t: Triangle, steps: number, buf: RayBuffers)
   const invSpan = 1 / span;
   const minorLast = t.minorLen - 1;
   const minorObs = t.minorObs;
+  const rangeLines = s.maxRangeM / s.cellSizeM;
   for (let j = 0; j < 2 * span + 1; j++) {
     const rayStep = (j - span) * invSpan;
     const lenM = s.cellSizeM * Math.sqrt(1 + rayStep * rayStep);
@@ -148,7 +149,12 @@ function prepareRays(s: SweepSetup, t: Triangle, steps: number, buf: RayBuffers)
       while (exit > 1 && !inside(minorObs + rayStep * (exit - 1), minorLast)) exit--;
       while (exit <= steps && inside(minorObs + rayStep * exit, minorLast)) exit++;
     }
-    buf.exitLine[j] = exit;
+    // Within a range limit a ray serves only the cells that take it (|q| ≥ (|j − span| − 1)·m/span on line
+    // m, writeCells) and lie in range (m² + q² ≤ range²): it stops after the last such line (+1 for
+    // rounding), its record holding on (the cells beyond are never written).
+    const lean = Math.max(0, Math.abs(j - span) - 1) * invSpan;
+    const rangeExit = Math.floor(rangeLines / Math.sqrt(1 + lean * lean)) + 2;
+    buf.exitLine[j] = Math.min(exit, rangeExit);
   }
 }
 
