@@ -15,8 +15,41 @@ export const RELIEF_EXAGGERATION = 2;
 
 /** Per cell a shade byte 0 (dark) … 255 (lit), or -1 where the ground is nodata. */
 export function hillshadeIndices(ground: Grid): Int16Array {
+  const out = new Int16Array(ground.width * ground.height);
+  hillshadeRows(ground, out, 0, ground.height);
+  return out;
+}
+
+/** Rows below this many milliseconds of work go in one slice of hillshadeIndicesInSlices. */
+const SLICE_BUDGET_MS = 12;
+
+/**
+ * hillshadeIndices in slices of rows of about SLICE_BUDGET_MS each, yielding to the page between
+ * them, so that a large grid never blocks the map; resolves to null when `cancelled()` turns true.
+ */
+export async function hillshadeIndicesInSlices(
+  ground: Grid,
+  cancelled: () => boolean,
+): Promise<Int16Array | null> {
+  const out = new Int16Array(ground.width * ground.height);
+  let rowsPerSlice = 16;
+  for (let r = 0; r < ground.height; ) {
+    if (cancelled()) return null;
+    const t0 = performance.now();
+    const end = Math.min(ground.height, r + rowsPerSlice);
+    hillshadeRows(ground, out, r, end);
+    const ms = performance.now() - t0;
+    // Aim the next slice at the budget from the pace of this one (at least one row).
+    rowsPerSlice = Math.max(1, Math.round(((end - r) * SLICE_BUDGET_MS) / Math.max(ms, 0.1)));
+    r = end;
+    await new Promise((resolve) => setTimeout(resolve, 0));
+  }
+  return cancelled() ? null : out;
+}
+
+/** Shades rows rowFrom…rowTo−1 of `ground` into `out` (see hillshadeIndices). */
+function hillshadeRows(ground: Grid, out: Int16Array, rowFrom: number, rowTo: number): void {
   const { width: w, height: h, data, cellSizeM } = ground;
-  const out = new Int16Array(w * h);
   const zen = degToRad(90 - SUN_ELEVATION_DEG);
   const az = degToRad(360 - SUN_AZIMUTH_DEG + 90);
   const cosZen = Math.cos(zen);
@@ -27,7 +60,7 @@ export function hillshadeIndices(ground: Grid): Int16Array {
     const v = data[rr * w + cc];
     return Number.isNaN(v) ? data[r * w + c] : v;
   };
-  for (let r = 0; r < h; r++) {
+  for (let r = rowFrom; r < rowTo; r++) {
     for (let c = 0; c < w; c++) {
       const centre = data[r * w + c];
       if (Number.isNaN(centre)) {
@@ -51,7 +84,6 @@ export function hillshadeIndices(ground: Grid): Int16Array {
       out[r * w + c] = Number.isFinite(v) ? v : -1;
     }
   }
-  return out;
 }
 
 /** A grey ramp table with a warm paper tint, for the hillshade. */

@@ -65,13 +65,14 @@ interface TerrainArrays {
 const terrains: { full: TerrainArrays | null; preview: TerrainArrays | null } = { full: null, preview: null };
 
 function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView {
-  if (view.groundAmslM.length > 0) {
-    terrains[kind] = { key: view.terrainKey, ground: view.groundAmslM, obstruction: view.obstructionTopAglM };
-    return view;
-  }
   const t = terrains[kind];
-  if (t?.key !== view.terrainKey) throw new Error("the coverage result came without its terrain");
-  return { ...view, groundAmslM: t.ground, obstructionTopAglM: t.obstruction };
+  // The arrays held for this terrain are kept even when a view brings them again (both parts of a
+  // first run do): the layers drawn from them (the hillshade) see the same arrays and stay as they are.
+  if (t?.key === view.terrainKey)
+    return { ...view, groundAmslM: t.ground, obstructionTopAglM: t.obstruction };
+  if (view.groundAmslM.length === 0) throw new Error("the coverage result came without its terrain");
+  terrains[kind] = { key: view.terrainKey, ground: view.groundAmslM, obstruction: view.obstructionTopAglM };
+  return view;
 }
 
 const EVAL_SLOT = 0;

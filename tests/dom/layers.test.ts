@@ -3,7 +3,7 @@
 import { contours } from "d3-contour";
 import { describe, expect, it } from "vitest";
 import type { Grid, GridFrame } from "../../src/coverage/grid";
-import { hillshadeIndices } from "../../src/map/hillshade";
+import { hillshadeIndices, hillshadeIndicesInSlices } from "../../src/map/hillshade";
 import { importKindOf } from "../../src/ui/import/importFiles";
 import { layerScale, PD_SHOWN_FROM } from "../../src/ui/layerPaint";
 import { gapLabelsXY, gapOutlinesXY } from "../../src/workers/gapContours";
@@ -97,6 +97,14 @@ describe("hillshade", () => {
     const se = hillshadeIndices(grid((c, r) => -2 * (c + r)));
     const i = 5 * frame.width + 10;
     expect(nw[i]).toBeGreaterThan(se[i]);
+  });
+  it("shades in slices to the same bytes, and stops when cancelled", async () => {
+    const g = grid((c, r) => 40 * Math.sin(c / 3) + 25 * Math.cos(r / 2));
+    g.data[17] = Number.NaN;
+    expect(Array.from((await hillshadeIndicesInSlices(g, () => false)) ?? [])).toEqual(
+      Array.from(hillshadeIndices(g)),
+    );
+    expect(await hillshadeIndicesInSlices(g, () => true)).toBeNull();
   });
 });
 

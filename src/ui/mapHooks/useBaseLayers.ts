@@ -4,7 +4,7 @@
  */
 import { useEffect, useMemo, useRef } from "react";
 import { GraticuleLayer } from "../../map/graticuleLayer";
-import { greyTable, hillshadeIndices } from "../../map/hillshade";
+import { greyTable, hillshadeIndicesInSlices } from "../../map/hillshade";
 import L from "../../map/leaflet";
 import { forwardTo } from "../../map/pixelToGrid";
 import { RasterLayer } from "../../map/rasterLayer";
@@ -23,16 +23,23 @@ export function useBaseLayers(map: L.Map | null, view: CoverageView | null): voi
   const frameRef = useRef(view?.frame);
   frameRef.current = view?.frame;
   const table = useMemo(() => greyTable(), []);
+  // Shading a large grid takes long: it is done in slices (the map stays live) and kept per terrain.
+  const shaded = useRef<{ key: string; indices: Int16Array } | null>(null);
   useEffect(() => {
     const frame = frameRef.current;
     if (!ground || !frame || !terrainKey) return;
-    hillshade.setPaint({
-      frame,
-      forward: forwardTo(frame.crs),
-      indices: hillshadeIndices({ ...frame, data: ground }),
-      table,
-      pattern: "fill",
+    const paint = (indices: Int16Array) =>
+      hillshade.setPaint({ frame, forward: forwardTo(frame.crs), indices, table, pattern: "fill" });
+    if (shaded.current?.key === terrainKey) return paint(shaded.current.indices);
+    let stop = false;
+    void hillshadeIndicesInSlices({ ...frame, data: ground }, () => stop).then((indices) => {
+      if (!indices) return;
+      shaded.current = { key: terrainKey, indices };
+      paint(indices);
     });
+    return () => {
+      stop = true;
+    };
   }, [ground, terrainKey, hillshade, table]);
   const server = useBasemap((s) => s.server);
   const tiles = useMemo(() => (server ? tileLayerOf(server) : null), [server]);
