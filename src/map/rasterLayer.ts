@@ -40,6 +40,7 @@ function requestFrame(fn: () => void): number {
 const HATCH_PERIOD_PX = 8;
 const HATCH_WIDTH_PX = 2;
 const INDEX_CACHE_TILES = 96;
+const FRAMES_KEPT = 2;
 
 interface TileRecord {
   el: HTMLCanvasElement;
@@ -49,8 +50,12 @@ interface TileRecord {
 
 export class RasterLayer extends L.GridLayer {
   private paint: RasterPaint | null = null;
+  /**
+   * Cell indices of tiles per grid frame, for the last FRAMES_KEPT frames: a drag preview on a coarser
+   * grid and the full grid after it alternate, and neither should map its tiles again.
+   */
+  private indexCaches = new Map<string, Map<string, Int32Array>>();
   private indexCache = new Map<string, Int32Array>();
-  private cacheFrameKey = "";
 
   constructor(options?: L.GridLayerOptions) {
     super({ tileSize: 256, updateWhenZooming: false, keepBuffer: 1, ...options });
@@ -63,10 +68,17 @@ export class RasterLayer extends L.GridLayer {
   setPaint(paint: RasterPaint | null): void {
     this.paint = paint;
     const key = paint ? frameKey(paint.frame) : "";
-    if (key !== this.cacheFrameKey) {
-      this.indexCache.clear();
-      this.cacheFrameKey = key;
+    let cache = this.indexCaches.get(key);
+    if (cache) this.indexCaches.delete(key);
+    else cache = new Map();
+    // Most recently used last; the oldest frames go.
+    this.indexCaches.set(key, cache);
+    while (this.indexCaches.size > FRAMES_KEPT) {
+      const oldest = this.indexCaches.keys().next().value;
+      if (oldest === undefined) break;
+      this.indexCaches.delete(oldest);
     }
+    this.indexCache = cache;
     const tiles = (this as unknown as { _tiles?: Record<string, TileRecord> })._tiles;
     if (!tiles) return;
     this.pending = Object.values(tiles);
