@@ -492,9 +492,17 @@ function sweep4(
     const ks = (k + second) | 0;
     const kh = (k + handed) | 0;
     const kc = (k + cur) | 0;
+    // The four surface heights first: a load after a store whose address matches in its low 12 bits waits
+    // for that store, and the north and south rows of a power-of-two-wide grid do.
+    const iSE = (e + dSN) | 0;
+    const iSW = (wc + dSN) | 0;
+    const zNE = z[e];
+    const zSE = z[iSE];
+    const zNW = z[wc];
+    const zSW = z[iSW];
     // NE
     {
-      const zc = z[e];
+      const zc = zNE;
       const zp = work[kf] * wd + work[ks] * ws;
       const hd = work[kh];
       const zo = hd + (zp - zp);
@@ -508,8 +516,8 @@ function sweep4(
     }
     // SE
     {
-      const i = (e + dSN) | 0;
-      const zc = z[i];
+      const i = iSE;
+      const zc = zSE;
       const zp = work[(kf + 2) | 0] * wd + work[(ks + 2) | 0] * ws;
       const hd = work[(kh + 2) | 0];
       const zo = hd + (zp - zp);
@@ -523,7 +531,7 @@ function sweep4(
     }
     // NW
     {
-      const zc = z[wc];
+      const zc = zNW;
       const zp = work[(kf + 4) | 0] * wd + work[(ks + 4) | 0] * ws;
       const hd = work[(kh + 4) | 0];
       const zo = hd + (zp - zp);
@@ -537,8 +545,8 @@ function sweep4(
     }
     // SW
     {
-      const i = (wc + dSN) | 0;
-      const zc = z[i];
+      const i = iSW;
+      const zc = zSW;
       const zp = work[(kf + 6) | 0] * wd + work[(ks + 6) | 0] * ws;
       const hd = work[(kh + 6) | 0];
       const zo = hd + (zp - zp);
@@ -592,13 +600,15 @@ function sweep2(
     const dM = work[(k + 2) | 0];
     const wd = work[(k + 3) | 0];
     const ws = work[(k + 4) | 0];
+    const zA = z[ia];
+    const zB = z[ib];
     let kf = (k + first) | 0;
     let ks = (k + secondA) | 0;
     let kh = (k + handedA) | 0;
     let kc = (k + curA) | 0;
     // A
     {
-      const zc = z[ia];
+      const zc = zA;
       const zp = work[kf] * wd + work[ks] * ws;
       const hd = work[kh];
       const zo = hd + (zp - zp);
@@ -616,7 +626,7 @@ function sweep2(
     kc = (kc + dB) | 0;
     // B
     {
-      const zc = z[ib];
+      const zc = zB;
       const zp = work[kf] * wd + work[ks] * ws;
       const hd = work[kh];
       const zo = hd + (zp - zp);
