@@ -150,8 +150,8 @@ function prepareRays(s: SweepSetup, t: Triangle, steps: number, buf: RayBuffers)
       while (exit <= steps && inside(minorObs + rayStep * exit, minorLast)) exit++;
     }
     // Within a range limit a ray serves only the cells that take it (|q| ≥ (|j − span| − 1)·m/span on line
-    // m, writeCells) and lie in range (m² + q² ≤ range²): it stops after the last such line (+1 for
-    // rounding), its record holding on (the cells beyond are never written).
+    // m, writeCells) and lie in range (m² + q² ≤ range²): its records hold from the exit line on, so it
+    // stops one line after the last such line, plus one for rounding (the cells beyond are never written).
     const lean = Math.max(0, Math.abs(j - span) - 1) * invSpan;
     const rangeExit = Math.floor(rangeLines / Math.sqrt(1 + lean * lean)) + 2;
     buf.exitLine[j] = Math.min(exit, rangeExit);
