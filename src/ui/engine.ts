@@ -114,15 +114,17 @@ async function runPart(
   const rest: EvaluateRequest = {
     ...req,
     sliceFirst: false,
-    gapShapesHeld: true,
+    shownSliceHeld: true,
     haveTerrainKey: view.terrainKey,
   };
   const all = withTerrain(await p.run(channel, req.generation, "evaluate", [rest], { slot }), "full");
-  // The second step fused the part's other slices only: the shown one (with its gap outlines) is
-  // the first step's.
+  // The second step fused the part's other slices only: the shown one is the first step's, with the
+  // gap outlines the second step brought.
+  const shown = view.slices.map((s) => ({ ...s, gapShapes: all.shownGapShapes }));
   return {
     ...all,
-    slices: [...view.slices, ...all.slices],
+    shownGapShapes: undefined,
+    slices: [...shown, ...all.slices],
     elapsedMs: view.elapsedMs + all.elapsedMs,
     computedRadarIds: unique([view.computedRadarIds, all.computedRadarIds]),
   };

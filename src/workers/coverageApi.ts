@@ -233,6 +233,9 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     return maskMode ? { ...r.site, maskMode } : r.site;
   };
 
+  /** The gaps of the slice a first step gave, for its outlines in the second step. */
+  let shownGap: { generation: number; focus: string; gap: Uint8Array } | null = null;
+
   /** The newest generation this worker was told of; older runs stop at their next check. */
   let newest = 0;
 
@@ -248,14 +251,14 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
       let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
       let result: SiteResult;
-      // An accurate run with a focus goes in two steps: the shown slice first, then (gapShapesHeld)
+      // An accurate run with a focus goes in two steps: the shown slice first, then (shownSliceHeld)
       // the other slices; both take every radar of the full site from the cache, computed once.
       const sub =
         site.maskMode === "fast" || !req.focus
           ? full
           : req.sliceFirst
             ? focusSite(full, req.focus)
-            : req.gapShapesHeld
+            : req.shownSliceHeld
               ? withoutFocus(full, req.focus)
               : full;
       if (sub !== full) {
@@ -317,11 +320,26 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         view.heightsM = [...whole.heightsAglM];
         view.classIds = whole.targets.map((t) => t.id);
       }
-      if ((site.maskMode !== "fast" || !req.focus) && !req.gapShapesHeld) {
-        const focused = view.slices.find(
-          (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
-        );
-        if (focused) focused.gapShapes = gapShapesXY(focused.gap, view.frame);
+      const focused = view.slices.find(
+        (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
+      );
+      if (view.partial && focused) {
+        // The shown slice goes at once; its gap outlines come with the next step (from a copy, as
+        // the slice's arrays move to the caller).
+        shownGap = {
+          generation: req.generation,
+          focus: `${focused.classId}@${focused.heightM}`,
+          gap: focused.gap.slice(),
+        };
+      } else if (req.shownSliceHeld && req.focus) {
+        if (
+          shownGap?.generation === req.generation &&
+          shownGap.focus === `${req.focus.classId}@${req.focus.heightM}`
+        )
+          view.shownGapShapes = gapShapesXY(shownGap.gap, view.frame);
+        shownGap = null;
+      } else if (focused && (site.maskMode !== "fast" || !req.focus)) {
+        focused.gapShapes = gapShapesXY(focused.gap, view.frame);
       }
       return view;
     },

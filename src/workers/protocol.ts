@@ -32,10 +32,10 @@ export interface EvaluateRequest {
    */
   sliceFirst?: boolean;
   /**
-   * The caller holds the focused slice (from the sliceFirst step): the reply fuses every other slice
-   * and leaves that one out.
+   * The caller holds the focused slice (from the sliceFirst step, which leaves out its gap outlines):
+   * the reply fuses every other slice, leaves that one out, and brings its outlines (shownGapShapes).
    */
-  gapShapesHeld?: boolean;
+  shownSliceHeld?: boolean;
   /**
    * The class and height shown on the map. A preview (maskMode "fast") computes only this slice; a full
    * run computes every slice and outlines the gaps of this one.
@@ -65,7 +65,7 @@ export interface CoverageSlice {
    */
   perRadarPd: Float32Array[];
   metrics: HeightMetrics;
-  /** Gap outlines and labels in grid metres, for the focused slice of a full run only. */
+  /** Gap outlines and labels in grid metres, for the focused slice of a full run only (see partial). */
   gapShapes?: GapShapesXY;
 }
 
@@ -94,8 +94,10 @@ export interface CoverageView {
   elapsedMs: number;
   /** Post ids of the radars this run computed (the others came from the worker's per-radar cache). */
   computedRadarIds?: string[];
-  /** Only the focused slice of an accurate run (`sliceFirst`); the full view follows. */
+  /** Only the focused slice of an accurate run (`sliceFirst`), without its gap outlines; the rest follows. */
   partial?: boolean;
+  /** The gap outlines of the slice the caller holds (a reply to `shownSliceHeld`). */
+  shownGapShapes?: GapShapesXY;
 }
 
 export interface PointRequest {
@@ -190,5 +192,6 @@ export function viewTransferables(v: CoverageView): Transferable[] {
     for (const g of s.gapShapes?.outlines ?? []) for (const r of g.rings) list.push(r.buffer);
     for (const p of s.perRadarPd) list.push(p.buffer);
   }
+  for (const g of v.shownGapShapes?.outlines ?? []) for (const r of g.rings) list.push(r.buffer);
   return [...new Set(list)].filter((b) => b.byteLength > 0) as Transferable[];
 }

@@ -46,14 +46,17 @@ describe("coverage API runs", () => {
     const plan = demoPlan();
     const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
     const api = createCoverageApi();
-    const first = await api.evaluate(request(plan, { focus, sliceFirst: true }));
+    // Both steps of a release carry the same generation.
+    const req = request(plan, { focus });
+    const first = await api.evaluate({ ...req, sliceFirst: true });
     expect(first.partial).toBe(true);
     expect(first.slices.map((s) => [s.classId, s.heightM])).toEqual([[focus.classId, focus.heightM]]);
     const enabled = plan.posts.filter((p) => p.enabled).map((p) => p.id);
     expect([...(first.computedRadarIds ?? [])].sort()).toEqual([...enabled].sort());
-    expect(sliceOf(first, focus.classId, focus.heightM).gapShapes).toBeDefined();
+    // The shown slice goes without its gap outlines; they come with the next step.
+    expect(sliceOf(first, focus.classId, focus.heightM).gapShapes).toBeUndefined();
 
-    const rest = await api.evaluate(request(plan, { focus, gapShapesHeld: true }));
+    const rest = await api.evaluate({ ...req, shownSliceHeld: true });
     expect(rest.partial).toBeUndefined();
     expect(rest.computedRadarIds).toEqual([]);
     // The caller holds the shown slice from the first step: it is not fused again.
@@ -68,6 +71,8 @@ describe("coverage API runs", () => {
     }
     const shown = sliceOf(first, focus.classId, focus.heightM);
     const same = sliceOf(reference, focus.classId, focus.heightM);
+    expect(same.gapShapes?.labels.length).toBeGreaterThan(0);
+    expect(rest.shownGapShapes).toEqual(same.gapShapes);
     expect(shown.metrics).toEqual(same.metrics);
     expect(Array.from(shown.combinedPd)).toEqual(Array.from(same.combinedPd));
     expect(Array.from(shown.gap)).toEqual(Array.from(same.gap));
@@ -89,7 +94,7 @@ describe("coverage API runs", () => {
       expect(first.partial === true).toBe(holds && first.slices.length === 1);
       if (!first.partial) parts.push(first);
       else {
-        const rest = await api.evaluate({ ...req, gapShapesHeld: true });
+        const rest = await api.evaluate({ ...req, shownSliceHeld: true });
         parts.push({ ...rest, slices: [...first.slices, ...rest.slices] });
       }
     }

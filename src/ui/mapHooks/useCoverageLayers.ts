@@ -20,6 +20,7 @@ export function useCoverageLayers(map: L.Map | null): void {
   const previewing = useCoverage((s) => s.preview !== null);
   const { layer, heightM, classId, singlePostId, showGaps } = useSession();
   const slice = selectedSlice(view, classId, heightM);
+  const partial = view?.partial === true;
   const frame = view?.frame;
   const crs = frame?.crs;
   const forward = useMemo(() => (crs ? forwardTo(crs) : null), [crs]);
@@ -59,12 +60,14 @@ export function useCoverageLayers(map: L.Map | null): void {
       gaps.setGaps(null, null, null, null);
       return;
     }
-    // While dragging, the hatching follows at once; outlines and their areas come with the accurate run.
-    const outlines = previewing
-      ? null
-      : slice.gapShapes
-        ? shapesToLatLng(slice.gapShapes, inverse)
-        : gapShapes(slice.gap, frame, inverse);
+    // While dragging, and in the first step of a release, the hatching follows at once; outlines and
+    // their areas come with the accurate run's next step.
+    const outlines =
+      previewing || partial
+        ? null
+        : slice.gapShapes
+          ? shapesToLatLng(slice.gapShapes, inverse)
+          : gapShapes(slice.gap, frame, inverse);
     gaps.setGaps(frame, forward, slice.gap, outlines);
-  }, [slice, frame, forward, inverse, showGaps, gaps, previewing]);
+  }, [slice, frame, forward, inverse, showGaps, gaps, previewing, partial]);
 }
