@@ -6,9 +6,11 @@ import {
   radarCoverageFromHorizon,
 } from "../../src/coverage/coverage.ts";
 import { computeRadarCoverage } from "../../src/coverage/evaluate.ts";
+import { cachedPdDbTable, pdFromSnrDb } from "../../src/coverage/pdDbTable.ts";
 import {
   cellXY,
   demoRadar,
+  fixedWing,
   frameOf,
   placed,
   quad,
@@ -175,4 +177,48 @@ describe("output reuse", () => {
       expect(same(reused.heights[k].targets[0].reason!, fresh.heights[k].targets[0].reason!)).toBe(true);
     }
   });
+});
+
+describe("several target classes", () => {
+  for (const model of ["kalvori-x9", "mossbee-58"] as const) {
+    it(`[CV2] ${model}: a second class leaves the first unchanged; its Pd is the table Pd of SNR + its RCS`, () => {
+      const f = frameOf(160, 160, model === "kalvori-x9" ? 20 : 2);
+      const ground = roughGround(f);
+      const radar = placed(demoRadar(model), cellXY(f, 80, 80), ground[80 * 160 + 80] + 20, {
+        boresightAzDeg: 30,
+      });
+      const one = siteOf(f, ground, [radar]);
+      const two = siteOf(f, ground, [radar], { targets: [quad, fixedWing] });
+      const stage = (site: typeof one) => {
+        const { kernel, horizon } = stageOf(site, radar);
+        return radarCoverageFromHorizon({ ...site, radar, effectiveEarthFactor: 4 / 3 }, kernel, horizon);
+      };
+      const a = stage(one);
+      const b = stage(two);
+      // The detection table of the second class (the stage reads the same cached table).
+      const table = cachedPdDbTable(two.requirement.pfa, two.requirement.looks, fixedWing.swerling);
+      let compared = 0;
+      for (let k = 0; k < 3; k++) {
+        const h = two.heightsAglM[k];
+        expect(Array.from(b.heights[k].snrDbAt0Dbsm)).toEqual(Array.from(a.heights[k].snrDbAt0Dbsm));
+        expect(Array.from(b.heights[k].targets[0].pd!)).toEqual(Array.from(a.heights[k].targets[0].pd!));
+        expect(Array.from(b.heights[k].targets[0].reason!)).toEqual(
+          Array.from(a.heights[k].targets[0].reason!),
+        );
+        const fw = b.heights[k].targets[1];
+        if (!fixedWing.heightsAglM.includes(h)) {
+          expect(fw.pd).toBeNull();
+          continue;
+        }
+        const snr = b.heights[k].snrDbAt0Dbsm;
+        for (let i = 0; i < snr.length; i += 3) {
+          if (!Number.isFinite(snr[i])) continue;
+          // The stage adds the RCS to the SNR before rounding to Float32: within one Float32 step.
+          expect(Math.abs(fw.pd![i] - pdFromSnrDb(table, snr[i] + fixedWing.rcsDbsm))).toBeLessThan(1e-5);
+          compared++;
+        }
+      }
+      expect(compared).toBeGreaterThan(1000);
+    });
+  }
 });
