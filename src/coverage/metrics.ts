@@ -114,21 +114,44 @@ function countRegionCell(c: RegionCounts, state: number, covered: boolean): void
 }
 
 /**
- * Visited flags and stack of gapComponents, kept between calls of one thread (flags cleared each
- * call). Bytes, not labels: only "already in a component" is ever asked.
+ * Union-find parents and component numbers of gapComponents' runs, and the run ends of two rows,
+ * kept between calls of one thread (a run is a maximal stretch of gap cells along a row).
  */
-let scratch: { label: Uint8Array; stack: Int32Array } | null = null;
+let scratch: {
+  parent: Int32Array;
+  component: Int32Array;
+  rows: Int32Array[];
+} | null = null;
 
-function componentScratch(n: number): { label: Uint8Array; stack: Int32Array } {
-  if (scratch === null || scratch.label.length !== n) {
-    scratch = { label: new Uint8Array(n), stack: new Int32Array(n) };
-  } else scratch.label.fill(0);
+function componentScratch(n: number, width: number): NonNullable<typeof scratch> {
+  const maxRuns = Math.ceil(n / 2) + 1;
+  const rowRuns = 3 * (Math.ceil(width / 2) + 1);
+  if (scratch === null || scratch.parent.length < maxRuns || scratch.rows[0].length < rowRuns) {
+    scratch = {
+      parent: new Int32Array(maxRuns),
+      component: new Int32Array(maxRuns),
+      rows: [new Int32Array(rowRuns), new Int32Array(rowRuns)],
+    };
+  }
   return scratch;
+}
+
+/** Root of run r, halving the path on the way (union-find). */
+function findRoot(parent: Int32Array, r: number): number {
+  let x = r;
+  while (parent[x] !== x) {
+    parent[x] = parent[parent[x]];
+    x = parent[x];
+  }
+  return x;
 }
 
 /**
  * Connected components (8-neighbour) of a 0/1 raster: their count, the largest size in cells and
- * the mean column/row of the largest. Flood fill with an explicit stack (no recursion).
+ * the mean column/row of the largest (the first in raster order among equally large ones).
+ * Runs of gap cells row by row; a run joins every run of the row above whose columns it touches,
+ * diagonals included (union-find over runs, the older run as root); then one more pass sums each
+ * component's cells, columns and rows (integers, so the means are exact to the last bit).
  */
 export function gapComponents(
   gap: Uint8Array,
@@ -141,50 +164,79 @@ export function gapComponents(
   largestMeanCol: number;
   largestMeanRow: number;
 } {
-  const { label, stack } = componentScratch(gap.length);
-  let count = 0;
-  let totalCells = 0;
-  let largestCells = 0;
-  let largestMeanCol = Number.NaN;
-  let largestMeanRow = Number.NaN;
-  for (let start = 0; start < gap.length; start++) {
-    if (!gap[start] || label[start]) continue;
-    count++;
-    let top = 0;
-    stack[top++] = start;
-    label[start] = 1;
-    let size = 0;
-    let sumCol = 0;
-    let sumRow = 0;
-    while (top > 0) {
-      const i = stack[--top];
-      const row = (i / width) | 0;
-      const col = i - row * width;
-      size++;
-      sumCol += col;
-      sumRow += row;
-      for (let dr = -1; dr <= 1; dr++) {
-        const r = row + dr;
-        if (r < 0 || r >= height) continue;
-        for (let dc = -1; dc <= 1; dc++) {
-          const c = col + dc;
-          if (c < 0 || c >= width || (dr === 0 && dc === 0)) continue;
-          const j = r * width + c;
-          if (gap[j] && !label[j]) {
-            label[j] = 1;
-            stack[top++] = j;
-          }
-        }
+  const { parent, component, rows } = componentScratch(gap.length, width);
+  // Pass 1: runs and their unions. rows[x] holds (first col, last col, run id) triples of one row.
+  let runs = 0;
+  let above = rows[0];
+  let current = rows[1];
+  let nAbove = 0;
+  for (let row = 0; row < height; row++) {
+    const start = row * width;
+    let n = 0;
+    let a = 0;
+    for (let col = 0; col < width; col++) {
+      if (gap[start + col] === 0) continue;
+      const first = col;
+      while (col + 1 < width && gap[start + col + 1] !== 0) col++;
+      const id = runs++;
+      parent[id] = id;
+      current[n++] = first;
+      current[n++] = col;
+      current[n++] = id;
+      // Runs above that end before first − 1 can touch no later run of this row either.
+      while (a < nAbove && above[a + 1] < first - 1) a += 3;
+      for (let b = a; b < nAbove && above[b] <= col + 1; b += 3) {
+        const ra = findRoot(parent, above[b + 2]);
+        const rb = findRoot(parent, id);
+        if (ra < rb) parent[rb] = ra;
+        else if (rb < ra) parent[ra] = rb;
       }
     }
-    totalCells += size;
-    if (size > largestCells) {
-      largestCells = size;
-      largestMeanCol = sumCol / size;
-      largestMeanRow = sumRow / size;
+    const t = above;
+    above = current;
+    current = t;
+    nAbove = n;
+  }
+  // Pass 2: number the components by their first run (raster order) and sum their cells.
+  let count = 0;
+  for (let r = 0; r < runs; r++) {
+    const root = findRoot(parent, r);
+    component[r] = root === r ? count++ : component[root];
+  }
+  const size = new Float64Array(count);
+  const sumCol = new Float64Array(count);
+  const sumRow = new Float64Array(count);
+  let run = 0;
+  for (let row = 0; row < height; row++) {
+    const start = row * width;
+    for (let col = 0; col < width; col++) {
+      if (gap[start + col] === 0) continue;
+      const first = col;
+      while (col + 1 < width && gap[start + col + 1] !== 0) col++;
+      const c = component[run++];
+      const len = col - first + 1;
+      size[c] += len;
+      sumCol[c] += (len * (first + col)) / 2;
+      sumRow[c] += len * row;
     }
   }
-  return { count, totalCells, largestCells, largestMeanCol, largestMeanRow };
+  let totalCells = 0;
+  let largest = -1;
+  let largestCells = 0;
+  for (let c = 0; c < count; c++) {
+    totalCells += size[c];
+    if (size[c] > largestCells) {
+      largestCells = size[c];
+      largest = c;
+    }
+  }
+  return {
+    count,
+    totalCells,
+    largestCells,
+    largestMeanCol: largest < 0 ? Number.NaN : sumCol[largest] / largestCells,
+    largestMeanRow: largest < 0 ? Number.NaN : sumRow[largest] / largestCells,
+  };
 }
 
 /** All figures of one target height (see the module note for what counts where). */

@@ -1,3 +1,4 @@
+import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import { CellState, fuseHeight } from "../../src/coverage/fusion.ts";
 import { gapComponents, heightMetrics } from "../../src/coverage/metrics.ts";
@@ -60,5 +61,75 @@ describe("metrics", () => {
     ]);
     // Largest gap is a single cell (tie: first found, cell 3 at col 0 row 1) → centre x 1005, y 1985.
     expect(m.gaps.largestCentroidXY).toEqual([1005, 1985]);
+  });
+});
+
+/** Plain flood fill (8-neighbour, explicit stack): the reference gapComponents is checked against. */
+function floodFillComponents(gap: Uint8Array, width: number, height: number) {
+  const seen = new Uint8Array(gap.length);
+  let count = 0;
+  let totalCells = 0;
+  let largestCells = 0;
+  let largestMeanCol = Number.NaN;
+  let largestMeanRow = Number.NaN;
+  for (let start = 0; start < gap.length; start++) {
+    if (!gap[start] || seen[start]) continue;
+    count++;
+    const stack = [start];
+    seen[start] = 1;
+    let size = 0;
+    let sumCol = 0;
+    let sumRow = 0;
+    while (stack.length > 0) {
+      const i = stack.pop()!;
+      const row = Math.floor(i / width);
+      const col = i - row * width;
+      size++;
+      sumCol += col;
+      sumRow += row;
+      for (let dr = -1; dr <= 1; dr++)
+        for (let dc = -1; dc <= 1; dc++) {
+          const r = row + dr;
+          const c = col + dc;
+          if (r < 0 || r >= height || c < 0 || c >= width) continue;
+          const j = r * width + c;
+          if (gap[j] && !seen[j]) {
+            seen[j] = 1;
+            stack.push(j);
+          }
+        }
+    }
+    totalCells += size;
+    if (size > largestCells) {
+      largestCells = size;
+      largestMeanCol = sumCol / size;
+      largestMeanRow = sumRow / size;
+    }
+  }
+  return { count, totalCells, largestCells, largestMeanCol, largestMeanRow };
+}
+
+describe("gap components", () => {
+  it("[ME1] equal a plain flood fill on random rasters (count, cells, largest and its mean cell, ties first)", () => {
+    fc.assert(
+      fc.property(
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: 1, max: 40 }),
+        fc.integer({ min: 0, max: 100 }),
+        fc.integer(),
+        (width, height, percent, seed) => {
+          let x = seed | 1;
+          const gap = new Uint8Array(width * height);
+          for (let i = 0; i < gap.length; i++) {
+            x ^= x << 13;
+            x ^= x >>> 17;
+            x ^= x << 5;
+            gap[i] = (x >>> 0) / 2 ** 32 < percent / 100 ? 1 : 0;
+          }
+          expect(gapComponents(gap, width, height)).toEqual(floodFillComponents(gap, width, height));
+        },
+      ),
+      { numRuns: 400 },
+    );
   });
 });
