@@ -75,77 +75,168 @@ export function fuseHeight(input: FusionInput): FusedHeight {
   const overlapCount = fits ? reuse.overlapCount : new Uint8Array(n);
   const bestRadar = fits ? reuse.bestRadar : new Uint8Array(n);
   const gap = fits ? reuse.gap : new Uint8Array(n);
-  const protectedArea = regions.protectedArea;
-  const ring = regions.approachRing;
   const width = input.width !== undefined && input.width > 0 ? input.width : n;
   const rows = width > 0 ? Math.ceil(n / width) : 0;
   // Per row, radar by radar in index order over the columns its square covers (so the product
   // below is formed in the same order as over all radars), into row accumulators; then the row's
   // outputs. Each Pd raster is read once, along rows, with no per-cell test of its square.
-  const miss = new Float64Array(width);
-  const count = new Uint8Array(width);
-  const best = new Uint8Array(width);
-  const bestPd = new Float32Array(width);
   const rasters = pdPerRadar.slice();
+  const lo = new Int32Array(radarCount);
+  const hi = new Int32Array(radarCount);
+  const ids = new Int32Array(radarCount);
+  const list = new Int32Array(radarCount);
+  const cuts = new Int32Array(2 * radarCount + 2);
+  const out: FusedHeight = { combinedPd, overlapCount, bestRadar, gap };
   for (let row = 0; row < rows; row++) {
     const start = row * width;
     const end = Math.min(n, start + width);
-    miss.fill(1);
-    count.fill(0);
-    best.fill(NO_RADAR);
-    bestPd.fill(0);
+    const last = end - start - 1;
+    // The radars whose square reaches this row, in index order, and their column spans.
+    let na = 0;
+    let nc = 0;
+    cuts[nc++] = 0;
+    cuts[nc++] = last + 1;
     for (let r = 0; r < radarCount; r++) {
       const e = extents?.[r];
-      let lo = 0;
-      let hi = end - start - 1;
-      if (e !== undefined) {
-        if (row < e.rowMin || row > e.rowMax) continue;
-        lo = e.colMin;
-        hi = Math.min(hi, e.colMax);
-      }
-      accumulateRadarRow(rasters[r], r, start, lo, hi, requiredPd, miss, count, best, bestPd);
+      if (e !== undefined && (row < e.rowMin || row > e.rowMax)) continue;
+      ids[na] = r;
+      lo[na] = e === undefined ? 0 : Math.max(0, e.colMin);
+      hi[na] = e === undefined ? last : Math.min(last, e.colMax);
+      if (lo[na] > hi[na]) continue;
+      cuts[nc++] = lo[na];
+      cuts[nc++] = hi[na] + 1;
+      na++;
     }
-    for (let i = start; i < end; i++) {
-      const col = i - start;
-      if (cellState[i] !== CellState.valid) {
-        combinedPd[i] = 0;
-        overlapCount[i] = 0;
-        bestRadar[i] = NO_RADAR;
-        gap[i] = 0;
-        continue;
-      }
-      const pdc = 1 - miss[col];
-      combinedPd[i] = pdc;
-      overlapCount[i] = count[col];
-      bestRadar[i] = best[col];
-      gap[i] = (protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd ? 1 : 0;
+    // Segments of the row over which the same radars are active: no per-cell test of the squares.
+    const sorted = cuts.subarray(0, nc).sort();
+    for (let s = 0; s + 1 < nc; s++) {
+      const x0 = sorted[s];
+      const x1 = sorted[s + 1];
+      if (x1 <= x0) continue;
+      let k = 0;
+      for (let a = 0; a < na; a++) if (lo[a] <= x0 && hi[a] >= x1 - 1) list[k++] = ids[a];
+      if (k === 3) fuseSegment3(rasters, list, start + x0, start + x1, requiredPd, cellState, regions, out);
+      else fuseSegment(rasters, list, k, start + x0, start + x1, requiredPd, cellState, regions, out);
     }
   }
   return { combinedPd, overlapCount, bestRadar, gap };
 }
 
-/** One radar's Pd over columns lo..hi of one row into the row accumulators of fuseHeight. */
-function accumulateRadarRow(
-  pd: Float32Array,
-  radar: number,
-  start: number,
-  lo: number,
-  hi: number,
+/**
+ * Cells [from, to) of one row, the radars of `list` (k of them, index order) active over all of them:
+ * combined Pd as 1 − Π(1 − Pd) in that order, overlap, best radar, gap. Twin of fuseSegment3.
+ */
+function fuseSegment(
+  rasters: ReadonlyArray<Float32Array>,
+  list: Int32Array,
+  k: number,
+  from: number,
+  to: number,
   requiredPd: number,
-  miss: Float64Array,
-  count: Uint8Array,
-  best: Uint8Array,
-  bestPd: Float32Array,
+  cellState: Uint8Array,
+  regions: RegionMasks,
+  out: FusedHeight,
 ): void {
-  for (let col = lo; col <= hi; col++) {
-    const p = pd[start + col];
-    if (!(p > 0)) continue;
-    miss[col] *= 1 - p;
-    if (p >= requiredPd) count[col]++;
-    if (p > bestPd[col]) {
-      bestPd[col] = p;
-      best[col] = radar;
+  const { combinedPd, overlapCount, bestRadar, gap } = out;
+  const protectedArea = regions.protectedArea;
+  const ring = regions.approachRing;
+  const valid = CellState.valid;
+  const none = NO_RADAR;
+  for (let i = from; i < to; i++) {
+    if (cellState[i] !== valid) {
+      combinedPd[i] = 0;
+      overlapCount[i] = 0;
+      bestRadar[i] = none;
+      gap[i] = 0;
+      continue;
     }
+    let miss = 1;
+    let count = 0;
+    let best = none;
+    let bestPd = 0;
+    for (let a = 0; a < k; a++) {
+      const r = list[a];
+      const p = rasters[r][i];
+      if (!(p > 0)) continue;
+      miss *= 1 - p;
+      if (p >= requiredPd) count++;
+      if (p > bestPd) {
+        bestPd = p;
+        best = r;
+      }
+    }
+    const pdc = 1 - miss;
+    combinedPd[i] = pdc;
+    overlapCount[i] = count;
+    bestRadar[i] = best;
+    gap[i] = (protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd ? 1 : 0;
+  }
+}
+
+/** fuseSegment for exactly three radars, their rasters in locals (the common case over wide areas). */
+function fuseSegment3(
+  rasters: ReadonlyArray<Float32Array>,
+  list: Int32Array,
+  from: number,
+  to: number,
+  requiredPd: number,
+  cellState: Uint8Array,
+  regions: RegionMasks,
+  out: FusedHeight,
+): void {
+  const { combinedPd, overlapCount, bestRadar, gap } = out;
+  const protectedArea = regions.protectedArea;
+  const ring = regions.approachRing;
+  const valid = CellState.valid;
+  const none = NO_RADAR;
+  const ra = list[0];
+  const rb = list[1];
+  const rc = list[2];
+  const pa = rasters[ra];
+  const pb = rasters[rb];
+  const pc = rasters[rc];
+  for (let i = from; i < to; i++) {
+    if (cellState[i] !== valid) {
+      combinedPd[i] = 0;
+      overlapCount[i] = 0;
+      bestRadar[i] = none;
+      gap[i] = 0;
+      continue;
+    }
+    let miss = 1;
+    let count = 0;
+    let best = none;
+    let bestPd = 0;
+    const p0 = pa[i];
+    if (p0 > 0) {
+      miss *= 1 - p0;
+      if (p0 >= requiredPd) count++;
+      bestPd = p0;
+      best = ra;
+    }
+    const p1 = pb[i];
+    if (p1 > 0) {
+      miss *= 1 - p1;
+      if (p1 >= requiredPd) count++;
+      if (p1 > bestPd) {
+        bestPd = p1;
+        best = rb;
+      }
+    }
+    const p2 = pc[i];
+    if (p2 > 0) {
+      miss *= 1 - p2;
+      if (p2 >= requiredPd) count++;
+      if (p2 > bestPd) {
+        bestPd = p2;
+        best = rc;
+      }
+    }
+    const pdc = 1 - miss;
+    combinedPd[i] = pdc;
+    overlapCount[i] = count;
+    bestRadar[i] = best;
+    gap[i] = (protectedArea[i] | ring[i]) !== 0 && pdc < requiredPd ? 1 : 0;
   }
 }
 
