@@ -98,7 +98,10 @@ export interface SiteResult {
   requiredPd: number;
   /** Per radar, in the order of site.radars. */
   radars: RadarCoverage[];
-  /** Lowest height above ground that at least one radar sees, m (NaN where none computed). */
+  /**
+   * Lowest height above ground that at least one radar sees, m (NaN where none computed); empty when
+   * the run was asked not to merge it (EvaluateOptions.lowestVisible false).
+   */
   lowestVisibleHeightAglM: Float32Array;
   targets: SiteTargetResult[];
   /** Radars computed in this run, and those taken from the cache. */
@@ -148,6 +151,11 @@ export interface EvaluateOptions {
    * arrays are overwritten.
    */
   previous?: SiteResult;
+  /**
+   * false: skip merging the lowest visible height (the result's array is then empty); for a caller
+   * that has it from another run of the same radars. Default true.
+   */
+  lowestVisible?: boolean;
 }
 
 /** A run stopped by its caller (recognise it by name across worker boundaries). */
@@ -492,11 +500,11 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
         return r;
       }),
     );
-    lowest = mergeLowestVisible(site, radars, prev);
+    lowest = opts.lowestVisible === false ? new Float32Array(0) : mergeLowestVisible(site, radars, prev);
     fused = await steps;
     checkCancel(opts);
   } else {
-    lowest = mergeLowestVisible(site, radars, prev);
+    lowest = opts.lowestVisible === false ? new Float32Array(0) : mergeLowestVisible(site, radars, prev);
     fused = jobs.map((job) => {
       checkCancel(opts);
       const h = site.heightsAglM[job.heightIndex];

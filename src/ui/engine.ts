@@ -123,6 +123,8 @@ async function runPart(
   const shown = view.slices.map((s) => ({ ...s, gapShapes: all.shownGapShapes }));
   return {
     ...all,
+    // One of the two steps merged the lowest visible height (EvaluateRequest.lowestShown).
+    lowestVisibleAglM: all.lowestVisibleAglM.length > 0 ? all.lowestVisibleAglM : view.lowestVisibleAglM,
     shownGapShapes: undefined,
     slices: [...shown, ...all.slices],
     elapsedMs: view.elapsedMs + all.elapsedMs,
@@ -133,7 +135,7 @@ async function runPart(
 /**
  * The views of the parts of one run as one view: every slice in the order of a whole run (classes,
  * then heights, as the parts list them in `classIds` and `heightsM`); the arrays common to all parts
- * (terrain, lowest visible height) from the first.
+ * (terrain, lowest visible height, which only the first part merges) from the first.
  */
 export function mergePartViews(parts: CoverageView[]): CoverageView {
   const [first] = parts;
@@ -172,6 +174,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     perRadarPostId: singleRadarShown(),
     ...focus,
     ...(!options.preview && focus.focus ? { sliceFirst: true } : {}),
+    lowestShown: useSession.getState().layer === "lowest",
     ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
   };
   useCoverage.getState().set({ running: true, generation: g });

@@ -261,6 +261,10 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
             : req.shownSliceHeld
               ? withoutFocus(full, req.focus)
               : full;
+      // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
+      const lowestVisible =
+        (req.part?.index ?? 0) === 0 &&
+        (sub === full || (req.sliceFirst ? req.lowestShown === true : req.lowestShown !== true));
       if (sub !== full) {
         const mode = full.maskMode;
         const terrainId = siteTerrainId(full);
@@ -268,6 +272,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         const accurate = cache;
         result = await evaluateSite(sub, {
           mode,
+          lowestVisible,
           shouldCancel: stale,
           runRadar: async (_s, i) => {
             // A turn of the event loop before each radar, so that a newer generation can be heard.
@@ -294,6 +299,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         result = await evaluateSite(site, {
           cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
           mode: site.maskMode,
+          lowestVisible,
           shouldCancel: stale,
         });
       }

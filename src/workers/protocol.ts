@@ -37,6 +37,12 @@ export interface EvaluateRequest {
    */
   shownSliceHeld?: boolean;
   /**
+   * The map shows the lowest visible height. The lowest visible height over all radars is merged by
+   * one step of a run only: the sliceFirst step when it is shown, else the step that follows it; a
+   * part other than the first leaves it out (the first part's is the run's).
+   */
+  lowestShown?: boolean;
+  /**
    * The class and height shown on the map. A preview (maskMode "fast") computes only this slice; a full
    * run computes every slice and outlines the gaps of this one.
    */

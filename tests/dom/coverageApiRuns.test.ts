@@ -76,7 +76,14 @@ describe("coverage API runs", () => {
     expect(shown.metrics).toEqual(same.metrics);
     expect(Array.from(shown.combinedPd)).toEqual(Array.from(same.combinedPd));
     expect(Array.from(shown.gap)).toEqual(Array.from(same.gap));
-    expect(Array.from(first.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
+    // The lowest visible height is merged once per run: by the second step unless the map shows it.
+    expect(first.lowestVisibleAglM.length).toBe(0);
+    expect(Array.from(rest.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
+    const shownReq = request(plan, { focus, lowestShown: true });
+    const shownFirst = await api.evaluate({ ...shownReq, sliceFirst: true });
+    const shownRest = await api.evaluate({ ...shownReq, shownSliceHeld: true });
+    expect(Array.from(shownFirst.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
+    expect(shownRest.lowestVisibleAglM.length).toBe(0);
   });
 
   it("a run split in parts over two workers, put together, equals the whole run", async () => {
@@ -115,6 +122,8 @@ describe("coverage API runs", () => {
         expect(Array.from(m.perRadarPd[r])).toEqual(Array.from(s.perRadarPd[r]));
     }
     expect(Array.from(merged.lowestVisibleAglM)).toEqual(Array.from(whole.lowestVisibleAglM));
+    // Only the first part merges it.
+    expect(parts[1].lowestVisibleAglM.length).toBe(0);
     expect(merged.heightsM).toEqual(whole.heightsM);
     expect(merged.classIds).toEqual(whole.classIds);
   });

@@ -63,6 +63,20 @@ describe("evaluateSite", () => {
     );
   });
 
+  it("leaves the lowest visible height out when asked, and nothing else changes", async () => {
+    const s = site();
+    const full = await evaluateSite(s);
+    const without = await evaluateSite(s, { lowestVisible: false });
+    expect(without.lowestVisibleHeightAglM.length).toBe(0);
+    expect(full.lowestVisibleHeightAglM.length).toBe(s.frame.width * s.frame.height);
+    for (const [t, target] of full.targets.entries())
+      for (const [k, h] of target.heights.entries()) {
+        const other = without.targets[t].heights[k];
+        expect(other.metrics).toEqual(h.metrics);
+        expect(Array.from(other.combinedPd)).toEqual(Array.from(h.combinedPd));
+      }
+  });
+
   it("[EV2] progress is reported per radar and per fusion step; a cancel stops the run with CancelledError", async () => {
     const s = site();
     const seen: string[] = [];
