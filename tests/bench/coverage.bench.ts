@@ -2,17 +2,12 @@
  * Coverage benchmark: the radar stage (SNR + Pd + reason for 4 heights, horizon given) in ns per cell,
  * and the full evaluation of a 10-radar, 3-height plan on 4 M cells (2048 × 2048 at 5 m, rough terrain
  * with buildings), single-threaded and on 2 Node worker_threads via comlink. Medians and spreads
- * (min–max) are printed, never asserted; also `plan los` end to end against `gdal_viewshed -om GROUND`.
- * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|breakdown|full|shared|los]`.
+ * (min–max) are printed, never asserted. `plan los` against `gdal_viewshed` is in los.bench.ts.
+ * Run alone with `npx tsx tests/bench/coverage.bench.ts [stage|breakdown|full|shared]`.
  */
-import { spawnSync } from "node:child_process";
-import { mkdtempSync, rmSync, writeFileSync } from "node:fs";
-import { tmpdir } from "node:os";
-import { join } from "node:path";
 import { Worker } from "node:worker_threads";
 import * as Comlink from "comlink";
 import nodeEndpoint from "comlink/dist/esm/node-adapter.mjs";
-import { runPlan } from "../../src/cli/plan.ts";
 import {
   buildRadarKernel,
   type PlacedRadar,
@@ -30,7 +25,6 @@ import type { FusedHeight } from "../../src/coverage/fusion.ts";
 import type { HeightMetrics } from "../../src/coverage/metrics.ts";
 import type { RadarModel } from "../../src/coverage/radarModel.ts";
 import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts";
-import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
 import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
 import { cellXY, demoRadar, placed, stageOf } from "../unit/coverageFixtures.ts";
 import { type CoverageWorkerApi, resultBuffers } from "./coverageWorkerApi.ts";
@@ -438,87 +432,8 @@ async function benchBreakdown(runs: number): Promise<void> {
   console.log(`coverage fusion and metrics (3 heights, 10 radars): ${fmt(stats(fusion), 0)} ms`);
 }
 
-/** Wall time of a command, ms, or NaN when it fails. */
-function timeCommand(cmd: string, args: string[]): number {
-  const t = performance.now();
-  const r = spawnSync(cmd, args, { stdio: "ignore" });
-  return r.status === 0 ? performance.now() - t : Number.NaN;
-}
-
-/**
- * `plan los` end to end against `gdal_viewshed -om GROUND` on the same 4 M-cell DEM (GeoTIFF in and
- * out, process start included), interleaved round by round; plus `plan los` in-process (no start-up).
- */
-async function benchLos(runs: number): Promise<void> {
-  const have = spawnSync("gdal_viewshed", [], { stdio: "ignore" }).error === undefined;
-  const dem = syntheticDem({ width: SIDE, height: SIDE, cellSizeM: 10, seed: 7, buildings: 400 });
-  const dir = mkdtempSync(join(tmpdir(), "picket-los-bench-"));
-  try {
-    const demPath = join(dir, "dem.tif");
-    const frame = {
-      ...dem.surface,
-      originX: 500_000,
-      originY: 4_600_000,
-      crs: "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs",
-    };
-    writeFileSync(demPath, new Uint8Array(encodeGeoTiff({ data: dem.surface.data, frame })));
-    const x = frame.originX + 0.45 * SIDE * 10 + 5;
-    const y = frame.originY - 0.55 * SIDE * 10 - 5;
-    const losArgs = [
-      "los",
-      "--dem",
-      demPath,
-      "--at-xy",
-      `${x},${y}`,
-      "--mast-m",
-      "15",
-      "--out",
-      join(dir, "los.tif"),
-    ];
-    // GDAL's curvature coefficient for k = 4/3 (as in mask.bench.ts): cc = a_WGS84 / (k · a).
-    const cc = String(6_378_137 / ((4 / 3) * 6_371_000));
-    const gdalArgs = [
-      "-q",
-      "-om",
-      "GROUND",
-      "-oz",
-      "15",
-      "-ox",
-      String(x),
-      "-oy",
-      String(y),
-      "-cc",
-      cc,
-      demPath,
-      join(dir, "gdal.tif"),
-    ];
-    const cli: number[] = [];
-    const inProc: number[] = [];
-    const gdal: number[] = [];
-    await runPlan(losArgs); // warm-up
-    for (let r = 0; r < runs; r++) {
-      cli.push(timeCommand("npx", ["tsx", "src/cli/plan.ts", ...losArgs]));
-      let t = performance.now();
-      await runPlan(losArgs);
-      inProc.push(performance.now() - t);
-      if (have) gdal.push(timeCommand("gdal_viewshed", gdalArgs));
-      t = performance.now();
-    }
-    const c = stats(cli);
-    const i = stats(inProc);
-    let line = `plan los on ${SIDE * SIDE} cells (accurate): end to end ${fmt(c, 0)} ms, in-process ${fmt(i, 0)} ms`;
-    if (have) {
-      const g = stats(gdal);
-      line += `; gdal_viewshed -om GROUND ${fmt(g, 0)} ms; ratio gdal/ours ${(g.median / c.median).toFixed(2)} end to end, ${(g.median / i.median).toFixed(2)} in-process`;
-    } else line += "; gdal_viewshed not installed, comparison skipped";
-    console.log(`${line}; ${runs} rounds`);
-  } finally {
-    rmSync(dir, { recursive: true, force: true });
-  }
-}
-
-/** Prints the coverage figures; never asserts. `parts`: "stage", "full", "los" (default all). */
-export async function run(parts: string[] = ["stage", "full", "los"]): Promise<void> {
+/** Prints the coverage figures; never asserts. `parts`: "stage", "full" (default both). */
+export async function run(parts: string[] = ["stage", "full"]): Promise<void> {
   if (parts.includes("stage")) {
     benchStage("rotating pulsed (kalvori-x9), 10 m cells", demoRadar("kalvori-x9"), 10, 7);
     benchStage("staring FMCW (mossbee-58), 0.5 m cells", demoRadar("mossbee-58"), 0.5, 7);
@@ -540,7 +455,6 @@ export async function run(parts: string[] = ["stage", "full", "los"]): Promise<v
     );
     await benchShared(site, 5, stats(one).median);
   }
-  if (parts.includes("los")) await benchLos(5);
 }
 
 if (process.argv[1]?.endsWith("coverage.bench.ts")) {
