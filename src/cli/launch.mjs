@@ -10,6 +10,7 @@ import { fileURLToPath, pathToFileURL } from "node:url";
 const root = join(dirname(fileURLToPath(import.meta.url)), "..", "..");
 const cacheDir = join(root, "node_modules", ".cache", "picket-cli");
 const KEEP_BUNDLES = 3;
+const FALLBACK_CODES = new Set(["ERR_MODULE_NOT_FOUND", "EACCES", "EPERM", "EROFS"]);
 
 /** A key of every source file's path, size and modification time, and of the lockfile. */
 function sourceKey() {
@@ -74,7 +75,8 @@ export async function loadEntry(name) {
       mkdirSync(cacheDir, { recursive: true });
       await buildBundle(dir);
     } catch (e) {
-      if (e?.code !== "ERR_MODULE_NOT_FOUND") throw e; // esbuild is missing: run the TypeScript
+      // No esbuild, or a cache folder that cannot be written (a read-only install): run the TypeScript.
+      if (!FALLBACK_CODES.has(e?.code)) throw e;
       const { register } = await import("tsx/esm/api");
       register();
       return import(pathToFileURL(join(root, "src/cli", `${name}.ts`)).href);
