@@ -185,7 +185,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }
-    const count = Math.max(1, Math.min(p.size, ACCURATE_PARTS));
+    const count = Math.max(1, Math.min(p.size, ACCURATE_PARTS, sliceCount(plan)));
     const showShown = (view: CoverageView) => {
       if (g === generation) useCoverage.getState().set({ view, preview: null, problem: null, running: true });
     };
@@ -202,6 +202,12 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     if ((e as Error)?.name !== "WorkerCrashError")
       say("error", `The coverage could not be computed: ${errorText(e)}`);
   }
+}
+
+/** Slices (class, height) a run of the plan fuses: a part with none would only repeat the masking. */
+function sliceCount(plan: Plan): number {
+  const heights = new Set(plan.analysis.targetHeightsM);
+  return plan.targetClasses.reduce((n, t) => n + t.heightsAglM.filter((h) => heights.has(h)).length, 0);
 }
 
 /** The class and height the map shows. */
