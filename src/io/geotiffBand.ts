@@ -61,9 +61,7 @@ export async function readBand1Window(image: GeoTIFFImage, window: Window): Prom
   for (let by = by0; by < by1; by++) {
     for (let bx = bx0; bx < bx1; bx++) {
       const block = await image.getTileOrStrip(bx, by, 0, decoder);
-      const values = image.getArrayForSample(0, block.data as ArrayBuffer) as unknown as Samples & {
-        subarray(a: number, b: number): ArrayLike<number>;
-      };
+      const values = samplesOf(image, block.data as ArrayBufferLike);
       const blockRows = image.getBlockHeight(by);
       const colStart = Math.max(x0, bx * tileWidth);
       const colEnd = Math.min(x1, (bx + 1) * tileWidth);
@@ -106,5 +104,33 @@ async function wholeRawImage(
     image as unknown as { source: { fetch(s: { offset: number; length: number }[]): Promise<ArrayBuffer[]> } }
   ).source;
   const [run] = await source.fetch([{ offset: Number(offsets[0]), length: bytes }]);
-  return image.getArrayForSample(0, run);
+  return samplesOf(image, run);
+}
+
+type SampleArray = Samples & { subarray(a: number, b: number): ArrayLike<number> };
+
+/**
+ * The samples of decoded bytes in the file's sample type. Built here rather than by geotiff.js,
+ * whose `instanceof ArrayBuffer` test refuses buffers of another realm or shared ones.
+ */
+function samplesOf(image: GeoTIFFImage, bytes: ArrayBufferLike): SampleArray {
+  const bits = image.getBitsPerSample(0);
+  const format = image.getSampleFormat(0);
+  const Ctor =
+    format === 3
+      ? bits === 64
+        ? Float64Array
+        : Float32Array
+      : format === 2
+        ? bits === 8
+          ? Int8Array
+          : bits === 16
+            ? Int16Array
+            : Int32Array
+        : bits === 8
+          ? Uint8Array
+          : bits === 16
+            ? Uint16Array
+            : Uint32Array;
+  return new Ctor(bytes as ArrayBuffer) as unknown as SampleArray;
 }

@@ -10,6 +10,8 @@ export interface CoverageState {
   /** A fast preview while a post is dragged; shown instead of `view` while present. */
   preview: CoverageView | null;
   running: boolean;
+  /** Fraction done (0…1) of the accurate run under way, or null. */
+  progress: number | null;
   /** The generation being computed. */
   generation: number;
   /** A run that could not be done (bad plan, memory refusal); the previous view stays. */
@@ -23,6 +25,7 @@ export const useCoverage = create<CoverageState>()((set) => ({
   view: null,
   preview: null,
   running: false,
+  progress: null,
   generation: 0,
   problem: null,
   point: null,

@@ -6,6 +6,8 @@
  * cache of coarse, fast-masked radars, so previews never evict the accurate radars); inspections on
  * the last worker. With one worker, everything runs there in one part.
  */
+
+import * as Comlink from "comlink";
 import type { Plan } from "../io/planSchema";
 import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
 import type {
@@ -14,6 +16,8 @@ import type {
   DemPayload,
   EvaluateRequest,
   PointRequest,
+  ProgressListener,
+  RunProgress,
 } from "../workers/protocol";
 import { useAssets } from "./assets";
 import { useCoverage } from "./coverageState";
@@ -91,6 +95,39 @@ function errorText(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
 
+/**
+ * The fraction of a run done, over its parts: per part, its radars count for RADAR_SHARE and its
+ * fusion steps for the rest; a part's fraction never goes back (its second step starts its counts
+ * again), and a finished part counts whole.
+ */
+export class RunProgressTracker {
+  private readonly fractions: number[];
+  constructor(
+    count: number,
+    private readonly publish: (fraction: number) => void,
+  ) {
+    this.fractions = new Array(count).fill(0);
+  }
+  report(part: number, p: RunProgress): void {
+    const share = p.stage === "radars" ? RADAR_SHARE : 1 - RADAR_SHARE;
+    const base = p.stage === "radars" ? 0 : RADAR_SHARE;
+    const f = p.total > 0 ? base + (share * Math.min(p.done, p.total)) / p.total : base;
+    if (f <= this.fractions[part]) return;
+    this.fractions[part] = f;
+    this.publish(this.fraction());
+  }
+  finish(part: number): void {
+    this.fractions[part] = 1;
+    this.publish(this.fraction());
+  }
+  fraction(): number {
+    return this.fractions.reduce((a, f) => a + f, 0) / this.fractions.length;
+  }
+}
+
+/** Share of a part's progress given to its radars (the rest to fusion and metrics). */
+const RADAR_SHARE = 0.8;
+
 /** Post ids in first-seen order, each once (both steps, or both parts, may name the same radar). */
 function unique(ids: (string[] | undefined)[]): string[] {
   return [...new Set(ids.flatMap((x) => x ?? []))];
@@ -106,9 +143,14 @@ async function runPart(
   req: EvaluateRequest,
   slot: number,
   onShown: (view: CoverageView) => void,
+  onProgress: ProgressListener,
 ): Promise<CoverageView> {
   const channel = `evaluate-${slot}`;
-  const view = withTerrain(await p.run(channel, req.generation, "evaluate", [req], { slot }), "full");
+  const listener = () => Comlink.proxy(onProgress);
+  const view = withTerrain(
+    await p.run(channel, req.generation, "evaluate", [req, listener()], { slot }),
+    "full",
+  );
   if (!view.partial) return view;
   onShown(view);
   const rest: EvaluateRequest = {
@@ -117,7 +159,10 @@ async function runPart(
     shownSliceHeld: true,
     haveTerrainKey: view.terrainKey,
   };
-  const all = withTerrain(await p.run(channel, req.generation, "evaluate", [rest], { slot }), "full");
+  const all = withTerrain(
+    await p.run(channel, req.generation, "evaluate", [rest, listener()], { slot }),
+    "full",
+  );
   // The second step fused the part's other slices only: the shown one is the first step's, with the
   // gap outlines the second step brought.
   const shown = view.slices.map((s) => ({ ...s, gapShapes: all.shownGapShapes }));
@@ -189,16 +234,24 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     const showShown = (view: CoverageView) => {
       if (g === generation) useCoverage.getState().set({ view, preview: null, problem: null, running: true });
     };
+    const progress = new RunProgressTracker(count, (fraction) => {
+      if (g === generation) useCoverage.getState().set({ progress: fraction });
+    });
     const parts = await Promise.all(
-      Array.from({ length: count }, (_, k) =>
-        runPart(p, count > 1 ? { ...req, part: { index: k, count } } : req, k, showShown),
-      ),
+      Array.from({ length: count }, async (_, k) => {
+        const part = count > 1 ? { ...req, part: { index: k, count } } : req;
+        const view = await runPart(p, part, k, showShown, (r) => progress.report(k, r));
+        progress.finish(k);
+        return view;
+      }),
     );
     if (g !== generation) return;
-    useCoverage.getState().set({ view: mergePartViews(parts), preview: null, running: false, problem: null });
+    useCoverage
+      .getState()
+      .set({ view: mergePartViews(parts), preview: null, running: false, progress: null, problem: null });
   } catch (e) {
     if (isStale(e)) return;
-    useCoverage.getState().set({ running: false, problem: errorText(e) });
+    useCoverage.getState().set({ running: false, progress: null, problem: errorText(e) });
     if ((e as Error)?.name !== "WorkerCrashError")
       say("error", `The coverage could not be computed: ${errorText(e)}`);
   }

@@ -11,9 +11,16 @@ import { viewTransferables } from "./protocol";
 const api = createCoverageApi();
 
 const exposed: CoverageApi = {
-  async evaluate(req) {
-    const view = await api.evaluate(req);
-    return Comlink.transfer(view, viewTransferables(view));
+  async evaluate(req, onProgress) {
+    try {
+      const view = await api.evaluate(req, onProgress);
+      return Comlink.transfer(view, viewTransferables(view));
+    } finally {
+      // The listener came as a comlink proxy: close its channel once the run is over.
+      (onProgress as Partial<Record<typeof Comlink.releaseProxy, () => void>> | undefined)?.[
+        Comlink.releaseProxy
+      ]?.();
+    }
   },
   point: (req) => api.point(req),
   crashForTest: () => api.crashForTest(),

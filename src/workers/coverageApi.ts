@@ -32,6 +32,7 @@ import type {
   PointRadar,
   PointReply,
   PointRequest,
+  ProgressListener,
 } from "./protocol";
 import { cloneView, toCoverageView } from "./toView";
 
@@ -244,7 +245,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     async supersede(generation: number) {
       newest = Math.max(newest, generation);
     },
-    async evaluate(req: EvaluateRequest): Promise<CoverageView> {
+    async evaluate(req: EvaluateRequest, onProgress?: ProgressListener): Promise<CoverageView> {
       const t0 = now();
       const stale = () => req.generation < newest;
       const whole = await prepare(req.plan, req.dem, req.maskMode);
@@ -261,6 +262,10 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
             : req.shownSliceHeld
               ? withoutFocus(full, req.focus)
               : full;
+      const tell = onProgress
+        ? (p: { stage: "radars" | "fusion"; done: number; total: number }) =>
+            void onProgress({ stage: p.stage, done: p.done, total: p.total })
+        : undefined;
       // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
       const lowestVisible =
         (req.part?.index ?? 0) === 0 &&
@@ -273,6 +278,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         result = await evaluateSite(sub, {
           mode,
           lowestVisible,
+          onProgress: tell,
           shouldCancel: stale,
           runRadar: async (_s, i) => {
             // A turn of the event loop before each radar, so that a newer generation can be heard.
@@ -300,6 +306,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
           mode: site.maskMode,
           lowestVisible,
+          onProgress: tell,
           shouldCancel: stale,
         });
       }

@@ -173,9 +173,19 @@ export interface PointReply {
   radars: PointRadar[];
 }
 
+/** How far a run is: radars computed (or taken from the cache), then fusion steps done. */
+export interface RunProgress {
+  stage: "radars" | "fusion";
+  done: number;
+  total: number;
+}
+
+/** Told of a run's progress (across a worker boundary through a comlink proxy). */
+export type ProgressListener = (p: RunProgress) => void;
+
 /** Methods a coverage worker exposes (and the inline implementation provides). */
 export interface CoverageApi {
-  evaluate(req: EvaluateRequest): Promise<CoverageView>;
+  evaluate(req: EvaluateRequest, onProgress?: ProgressListener): Promise<CoverageView>;
   point(req: PointRequest): Promise<PointReply>;
   /** Crashes the worker on purpose (tests of the crash recovery). */
   crashForTest(): Promise<void>;

@@ -30,6 +30,7 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
   const canUndo = useHistory((s) => s.pastStates.length > 0);
   const canRedo = useHistory((s) => s.futureStates.length > 0);
   const running = useCoverage((s) => s.running);
+  const progress = useCoverage((s) => s.progress);
   const elapsed = useCoverage((s) => s.view?.elapsedMs);
   const problem = useCoverage((s) => s.problem);
   const [recent, setRecent] = useState<RecentPlan[]>([]);
@@ -115,8 +116,13 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
         />
       </nav>
       <div className="run-status" role="status" data-testid="run-status">
+        {running && progress !== null && (
+          <progress className="run-progress" max={1} value={progress} aria-label="Run progress" />
+        )}
         {running
-          ? "Computing…"
+          ? progress !== null
+            ? `Computing… ${Math.floor(progress * 100)} %`
+            : "Computing…"
           : problem
             ? `Not computed: ${problem}`
             : elapsed !== undefined

@@ -1,0 +1,71 @@
+// @vitest-environment jsdom
+/**
+ * Progress of an accurate run: the worker API reports radars then fusion steps, the engine's tracker
+ * turns the parts' reports into one fraction that never goes back, and the top bar shows it.
+ */
+import { readFileSync } from "node:fs";
+import { join } from "node:path";
+import { act } from "react";
+import { createRoot } from "react-dom/client";
+import { describe, expect, it } from "vitest";
+import { parsePlan } from "../../src/io/planValidation";
+import { TopBar } from "../../src/ui/components/TopBar";
+import { useCoverage } from "../../src/ui/coverageState";
+import { RunProgressTracker } from "../../src/ui/engine";
+import { createCoverageApi } from "../../src/workers/coverageApi";
+import type { RunProgress } from "../../src/workers/protocol";
+
+(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
+
+const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
+
+describe("run progress", () => {
+  it("the worker API reports every radar, then every fusion step", async () => {
+    const parsed = parsePlan(JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")));
+    if (!parsed.ok) throw new Error("demo plan does not parse");
+    const plan = parsed.plan;
+    const b = readFileSync(join(DEMO, "terrain.tif"));
+    const dem = { fileName: "terrain.tif", bytes: b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) };
+    const seen: RunProgress[] = [];
+    await createCoverageApi().evaluate({ generation: 1, plan, dem }, (p) => seen.push(p));
+    const radars = seen.filter((p) => p.stage === "radars");
+    const fusion = seen.filter((p) => p.stage === "fusion");
+    const enabled = plan.posts.filter((p) => p.enabled).length;
+    expect(radars.map((p) => p.done)).toEqual(Array.from({ length: enabled + 1 }, (_, i) => i));
+    expect(radars.every((p) => p.total === enabled)).toBe(true);
+    const slices = plan.targetClasses.reduce((n, t) => n + t.heightsAglM.length, 0);
+    expect(fusion.map((p) => p.done)).toEqual(Array.from({ length: slices }, (_, i) => i + 1));
+    expect(seen.indexOf(radars[radars.length - 1])).toBeLessThan(seen.indexOf(fusion[0]));
+  });
+
+  it("the tracker averages the parts, never goes back, and counts a finished part whole", () => {
+    const out: number[] = [];
+    const t = new RunProgressTracker(2, (f) => out.push(f));
+    t.report(0, { stage: "radars", done: 4, total: 8 }); // part 0: 0.8 × 4/8 = 0.4
+    expect(t.fraction()).toBeCloseTo(0.2, 12);
+    t.report(1, { stage: "radars", done: 8, total: 8 }); // part 1: 0.8
+    t.report(1, { stage: "fusion", done: 1, total: 2 }); // part 1: 0.8 + 0.2 × 1/2 = 0.9
+    expect(t.fraction()).toBeCloseTo((0.4 + 0.9) / 2, 12);
+    t.report(1, { stage: "radars", done: 0, total: 8 }); // a second step starts again: ignored
+    expect(t.fraction()).toBeCloseTo((0.4 + 0.9) / 2, 12);
+    t.finish(0);
+    t.finish(1);
+    expect(t.fraction()).toBe(1);
+    expect(out.every((f, i) => i === 0 || f >= out[i - 1])).toBe(true);
+  });
+
+  it("the top bar shows the fraction while a run is under way", async () => {
+    const el = document.createElement("div");
+    document.body.append(el);
+    const root = createRoot(el);
+    await act(async () => {
+      useCoverage.getState().set({ running: true, progress: 0.42 });
+      root.render(<TopBar onAbout={() => undefined} mapCentre={() => [0, 0]} />);
+    });
+    expect(el.querySelector('[data-testid="run-status"]')?.textContent).toBe("Computing… 42 %");
+    expect((el.querySelector("progress") as HTMLProgressElement).value).toBeCloseTo(0.42, 6);
+    await act(async () => useCoverage.getState().set({ running: false, progress: null }));
+    expect(el.querySelector("progress")).toBeNull();
+    await act(async () => root.unmount());
+  });
+});
