@@ -155,9 +155,22 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     const covered0 = await text(page, "covered-protected-10");
     const g0 = await gen(page);
     const pd = page.getByTestId("required-pd");
+    // Every radar is computed again (the requirement is part of its key): the status shows how far.
+    await page.evaluate(() => {
+      const w = window as unknown as { __statuses: string[] };
+      w.__statuses = [];
+      const el = document.querySelector('[data-testid="run-status"]') as Element;
+      new MutationObserver(() => w.__statuses.push(el.textContent ?? "")).observe(el, {
+        childList: true,
+        subtree: true,
+        characterData: true,
+      });
+    });
     await pd.fill("0.5");
     await pd.press("Enter");
     await waitNewRun(page, g0);
+    const statuses = await page.evaluate(() => (window as unknown as { __statuses: string[] }).__statuses);
+    expect(statuses.some((t) => /^Computing… \d+ %$/.test(t))).toBe(true);
     expect(Number.parseFloat(await text(page, "covered-protected-10"))).toBeGreaterThanOrEqual(
       Number.parseFloat(covered0),
     );
