@@ -13,6 +13,7 @@ import {
   radarKey,
   type SiteResult,
   siteTerrainId,
+  yieldToEventLoop,
 } from "../coverage/evaluate";
 import { linkBudget } from "../coverage/linkBudget";
 import { RadarResultCache } from "../coverage/radarCache";
@@ -41,11 +42,6 @@ const RADAR_CACHE_ENTRIES = 64;
 
 function now(): number {
   return performance.now();
-}
-
-/** Resolves on a later task (messages that arrived meanwhile are handled first). */
-function nextTurn(): Promise<void> {
-  return new Promise((resolve) => setTimeout(resolve, 0));
 }
 
 /** A request whose plan does not validate: the message names the fields. */
@@ -281,12 +277,13 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           onProgress: tell,
           shouldCancel: stale,
           runRadar: async (_s, i) => {
-            // A turn of the event loop before each radar, so that a newer generation can be heard.
-            await nextTurn();
-            if (stale()) throw new CancelledError();
             const key = radarKey(full, i, mode, terrainId);
             let r = accurate.get(key);
             if (r === undefined) {
+              // A turn of the event loop before computing a radar, so that a newer generation can be
+              // heard (a radar from the cache takes no time and needs none).
+              await yieldToEventLoop();
+              if (stale()) throw new CancelledError();
               r = computeRadarCoverage(full, i, mode);
               accurate.computed++;
               accurate.set(key, r);
