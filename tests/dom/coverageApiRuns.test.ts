@@ -4,7 +4,7 @@ import { describe, expect, it } from "vitest";
 import type { Plan } from "../../src/io/planSchema";
 import { parsePlan } from "../../src/io/planValidation";
 import { siteGridFrame } from "../../src/io/siteGrid";
-import { mergePartViews } from "../../src/ui/engine";
+import { mergePartViews } from "../../src/ui/runParts";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import type { CoverageView, EvaluateRequest } from "../../src/workers/protocol";
 

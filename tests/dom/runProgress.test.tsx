@@ -11,7 +11,7 @@ import { describe, expect, it } from "vitest";
 import { parsePlan } from "../../src/io/planValidation";
 import { TopBar } from "../../src/ui/components/TopBar";
 import { useCoverage } from "../../src/ui/coverageState";
-import { RunProgressTracker } from "../../src/ui/engine";
+import { RunProgressTracker } from "../../src/ui/runParts";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import type { RunProgress } from "../../src/workers/protocol";
 

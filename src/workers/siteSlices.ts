@@ -1,0 +1,75 @@
+/**
+ * Sites limited to some of their (height, class) slices, and radar results seen through them: what
+ * a preview computes (the shown slice), the two steps of a release (the shown slice, then the
+ * others) and the parts of a run split over the workers. The radars always stay the same.
+ */
+import type { RadarCoverage } from "../coverage/coverage";
+import type { PreparedSite } from "../coverage/evaluate";
+
+/** The site limited to the (height, class) slices `keep` accepts (the radars stay the same). */
+function restrictSite(site: PreparedSite, keep: (heightM: number, classId: string) => boolean): PreparedSite {
+  const targets = site.targets
+    .map((t) => ({ ...t, heightsAglM: t.heightsAglM.filter((h) => keep(h, t.id)) }))
+    .filter((t) => t.heightsAglM.length > 0);
+  return {
+    ...site,
+    targets,
+    heightsAglM: site.heightsAglM.filter((h) => targets.some((t) => t.heightsAglM.includes(h))),
+    requirement: {
+      ...site.requirement,
+      targetIds: site.requirement.targetIds.filter((id) => targets.some((t) => t.id === id)),
+    },
+  };
+}
+
+type Focus = { classId: string; heightM: number };
+
+function holds(site: PreparedSite, f: Focus): boolean {
+  return site.targets.some((t) => t.id === f.classId && t.heightsAglM.includes(f.heightM));
+}
+
+/** The site limited to one class at one height (a preview computes only what the map shows). */
+export function focusSite(site: PreparedSite, f: Focus): PreparedSite {
+  const slices = site.targets.reduce((n, t) => n + t.heightsAglM.length, 0);
+  if (!holds(site, f) || slices === 1) return site;
+  return restrictSite(site, (h, t) => h === f.heightM && t === f.classId);
+}
+
+/** Every slice of the site but the focused one (the caller holds that one already). */
+export function withoutFocus(site: PreparedSite, f: Focus): PreparedSite {
+  if (!holds(site, f)) return site;
+  return restrictSite(site, (h, t) => !(h === f.heightM && t === f.classId));
+}
+
+/**
+ * Part `index` of `count` of the site's slices: the (height, class) pairs in height-major order cut
+ * into equal runs, so that each part computes the SNR of as few heights as it can. The partition
+ * depends on the site alone (not on the slice shown), so each worker's per-radar cache keys stay the
+ * same from run to run.
+ */
+export function partSite(site: PreparedSite, part: { index: number; count: number }): PreparedSite {
+  const pairs: string[] = [];
+  for (const h of site.heightsAglM)
+    for (const t of site.targets) if (t.heightsAglM.includes(h)) pairs.push(`${h}\u0000${t.id}`);
+  const from = Math.floor((part.index * pairs.length) / part.count);
+  const to = Math.floor(((part.index + 1) * pairs.length) / part.count);
+  const mine = new Set(pairs.slice(from, to));
+  return restrictSite(site, (h, t) => mine.has(`${h}\u0000${t}`));
+}
+
+/**
+ * One radar's result of the full site seen as a result of `sub` (some of its slices): the same
+ * arrays, picked out, nothing copied.
+ */
+export function narrowRadar(r: RadarCoverage, full: PreparedSite, sub: PreparedSite): RadarCoverage {
+  const classIndex = sub.targets.map((t) => full.targets.findIndex((x) => x.id === t.id));
+  return {
+    ...r,
+    heightsAglM: [...sub.heightsAglM],
+    targetIds: sub.targets.map((t) => t.id),
+    heights: sub.heightsAglM.map((h) => {
+      const height = r.heights[full.heightsAglM.indexOf(h)];
+      return { ...height, targets: classIndex.map((k) => height.targets[k]) };
+    }),
+  };
+}
