@@ -325,6 +325,42 @@ export function checkRunMemory(size: RunSize, budgetBytes: number = RUN_MEMORY_B
   return { ok: true, bytes };
 }
 
+/** Largest cell size a plan may set, m (the plan schema's bound). */
+const MAX_CELL_SIZE_M = 1000;
+
+/**
+ * The smallest cell size, in whole centimetres, at which a run of the plan fits the memory budget,
+ * for a refusal to offer: the estimate falls with the square of the cell size, and each candidate is
+ * checked on its own grid (snapping the frame to whole cells moves the count a little). The plan's
+ * own cell size when it already fits; null when no cell size up to 1000 m helps (too many radars) or
+ * the plan has no grid.
+ */
+export function cellSizeToFitM(plan: Plan, budgetBytes: number = RUN_MEMORY_BUDGET_BYTES): number | null {
+  let grid: SiteGrid;
+  try {
+    grid = siteGridFrame(plan);
+  } catch {
+    return null;
+  }
+  const size = runSizeOf(plan, grid);
+  if (size.radars > MAX_RADARS_PER_RUN) return null;
+  const bytes = estimateRunMemoryBytes(size);
+  if (!(bytes > budgetBytes)) return grid.frame.cellSizeM;
+  const cmPerM = 100;
+  let cell = Math.ceil(grid.frame.cellSizeM * Math.sqrt(bytes / budgetBytes) * cmPerM) / cmPerM;
+  while (cell <= MAX_CELL_SIZE_M) {
+    const candidate: Plan = { ...plan, analysis: { ...plan.analysis, cellSizeM: cell } };
+    try {
+      const g = siteGridFrame(candidate);
+      if (estimateRunMemoryBytes(runSizeOf(candidate, g)) <= budgetBytes) return cell;
+    } catch {
+      return null;
+    }
+    cell = Math.ceil(cell * 1.005 * cmPerM + 1) / cmPerM;
+  }
+  return null;
+}
+
 export type PlanRunCheck =
   | { ok: true; grid: SiteGrid; memoryBytes: number }
   | { ok: false; errors: { path: string; message: string }[] };

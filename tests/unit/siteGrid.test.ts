@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   AUTO_CELL_SIZES_M,
+  cellSizeToFitM,
   checkPlanForRun,
   checkRunMemory,
   DEFAULT_GRID_MARGIN_M,
@@ -222,5 +223,27 @@ describe("site grid", () => {
     expect(fine.ok ? [] : fine.errors.map((e) => e.path)).toEqual(["analysis.cellSizeM"]);
     const far = checkPlanForRun(plan((p) => (p.posts[0].position = { lonDeg: 20, latDeg: 62.3 })));
     expect(far.ok ? [] : far.errors.map((e) => e.path)).toEqual(["posts"]);
+  });
+
+  it("[SG6] a refusal can offer the smallest cell size, to the centimetre, at which the run fits", () => {
+    const tooFine = plan((p) => (p.analysis.cellSizeM = 0.5));
+    const size = (cellSizeM: number) => {
+      const q = { ...tooFine, analysis: { ...tooFine.analysis, cellSizeM } };
+      return estimateRunMemoryBytes(runSizeOf(q, siteGridFrame(q)));
+    };
+    expect(size(0.5)).toBeGreaterThan(RUN_MEMORY_BUDGET_BYTES);
+    const fit = cellSizeToFitM(tooFine);
+    expect(fit).not.toBeNull();
+    const c = fit as number;
+    expect(Math.round(c * 100)).toBe(c * 100);
+    expect(size(c)).toBeLessThanOrEqual(RUN_MEMORY_BUDGET_BYTES);
+    // Not much coarser than needed: 1 % finer no longer fits.
+    expect(size(Math.floor(c * 0.99 * 100) / 100)).toBeGreaterThan(RUN_MEMORY_BUDGET_BYTES);
+    // A plan that fits keeps its cell size; a smaller budget asks for coarser cells.
+    const fits = plan((p) => (p.analysis.cellSizeM = 10));
+    expect(cellSizeToFitM(fits)).toBe(10);
+    expect(
+      cellSizeToFitM(fits, estimateRunMemoryBytes(runSizeOf(fits, siteGridFrame(fits))) / 4),
+    ).toBeGreaterThan(19.9);
   });
 });

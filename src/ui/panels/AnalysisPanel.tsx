@@ -3,7 +3,13 @@
  * the memory a run needs are shown before the run, and a run that would not fit is refused.
  */
 import { useId, useMemo, useState } from "react";
-import { checkRunMemory, estimateRunMemoryBytes, runSizeOf, siteGridFrame } from "../../io/siteGrid";
+import {
+  cellSizeToFitM,
+  checkRunMemory,
+  estimateRunMemoryBytes,
+  runSizeOf,
+  siteGridFrame,
+} from "../../io/siteGrid";
 import { NumberField, SelectField } from "../components/NumberField";
 import { setAnalysisHeights } from "../planEdits";
 import { usePlanStore } from "../store";
@@ -51,6 +57,8 @@ function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: 
 export function AnalysisPanel() {
   const plan = usePlanStore((s) => s.plan);
   const change = usePlanStore((s) => s.change);
+  // The cell size that would fit, offered beside a memory refusal.
+  const fit = useMemo(() => (plan ? cellSizeToFitM(plan) : null), [plan]);
   const estimate = useMemo(() => {
     if (!plan) return null;
     try {
@@ -155,9 +163,25 @@ export function AnalysisPanel() {
         </dl>
       ) : null}
       {estimate?.check && !estimate.check.ok && (
-        <p className="field-error" role="alert">
-          {estimate.check.message}
-        </p>
+        <>
+          <p className="field-error" role="alert">
+            {estimate.check.message}
+          </p>
+          {fit !== null && fit !== a.cellSizeM && (
+            <button
+              type="button"
+              data-testid="cell-size-to-fit"
+              onClick={() =>
+                change(
+                  (p) => ({ ...p, analysis: { ...p.analysis, cellSizeM: fit } }),
+                  "cell size to fit memory",
+                )
+              }
+            >
+              Use {fit} m cells (the smallest that fit)
+            </button>
+          )}
+        </>
       )}
     </div>
   );

@@ -1,0 +1,40 @@
+// @vitest-environment jsdom
+/** The analysis panel: a run refused for memory offers the cell size that fits, as one undo step. */
+import { act } from "react";
+import { createRoot } from "react-dom/client";
+import { describe, expect, it } from "vitest";
+import { cellSizeToFitM } from "../../src/io/siteGrid";
+import { AnalysisPanel } from "../../src/ui/panels/AnalysisPanel";
+import { undo, usePlanStore } from "../../src/ui/store";
+import { samplePlan } from "./samplePlan";
+
+(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
+
+describe("analysis panel", () => {
+  it("offers the smallest cell size that fits the memory budget and applies it", async () => {
+    const plan = samplePlan();
+    // Half-metre cells over the sample site with 40 heights do not fit in 2 GiB.
+    plan.analysis = {
+      ...plan.analysis,
+      cellSizeM: 0.5,
+      targetHeightsM: Array.from({ length: 40 }, (_, i) => 5 * (i + 1)),
+    };
+    usePlanStore.getState().load(plan);
+    const fit = cellSizeToFitM(plan);
+    expect(fit).toBeGreaterThan(0.5);
+    const host = document.createElement("div");
+    document.body.append(host);
+    const root = createRoot(host);
+    await act(async () => root.render(<AnalysisPanel />));
+    expect(host.textContent).toMatch(/above the 2\.00 GiB budget/);
+    const button = host.querySelector('[data-testid="cell-size-to-fit"]') as HTMLButtonElement;
+    expect(button.textContent).toBe(`Use ${fit} m cells (the smallest that fit)`);
+    await act(async () => button.click());
+    expect(usePlanStore.getState().plan?.analysis.cellSizeM).toBe(fit);
+    expect(host.querySelector('[data-testid="cell-size-to-fit"]')).toBeNull();
+    expect(host.textContent).not.toMatch(/budget/);
+    await act(async () => undo());
+    expect(usePlanStore.getState().plan?.analysis.cellSizeM).toBe(0.5);
+    await act(async () => root.unmount());
+  });
+});
