@@ -84,6 +84,11 @@ const PREVIEW_SLOT = 1;
 /** An accurate run is split over at most this many workers (one part each). */
 const ACCURATE_PARTS = 2;
 const POINT_SLOT = -1;
+
+/** The pool channel of a worker's evaluations: a newer one there supersedes an older one. */
+function evaluateChannel(slot: number): string {
+  return `evaluate-${slot}`;
+}
 let generation = 0;
 
 function demPayload(): DemPayload | null {
@@ -107,10 +112,11 @@ async function runPart(
   onShown: (view: CoverageView) => void,
   onProgress: ProgressListener,
 ): Promise<CoverageView> {
-  const channel = `evaluate-${slot}`;
-  const listener = () => Comlink.proxy(onProgress);
+  const channel = evaluateChannel(slot);
+  // Marked once for comlink; each call that takes it gets a channel of its own, closed by the worker.
+  const listener = Comlink.proxy(onProgress);
   const view = withTerrain(
-    await p.run(channel, req.generation, "evaluate", [req, listener()], { slot }),
+    await p.run(channel, req.generation, "evaluate", [req, listener], { slot }),
     "full",
   );
   if (!view.partial) return view;
@@ -122,7 +128,7 @@ async function runPart(
     haveTerrainKey: view.terrainKey,
   };
   const all = withTerrain(
-    await p.run(channel, req.generation, "evaluate", [rest, listener()], { slot }),
+    await p.run(channel, req.generation, "evaluate", [rest, listener], { slot }),
     "full",
   );
   // The second step fused the part's other slices only: the shown one is the first step's, with the
@@ -168,7 +174,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   try {
     if (options.preview) {
       const slot = p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT;
-      const view = withTerrain(await p.run(`evaluate-${slot}`, g, "evaluate", [req], { slot }), kind);
+      const view = withTerrain(await p.run(evaluateChannel(slot), g, "evaluate", [req], { slot }), kind);
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }

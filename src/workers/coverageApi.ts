@@ -35,7 +35,7 @@ import type {
   PointRequest,
   ProgressListener,
 } from "./protocol";
-import { focusSite, narrowRadar, partSite, withoutFocus } from "./siteSlices";
+import { focusKey, focusSite, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
 import { cloneView, toCoverageView } from "./toView";
 
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
@@ -183,18 +183,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       let result: SiteResult;
       // An accurate run with a focus goes in two steps: the shown slice first, then (shownSliceHeld)
       // the other slices; both take every radar of the full site from the cache, computed once.
-      const sub =
-        site.maskMode === "fast" || !req.focus
-          ? full
-          : req.sliceFirst
-            ? focusSite(full, req.focus)
-            : req.shownSliceHeld
-              ? withoutFocus(full, req.focus)
-              : full;
-      const tell = onProgress
-        ? (p: { stage: "radars" | "fusion"; done: number; total: number }) =>
-            void onProgress({ stage: p.stage, done: p.done, total: p.total })
-        : undefined;
+      const sub = site.maskMode === "fast" || !req.focus ? full : releaseStepSite(full, req.focus, req);
       // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
       const lowestVisible =
         (req.part?.index ?? 0) === 0 &&
@@ -207,7 +196,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
         result = await evaluateSite(sub, {
           mode,
           lowestVisible,
-          onProgress: tell,
+          onProgress,
           shouldCancel: stale,
           runRadar: async (_s, i) => {
             const key = radarKey(full, i, mode, terrainId);
@@ -236,7 +225,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
           cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
           mode: site.maskMode,
           lowestVisible,
-          onProgress: tell,
+          onProgress,
           shouldCancel: stale,
         });
       }
@@ -269,16 +258,9 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
       if (view.partial && focused) {
         // The shown slice goes at once; its gap outlines come with the next step (from a copy, as
         // the slice's arrays move to the caller).
-        shownGap = {
-          generation: req.generation,
-          focus: `${focused.classId}@${focused.heightM}`,
-          gap: focused.gap.slice(),
-        };
+        shownGap = { generation: req.generation, focus: focusKey(focused), gap: focused.gap.slice() };
       } else if (req.shownSliceHeld && req.focus) {
-        if (
-          shownGap?.generation === req.generation &&
-          shownGap.focus === `${req.focus.classId}@${req.focus.heightM}`
-        )
+        if (shownGap?.generation === req.generation && shownGap.focus === focusKey(req.focus))
           view.shownGapShapes = gapShapesXY(shownGap.gap, view.frame);
         shownGap = null;
       } else if (focused && (site.maskMode !== "fast" || !req.focus)) {

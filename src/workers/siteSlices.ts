@@ -22,7 +22,13 @@ function restrictSite(site: PreparedSite, keep: (heightM: number, classId: strin
   };
 }
 
-type Focus = { classId: string; heightM: number };
+/** The class and height the map shows. */
+export type Focus = { classId: string; heightM: number };
+
+/** One string per (class, height). */
+export function focusKey(f: Focus): string {
+  return `${f.classId}@${f.heightM}`;
+}
 
 function holds(site: PreparedSite, f: Focus): boolean {
   return site.targets.some((t) => t.id === f.classId && t.heightsAglM.includes(f.heightM));
@@ -36,7 +42,7 @@ export function focusSite(site: PreparedSite, f: Focus): PreparedSite {
 }
 
 /** Every slice of the site but the focused one (the caller holds that one already). */
-export function withoutFocus(site: PreparedSite, f: Focus): PreparedSite {
+function withoutFocus(site: PreparedSite, f: Focus): PreparedSite {
   if (!holds(site, f)) return site;
   return restrictSite(site, (h, t) => !(h === f.heightM && t === f.classId));
 }
@@ -72,4 +78,18 @@ export function narrowRadar(r: RadarCoverage, full: PreparedSite, sub: PreparedS
       return { ...height, targets: classIndex.map((k) => height.targets[k]) };
     }),
   };
+}
+
+/**
+ * The slices a step of an accurate release fuses: the shown one first (`sliceFirst`), then every
+ * other (`shownSliceHeld`); a run in one step fuses them all.
+ */
+export function releaseStepSite(
+  full: PreparedSite,
+  f: Focus,
+  step: { sliceFirst?: boolean; shownSliceHeld?: boolean },
+): PreparedSite {
+  if (step.sliceFirst) return focusSite(full, f);
+  if (step.shownSliceHeld) return withoutFocus(full, f);
+  return full;
 }

@@ -93,7 +93,7 @@ function groundPostName(plan: Plan): string {
 async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
   await page.evaluate(() => {
     const w = window as unknown as {
-      __long: number[];
+      __long: { ms: number; at: number }[];
       __gens: number[];
       __accurate: number[];
       __complete: number[];
@@ -105,7 +105,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     w.__accurate = [];
     w.__complete = [];
     const po = new PerformanceObserver((l) => {
-      for (const e of l.getEntries()) w.__long.push(e.duration, e.startTime);
+      for (const e of l.getEntries()) w.__long.push({ ms: e.duration, at: e.startTime });
     });
     po.observe({ type: "longtask", buffered: false });
     const s = document.querySelector('[data-testid="summary"]');
@@ -168,10 +168,11 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     // No named helper here: the bundler would wrap it in a function the page does not have.
     return [w.__accurate, w.__complete].map((xs) => Math.min(...xs.filter((g) => g > t)) - t);
   }, tUp);
-  // Pairs of (duration, start): start told relative to the release, ms (negative: during the drag).
-  const long = await page.evaluate(() => (window as unknown as { __long: number[] }).__long);
-  const longTasks = long.filter((_, i) => i % 2 === 0);
-  const longStarts = long.filter((_, i) => i % 2 === 1).map((t) => t - tUp);
+  // Each long task with its start relative to the release, ms (negative: during the drag).
+  const long = await page.evaluate(
+    () => (window as unknown as { __long: { ms: number; at: number }[] }).__long,
+  );
+  const longTasks = long.map((t) => ({ ms: t.ms, fromReleaseMs: t.at - tUp }));
   const workerMs = Number((await status(page)).match(/Computed in (\d+)/)?.[1] ?? Number.NaN);
   const computedRadars = await page.getByTestId("summary").getAttribute("data-computed-radars");
   return {
@@ -179,7 +180,6 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     firstMs,
     releaseMs,
     longTasks,
-    longStarts,
     workerMs,
     computedRadars,
   };
@@ -218,7 +218,7 @@ async function main() {
       const name = groundPostName(plan);
       for (let run = 1; run <= 2; run++) {
         const d = await dragOnce(page, name, run === 1 ? 1 : -1);
-        const over = d.longTasks.filter((t) => t > 50);
+        const over = d.longTasks.filter((t) => t.ms > 50);
         console.log(
           `  drag ${run} of "${name}": preview ${d.updatesPerS.toFixed(1)} updates/s (target ≥ 10 on 1 M cells)`,
         );
@@ -227,13 +227,10 @@ async function main() {
         );
         for (const m of await page.getByTestId("message-error").allTextContents())
           console.log(`    message shown: ${m}`);
-        const when = d.longTasks
-          .map((t, i) =>
-            t > 50
-              ? `${t.toFixed(0)} ms at ${d.longStarts[i] >= 0 ? "+" : ""}${d.longStarts[i].toFixed(0)} ms`
-              : "",
-          )
-          .filter(Boolean);
+        const when = over.map(
+          (t) =>
+            `${t.ms.toFixed(0)} ms at ${t.fromReleaseMs >= 0 ? "+" : ""}${t.fromReleaseMs.toFixed(0)} ms`,
+        );
         console.log(
           `    main-thread long tasks during the drag and release: ${over.length} over 50 ms${over.length ? ` (${when.join(", ")} from the release)` : ""}`,
         );

@@ -12,19 +12,9 @@ import { join } from "node:path";
 import { runPlan } from "../../src/cli/plan.ts";
 import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
 import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
+import { msText, spread } from "./stats.ts";
 
 const SIDE = 2048;
-
-function summary(xs: number[]): string {
-  const s = [...xs].sort((a, b) => a - b);
-  const median = s.length % 2 ? s[(s.length - 1) >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
-  return `${median.toFixed(0)} ms (${s[0].toFixed(0)}–${s[s.length - 1].toFixed(0)})`;
-}
-
-function median(xs: number[]): number {
-  const s = [...xs].sort((a, b) => a - b);
-  return s.length % 2 ? s[(s.length - 1) >> 1] : (s[s.length / 2 - 1] + s[s.length / 2]) / 2;
-}
 
 /** Wall time of a command, ms; throws when it fails (a failed run must not pass for a fast one). */
 function timeCommand(cmd: string, args: string[]): number {
@@ -78,15 +68,15 @@ export async function run(rounds = 7): Promise<void> {
     }
     const lines = [
       `plan los on ${SIDE * SIDE} cells, ${rounds} rounds, load average ${loadavg()[0].toFixed(1)}:`,
-      `  picket-plan (bundle), accurate ${summary(times.accurate)}; fast ${summary(times.fast)}`,
-      `  npm run plan, accurate ${summary(times.npmRun)}; in-process, accurate ${summary(times.inProcess)}`,
+      `  picket-plan (bundle), accurate ${msText(times.accurate)}; fast ${msText(times.fast)}`,
+      `  npm run plan, accurate ${msText(times.npmRun)}; in-process, accurate ${msText(times.inProcess)}`,
     ];
     if (haveGdal) {
-      const g = median(times.gdal);
+      const ratio = (ours: number[]) => (spread(times.gdal).median / spread(ours).median).toFixed(2);
       lines.push(
-        `  gdal_viewshed -om GROUND ${summary(times.gdal)}; ratio gdal/ours: picket-plan accurate ` +
-          `${(g / median(times.accurate)).toFixed(2)}, fast ${(g / median(times.fast)).toFixed(2)}, ` +
-          `npm run ${(g / median(times.npmRun)).toFixed(2)}, in-process ${(g / median(times.inProcess)).toFixed(2)}`,
+        `  gdal_viewshed -om GROUND ${msText(times.gdal)}; ratio gdal/ours: picket-plan accurate ` +
+          `${ratio(times.accurate)}, fast ${ratio(times.fast)}, npm run ${ratio(times.npmRun)}, ` +
+          `in-process ${ratio(times.inProcess)}`,
       );
     } else lines.push("  gdal_viewshed not installed (apt-get install gdal-bin): comparison skipped");
     console.log(lines.join("\n"));

@@ -13,6 +13,7 @@ import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../../src/coverage/constants.ts"
 import type { Grid } from "../../src/coverage/grid.ts";
 import { computeHorizon, type HorizonResult, type MaskMode } from "../../src/coverage/terrainMask.ts";
 import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
+import { spread } from "./stats.ts";
 
 const SIDE = 2048;
 const CELL_M = 10;
@@ -27,11 +28,6 @@ interface WorkerApi {
     mode: MaskMode,
     k: number,
   ): number;
-}
-
-function median(xs: number[]): { median: number; min: number; max: number } {
-  const s = [...xs].sort((a, b) => a - b);
-  return { median: s[Math.floor(s.length / 2)], min: s[0], max: s[s.length - 1] };
 }
 
 /** Observers on a 4 × 2 lattice over the grid, each on the surface plus the mast. */
@@ -85,13 +81,13 @@ export async function run(): Promise<void> {
         ]);
         if (r > 0) two.push(performance.now() - t);
       }
-      const [h, o, t2] = [median(here), median(one), median(two)];
-      const rate = (ms: number) => (cells / ms / 1e3).toFixed(1);
+      const [h, o, t2] = [spread(here), spread(one), spread(two)];
+      const rate = (ms: number) => cells / ms / 1e3; // M cells/s
       console.log(
-        `  ${mode.padEnd(8)} this thread ${h.median.toFixed(0)} ms (${h.min.toFixed(0)}–${h.max.toFixed(0)}) → ${rate(h.median)} M cells/s; ` +
-          `1 worker ${o.median.toFixed(0)} ms → ${rate(o.median)} M cells/s; ` +
-          `2 workers ${t2.median.toFixed(0)} ms (${t2.min.toFixed(0)}–${t2.max.toFixed(0)}) → ${rate(t2.median)} M cells/s, ` +
-          `${(Number(rate(t2.median)) / 2).toFixed(1)} per core; speed-up ${(o.median / t2.median).toFixed(2)}× over 1 worker`,
+        `  ${mode.padEnd(8)} this thread ${h.median.toFixed(0)} ms (${h.min.toFixed(0)}–${h.max.toFixed(0)}) → ${rate(h.median).toFixed(1)} M cells/s; ` +
+          `1 worker ${o.median.toFixed(0)} ms → ${rate(o.median).toFixed(1)} M cells/s; ` +
+          `2 workers ${t2.median.toFixed(0)} ms (${t2.min.toFixed(0)}–${t2.max.toFixed(0)}) → ${rate(t2.median).toFixed(1)} M cells/s, ` +
+          `${(rate(t2.median) / 2).toFixed(1)} per core; speed-up ${(o.median / t2.median).toFixed(2)}× over 1 worker`,
       );
     }
   } finally {

@@ -57,24 +57,27 @@ function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: 
 export function AnalysisPanel() {
   const plan = usePlanStore((s) => s.plan);
   const change = usePlanStore((s) => s.change);
-  // The cell size that would fit, offered beside a memory refusal.
-  const fit = useMemo(() => (plan ? cellSizeToFitM(plan) : null), [plan]);
   const estimate = useMemo(() => {
     if (!plan) return null;
     try {
       const g = siteGridFrame(plan);
       const size = runSizeOf(plan, g);
-      return { g, size, bytes: estimateRunMemoryBytes(size), check: checkRunMemory(size), error: null };
+      const check = checkRunMemory(size);
+      // Beside a refusal, the cell size that would fit (searched only then).
+      const fit = check.ok ? null : cellSizeToFitM(plan);
+      return { g, size, bytes: estimateRunMemoryBytes(size), check, fit, error: null };
     } catch (e) {
       return {
         g: null,
         size: null,
         bytes: 0,
         check: null,
+        fit: null,
         error: e instanceof Error ? e.message : String(e),
       };
     }
   }, [plan]);
+  const fit = estimate?.fit ?? null;
   if (!plan) return null;
   const a = plan.analysis;
   return (
