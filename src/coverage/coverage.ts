@@ -128,6 +128,11 @@ export interface TargetHeightCoverage {
   pd: Float32Array | null;
   /** Reason per cell (Reason codes). Null like pd. */
   reason: Uint8Array | null;
+  /**
+   * The bounding rectangle of the cells with Pd > 0 (rowMin > rowMax when there is none), set by the
+   * stage: fusion and metrics, which read Pd alone, skip the radar outside it. Absent: use the extent.
+   */
+  pdExtent?: RadarExtent;
 }
 
 /** One height of one radar. */
@@ -367,7 +372,18 @@ export function buildRadarKernel(input: {
  * Allocate the outputs of one radar, zeroed. The radar stage writes every cell: inside the square it
  * visits cell by cell, outside it with fills (reason out of range, SNR and lowest height NaN).
  */
-function allocateCoverage(input: RadarStageInput, reuse?: RadarCoverage): RadarCoverage {
+/** What a radar result's shape follows from: its grid, its radar, the heights and the classes. */
+export type RadarShapeInput = Pick<RadarStageInput, "frame" | "radar" | "heightsAglM" | "targets">;
+
+/**
+ * A result of the shape the radar stage gives for `input`, its arrays allocated and zeroed and not
+ * yet written: memory to prepare ahead of a run (see RadarResultCache spares).
+ */
+export function blankRadarCoverage(input: RadarShapeInput): RadarCoverage {
+  return allocateCoverage(input);
+}
+
+function allocateCoverage(input: RadarShapeInput, reuse?: RadarCoverage): RadarCoverage {
   const n = input.frame.width * input.frame.height;
   if (reuse !== undefined && fitsShape(reuse, input, n)) {
     reuse.radarId = input.radar.id;
@@ -391,7 +407,7 @@ function allocateCoverage(input: RadarStageInput, reuse?: RadarCoverage): RadarC
 }
 
 /** Whether a previous result has exactly the arrays this input needs (same cells, heights, classes). */
-function fitsShape(r: RadarCoverage, input: RadarStageInput, n: number): boolean {
+function fitsShape(r: RadarCoverage, input: RadarShapeInput, n: number): boolean {
   if (r.lowestVisibleHeightAglM.length !== n || r.heights.length !== input.heightsAglM.length) return false;
   return (
     r.heights.every(
@@ -889,12 +905,10 @@ export function radarCoverageFromHorizon(
   const c0 = Math.max(0, oc - spanCells);
   const c1 = Math.min(w - 1, oc + spanCells);
 
-  // Outside the square every output is "out of range". A reused result whose own square lay inside
-  // this one already holds exactly that outside this square (its stage filled it), so only this
-  // square is written then; otherwise the outside is filled here.
+  // Outside the square every output is "out of range". A reused result already holds exactly that
+  // outside its own square (its stage filled it), so only the part of its square outside this one is
+  // filled then; otherwise the whole outside is filled here.
   const old = reuse !== undefined && out === reuse ? reuse.extent : undefined;
-  const outsideFilled =
-    old !== undefined && old.rowMin >= r0 && old.rowMax <= r1 && old.colMin >= c0 && old.colMax <= c1;
   out.extent = undefined; // while being written, the arrays match no extent
   // Rotating: the azimuth factors are 1, so C·g_t·g_r depends on the elevation bin alone (in dB).
   const cGainDb = new Float64Array(rotating ? elTx.length : 0);
@@ -972,20 +986,60 @@ export function radarCoverageFromHorizon(
     cGainDb,
     dRow: new Float64Array(Math.max(oc - c0, c1 - oc) + 1),
   };
-  if (!outsideFilled) {
-    fillOutside(0, r0 * w, lowest, snrOut, pdOut, reasonOut);
-    fillOutside((r1 + 1) * w, n, lowest, snrOut, pdOut, reasonOut);
+  // Of the rows and columns [f0, f1] × [g0, g1] that may hold anything but "out of range", those
+  // outside this square are filled.
+  const f0 = old === undefined ? 0 : old.rowMin;
+  const f1 = old === undefined ? hgt - 1 : old.rowMax;
+  const g0 = old === undefined ? 0 : old.colMin;
+  const g1 = old === undefined ? w - 1 : old.colMax;
+  const outs = [lowest, snrOut, pdOut, reasonOut] as const;
+  for (let row = f0; row <= f1; row++) {
+    if (row >= r0 && row <= r1) continue;
+    fillOutside(row * w + g0, row * w + g1 + 1, ...outs);
   }
   for (let row = r0; row <= r1; row++) {
-    if (!outsideFilled) {
-      fillOutside(row * w, row * w + c0, lowest, snrOut, pdOut, reasonOut);
-      fillOutside(row * w + c1 + 1, (row + 1) * w, lowest, snrOut, pdOut, reasonOut);
+    if (row >= f0 && row <= f1) {
+      fillOutside(row * w + g0, row * w + Math.min(g1 + 1, c0), ...outs);
+      fillOutside(row * w + Math.max(g0, c1 + 1), row * w + g1 + 1, ...outs);
     }
     if (rotating) stageRowRotating(ctx, row);
     else stageRow(ctx, row);
   }
   out.extent = { rowMin: r0, rowMax: r1, colMin: c0, colMax: c1 };
+  for (const h of out.heights)
+    for (const t of h.targets) if (t.pd !== null) t.pdExtent = positiveBounds(t.pd, w, out.extent);
   return out;
+}
+
+/** The bounding rectangle of the cells of `within` where `a` > 0 (empty: rowMin > rowMax). */
+export function positiveBounds(a: Float32Array, width: number, within: RadarExtent): RadarExtent {
+  let rowMin = within.rowMax + 1;
+  let rowMax = within.rowMin - 1;
+  let colMin = within.colMax + 1;
+  let colMax = within.colMin - 1;
+  for (let row = within.rowMin; row <= within.rowMax; row++) {
+    const base = row * width;
+    let first = -1;
+    let last = -1;
+    for (let c = within.colMin; c <= within.colMax; c++)
+      if (a[base + c] > 0) {
+        first = c;
+        break;
+      }
+    if (first < 0) continue;
+    for (let c = within.colMax; c >= first; c--)
+      if (a[base + c] > 0) {
+        last = c;
+        break;
+      }
+    if (row < rowMin) rowMin = row;
+    rowMax = row;
+    if (first < colMin) colMin = first;
+    if (last > colMax) colMax = last;
+  }
+  return rowMin > rowMax
+    ? { rowMin: 0, rowMax: -1, colMin: 0, colMax: -1 }
+    : { rowMin, rowMax, colMin, colMax };
 }
 
 // ---------------------------------------------------------------------------------------------

@@ -87,6 +87,50 @@ describe("radar extents", () => {
     }
   });
 
+  it("[CV11] each class and height carries the tight bounds of its Pd > 0 cells, inside the square", () => {
+    const s = site();
+    const w = s.frame.width;
+    let checked = 0;
+    for (let i = 0; i < s.radars.length; i++) {
+      const r = computeRadarCoverage(s, i);
+      for (const h of r.heights)
+        for (const t of h.targets) {
+          if (t.pd === null) continue;
+          const b = t.pdExtent!;
+          // By brute force over the whole grid.
+          let rowMin = Infinity;
+          let rowMax = -Infinity;
+          let colMin = Infinity;
+          let colMax = -Infinity;
+          t.pd.forEach((v, j) => {
+            if (!(v > 0)) return;
+            const row = Math.floor(j / w);
+            const col = j % w;
+            rowMin = Math.min(rowMin, row);
+            rowMax = Math.max(rowMax, row);
+            colMin = Math.min(colMin, col);
+            colMax = Math.max(colMax, col);
+          });
+          if (rowMin === Infinity) expect(b.rowMin > b.rowMax).toBe(true);
+          else expect(b).toEqual({ rowMin, rowMax, colMin, colMax });
+          const e = r.extent!;
+          if (b.rowMin <= b.rowMax)
+            expect(
+              b.rowMin >= e.rowMin && b.rowMax <= e.rowMax && b.colMin >= e.colMin && b.colMax <= e.colMax,
+            ).toBe(true);
+          checked++;
+        }
+    }
+    expect(checked).toBeGreaterThan(6);
+    // A staring radar's Pd covers its sector, far less than its square.
+    const nw = computeRadarCoverage(s, 1).heights[0].targets[0];
+    const b = nw.pdExtent!;
+    const e = computeRadarCoverage(s, 1).extent!;
+    expect((b.rowMax - b.rowMin + 1) * (b.colMax - b.colMin + 1)).toBeLessThan(
+      (e.rowMax - e.rowMin + 1) * (e.colMax - e.colMin + 1),
+    );
+  });
+
   it("[FU6] fusion with extents equals fusion over every raster, also into reused arrays", () => {
     const s = site();
     const radars = s.radars.map((_, i) => computeRadarCoverage(s, i));
