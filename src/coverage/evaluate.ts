@@ -21,6 +21,7 @@ import {
   type TargetSpec,
 } from "./coverage.ts";
 import { CellState, cellStatesAtHeight, type FusedHeight, fuseHeight } from "./fusion.ts";
+import type { FusionMemo } from "./fusionMemo.ts";
 import type { GridFrame } from "./grid.ts";
 import { type LinkBudget, linkBudget } from "./linkBudget.ts";
 import { type HeightMetrics, heightMetrics } from "./metrics.ts";
@@ -151,6 +152,15 @@ export interface EvaluateOptions {
    * arrays are overwritten.
    */
   previous?: SiteResult;
+  /**
+   * Fused heights kept from the caller's previous runs of this site (fusionMemo.ts): a slice whose
+   * radars changed only in part is fused again only where they changed. The result's fused rasters
+   * then belong to the memo (copy them to keep or send them). Needs the radars' keys: from `cache`,
+   * else from `radarKeys`; without either the memo is not used.
+   */
+  fusionMemo?: FusionMemo;
+  /** Per radar in site order, the identity of its result (radarKey), for `fusionMemo` without `cache`. */
+  radarKeys?: readonly string[];
   /**
    * false: skip merging the lowest visible height (the result's array is then empty); for a caller
    * that has it from another run of the same radars. Default true.
@@ -298,6 +308,14 @@ export interface FusionJob {
 export type FusionRunner = (site: PreparedSite, job: FusionJob) => Promise<SiteHeightResult>;
 
 /**
+ * Per radar, the rectangle outside which its Pd of the job's class and height is 0: the stage's
+ * bounds of its Pd > 0 cells where known, else the job's (the radar's square).
+ */
+function sliceExtents(radars: readonly RadarCoverage[], job: FusionJob): (RadarExtent | undefined)[] {
+  return radars.map((r, i) => r.heights[job.heightIndex].targets[job.targetIndex].pdExtent ?? job.extents[i]);
+}
+
+/**
  * One fusion step: the fused rasters (fusion.ts) and the metrics (metrics.ts) of one class at one
  * height over the radars' results (in site order). `reuse`: the cell states of this height when
  * already computed, and a previous fused height whose arrays may be overwritten.
@@ -308,9 +326,10 @@ export function fuseSiteHeight(
   job: FusionJob,
   reuse: { cellState?: Uint8Array; fused?: FusedHeight } = {},
 ): SiteHeightResult {
-  const { targetIndex: t, heightIndex: k, extents } = job;
+  const { targetIndex: t, heightIndex: k } = job;
   const h = site.heightsAglM[k];
   const pdPerRadar = radars.map((r) => r.heights[k].targets[t].pd!);
+  const extents = sliceExtents(radars, job);
   const cellState = reuse.cellState ?? cellStatesAtHeight(site.ground, site.obstructionTopAglM, h);
   const fused = fuseHeight({
     pdPerRadar,
@@ -337,6 +356,46 @@ export function fuseSiteHeight(
     extents,
   });
   return { ...fused, heightAglM: h, cellState, metrics };
+}
+
+/** Identity of a site's region masks, hashed once per masks object. */
+const regionIds = new WeakMap<RegionMasks, string>();
+function regionsId(regions: RegionMasks): string {
+  let id = regionIds.get(regions);
+  if (id === undefined) {
+    id = `${hashRaster(regions.protectedArea)}/${hashRaster(regions.approachRing)}`;
+    regionIds.set(regions, id);
+  }
+  return id;
+}
+
+/** fuseSiteHeight through a FusionMemo: the same figures, fused again only where radars changed. */
+export function fuseSiteHeightMemo(
+  site: PreparedSite,
+  radars: readonly RadarCoverage[],
+  job: FusionJob,
+  memo: FusionMemo,
+  radarKeys: readonly string[],
+  cellState: Uint8Array,
+): SiteHeightResult {
+  const { targetIndex: t, heightIndex: k } = job;
+  const h = site.heightsAglM[k];
+  const requiredPd = site.requirement.requiredPd;
+  const extents = sliceExtents(radars, job);
+  const r = memo.fuse({
+    sliceKey: `${site.targets[t].id}\u0000${h}`,
+    context: [siteTerrainId(site), h, requiredPd, regionsId(site.regions)].join("|"),
+    radarKeys,
+    pdPerRadar: radars.map((x) => x.heights[k].targets[t].pd!),
+    extents,
+    radarIds: site.radars.map((x) => x.id),
+    requiredPd,
+    cellState,
+    regions: site.regions,
+    heightAglM: h,
+    grid: site.frame,
+  });
+  return { ...r.fused, heightAglM: h, cellState, metrics: r.metrics };
 }
 
 interface Port {
@@ -417,6 +476,11 @@ function mergeLowestVisible(
   return lowest;
 }
 
+/** The cache group of a radar's results (RadarResultCacheOptions.perGroup): one post in one mask mode. */
+export function radarGroup(radar: PlacedRadar, mode: MaskMode): string {
+  return `${radar.id}\u0000${mode}`;
+}
+
 /**
  * Evaluate a prepared site: every enabled radar (from the cache when its key is unchanged), then per
  * target class and height the fused Pd, overlap, best radar, gaps and metrics.
@@ -438,8 +502,10 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   let done = 0;
   checkCancel(opts);
   opts.onProgress?.({ stage: "radars", done: 0, total });
+  const keys: string[] = [];
   const one = async (radar: PlacedRadar, i: number): Promise<RadarCoverage> => {
     const key = opts.cache ? radarKey(site, i, mode, terrainId) : "";
+    keys[i] = key;
     const cached = opts.cache?.get(key);
     let result: RadarCoverage;
     if (cached !== undefined) {
@@ -448,12 +514,13 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
       result = cached;
     } else {
       checkCancel(opts);
-      result = await runRadar(site, i, mode, previousById.get(radar.id));
+      // Into the previous result's arrays of this radar, else into a result that left the cache.
+      result = await runRadar(site, i, mode, previousById.get(radar.id) ?? opts.cache?.takeSpare());
       checkCancel(opts);
       computedRadarIds.push(radar.id);
       if (opts.cache) {
         opts.cache.computed++;
-        opts.cache.set(key, result);
+        opts.cache.set(key, result, radarGroup(radar, mode));
       }
     }
     done++;
@@ -502,7 +569,9 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   const stateAt = (h: number): Uint8Array => {
     let s = states.get(h);
     if (s === undefined) {
-      s = cellStatesAtHeight(site.ground, site.obstructionTopAglM, h, previousStates.get(h));
+      const compute = () =>
+        cellStatesAtHeight(site.ground, site.obstructionTopAglM, h, previousStates.get(h));
+      s = opts.fusionMemo ? opts.fusionMemo.cellStates(siteTerrainId(site), h, compute) : compute();
       states.set(h, s);
     }
     return s;
@@ -515,6 +584,9 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
   });
   let fused: SiteHeightResult[];
   let lowest: Float32Array;
+  const memoKeys = opts.fusionMemo ? (opts.cache ? keys : opts.radarKeys) : undefined;
+  if (memoKeys !== undefined && memoKeys.length !== site.radars.length)
+    throw new RangeError(`radarKeys: ${memoKeys.length} keys for ${site.radars.length} radars`);
   if (opts.runFusion) {
     // Elsewhere (workers holding the radars' results): all steps in flight together, the lowest
     // visible height merged here meanwhile.
@@ -536,10 +608,12 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
     fused = jobs.map((job) => {
       checkCancel(opts);
       const h = site.heightsAglM[job.heightIndex];
-      const r = fuseSiteHeight(site, radars, job, {
-        cellState: stateAt(h),
-        fused: previousHeight(site.targets[job.targetIndex].id, h),
-      });
+      const r = memoKeys
+        ? fuseSiteHeightMemo(site, radars, job, opts.fusionMemo!, memoKeys, stateAt(h))
+        : fuseSiteHeight(site, radars, job, {
+            cellState: stateAt(h),
+            fused: previousHeight(site.targets[job.targetIndex].id, h),
+          });
       fusionDone++;
       opts.onProgress?.({ stage: "fusion", done: fusionDone, total: fusionSteps });
       return r;

@@ -41,6 +41,12 @@ export interface FusionInput {
   width?: number;
   /** Optional arrays of a previous FusedHeight of the same length to overwrite instead of allocating. */
   out?: FusedHeight;
+  /**
+   * Optional: fuse only the cells of this rectangle (rows and columns inclusive) and keep the rest of
+   * `out` (which is then required): an update after some radars changed, all of whose old and new
+   * squares lie inside it (fusionMemo.ts). Needs `width`.
+   */
+  window?: RadarExtent;
 }
 
 export interface FusedHeight {
@@ -71,6 +77,9 @@ export function fuseHeight(input: FusionInput): FusedHeight {
     reuse.overlapCount.length === n &&
     reuse.bestRadar.length === n &&
     reuse.gap.length === n;
+  const win = input.window;
+  if (win !== undefined && !fits)
+    throw new RangeError("a fusion window needs the previous fused arrays of the same length (out)");
   const combinedPd = fits ? reuse.combinedPd : new Float32Array(n);
   const overlapCount = fits ? reuse.overlapCount : new Uint8Array(n);
   const bestRadar = fits ? reuse.bestRadar : new Uint8Array(n);
@@ -87,20 +96,24 @@ export function fuseHeight(input: FusionInput): FusedHeight {
   const list = new Int32Array(radarCount);
   const cuts = new Int32Array(2 * radarCount + 2);
   const out: FusedHeight = { combinedPd, overlapCount, bestRadar, gap };
-  for (let row = 0; row < rows; row++) {
+  const rowFrom = win === undefined ? 0 : Math.max(0, win.rowMin);
+  const rowTo = win === undefined ? rows - 1 : Math.min(rows - 1, win.rowMax);
+  for (let row = rowFrom; row <= rowTo; row++) {
     const start = row * width;
     const end = Math.min(n, start + width);
-    const last = end - start - 1;
+    const first = win === undefined ? 0 : Math.max(0, win.colMin);
+    const last = win === undefined ? end - start - 1 : Math.min(end - start - 1, win.colMax);
+    if (last < first) continue;
     // The radars whose square reaches this row, in index order, and their column spans.
     let na = 0;
     let nc = 0;
-    cuts[nc++] = 0;
+    cuts[nc++] = first;
     cuts[nc++] = last + 1;
     for (let r = 0; r < radarCount; r++) {
       const e = extents?.[r];
       if (e !== undefined && (row < e.rowMin || row > e.rowMax)) continue;
       ids[na] = r;
-      lo[na] = e === undefined ? 0 : Math.max(0, e.colMin);
+      lo[na] = e === undefined ? first : Math.max(first, e.colMin);
       hi[na] = e === undefined ? last : Math.min(last, e.colMax);
       if (lo[na] > hi[na]) continue;
       cuts[nc++] = lo[na];

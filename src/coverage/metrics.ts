@@ -239,69 +239,139 @@ export function gapComponents(
   };
 }
 
-/** All figures of one target height (see the module note for what counts where). */
-export function heightMetrics(input: MetricsInput): HeightMetrics {
-  const { fused, pdPerRadar, radarIds, requiredPd, cellState, regions, width, height, cellSizeM } = input;
-  const { originX, originY } = input;
-  const cellAreaM2 = cellSizeM * cellSizeM;
-  const comps = gapComponents(fused.gap, width, height);
-  const radarCount = pdPerRadar.length;
-  const overlapHistogram = new Array<number>(radarCount + 1).fill(0);
-  const coveredCells = new Array<number>(radarCount).fill(0);
-  const onlyCells = new Array<number>(radarCount).fill(0);
-  const extents = input.extents;
-  const overlap = fused.overlapCount;
-  const combinedPd = fused.combinedPd;
+/**
+ * Counts over the cells of a rectangle that follow from the fused rasters alone: region figures, the
+ * overlap histogram and, per radar, the cells only it covers. A cell met by exactly one radar is met by
+ * its best radar (the others' Pd are below the requirement, so below its Pd), so no radar's own Pd
+ * raster is read. Integers: counts of disjoint rectangles add up, and an update of one rectangle is
+ * exact (fusionMemo.ts).
+ */
+export interface FusedCounts {
+  pa: RegionCounts;
+  ring: RegionCounts;
+  /** histogram[n]: valid cells of protected area ∪ ring met by exactly n radars. */
+  histogram: number[];
+  /** only[r]: valid region cells that radar r alone meets. */
+  only: number[];
+}
+
+function emptyRegionCounts(): RegionCounts {
+  return { cells: 0, validCells: 0, coveredCells: 0, inside: 0, nodata: 0 };
+}
+
+/** The counts of FusedCounts over `window` (rows and columns inclusive; default the whole grid). */
+export function fusedCounts(
+  fused: FusedHeight,
+  cellState: Uint8Array,
+  regions: RegionMasks,
+  requiredPd: number,
+  grid: { width: number; height: number; radarCount: number },
+  window?: RadarExtent,
+): FusedCounts {
+  const { width, height, radarCount } = grid;
   const pa = regions.protectedArea;
   const ring = regions.approachRing;
-  const paCounts: RegionCounts = { cells: 0, validCells: 0, coveredCells: 0, inside: 0, nodata: 0 };
-  const ringCounts: RegionCounts = { cells: 0, validCells: 0, coveredCells: 0, inside: 0, nodata: 0 };
+  const overlap = fused.overlapCount;
+  const best = fused.bestRadar;
+  const combinedPd = fused.combinedPd;
+  const c: FusedCounts = {
+    pa: emptyRegionCounts(),
+    ring: emptyRegionCounts(),
+    histogram: new Array<number>(radarCount + 1).fill(0),
+    only: new Array<number>(radarCount).fill(0),
+  };
   const valid = CellState.valid;
-  // Per row, the radars whose square reaches it and their column spans (as in fuseHeight).
-  const active = new Int32Array(radarCount);
-  const colLo = new Int32Array(radarCount);
-  const colHi = new Int32Array(radarCount);
-  // One pass over the grid, row by row: region figures, overlap histogram and per-radar areas.
-  for (let row = 0; row < height; row++) {
-    const start = row * width;
-    let na = 0;
-    for (let r = 0; r < radarCount; r++) {
-      const e = extents?.[r];
-      if (e !== undefined && (row < e.rowMin || row > e.rowMax)) continue;
-      active[na] = r;
-      colLo[na] = e === undefined ? 0 : e.colMin;
-      colHi[na] = e === undefined ? width - 1 : e.colMax;
-      na++;
-    }
-    for (let col = 0; col < width; col++) {
-      const i = start + col;
+  const r0 = window ? Math.max(0, window.rowMin) : 0;
+  const r1 = window ? Math.min(height - 1, window.rowMax) : height - 1;
+  const c0 = window ? Math.max(0, window.colMin) : 0;
+  const c1 = window ? Math.min(width - 1, window.colMax) : width - 1;
+  for (let row = r0; row <= r1; row++) {
+    const end = row * width + c1;
+    for (let i = row * width + c0; i <= end; i++) {
       const inPa = pa[i];
       const inRing = ring[i];
       if ((inPa | inRing) === 0) continue;
       const state = cellState[i];
       const covered = combinedPd[i] >= requiredPd;
-      if (inPa) countRegionCell(paCounts, state, covered);
-      if (inRing) countRegionCell(ringCounts, state, covered);
+      if (inPa) countRegionCell(c.pa, state, covered);
+      if (inRing) countRegionCell(c.ring, state, covered);
       if (state !== valid) continue;
       const k = overlap[i];
-      overlapHistogram[k]++;
-      if (k === 0) continue;
-      for (let a = 0; a < na; a++) {
-        if (col < colLo[a] || col > colHi[a]) continue;
-        const r = active[a];
-        if (pdPerRadar[r][i] >= requiredPd) {
-          coveredCells[r]++;
-          if (k === 1) onlyCells[r]++;
-        }
-      }
+      c.histogram[k]++;
+      if (k === 1) c.only[best[i]]++;
     }
   }
-  const protectedArea = regionFigures(paCounts, cellAreaM2);
-  const approachRing = regionFigures(ringCounts, cellAreaM2);
+  return c;
+}
+
+/** `into` += sign × `c`, field by field. */
+export function addFusedCounts(into: FusedCounts, c: FusedCounts, sign: 1 | -1): void {
+  for (const [a, b] of [
+    [into.pa, c.pa],
+    [into.ring, c.ring],
+  ] as const) {
+    a.cells += sign * b.cells;
+    a.validCells += sign * b.validCells;
+    a.coveredCells += sign * b.coveredCells;
+    a.inside += sign * b.inside;
+    a.nodata += sign * b.nodata;
+  }
+  for (let k = 0; k < into.histogram.length; k++) into.histogram[k] += sign * c.histogram[k];
+  for (let r = 0; r < into.only.length; r++) into.only[r] += sign * c.only[r];
+}
+
+/** Valid cells of the protected area or ring where one radar alone meets the required Pd. */
+export function radarCoveredCells(
+  pd: Float32Array,
+  cellState: Uint8Array,
+  regions: RegionMasks,
+  requiredPd: number,
+  grid: { width: number; height: number },
+  extent?: RadarExtent,
+): number {
+  const { width, height } = grid;
+  const pa = regions.protectedArea;
+  const ring = regions.approachRing;
+  const valid = CellState.valid;
+  const r0 = extent ? Math.max(0, extent.rowMin) : 0;
+  const r1 = extent ? Math.min(height - 1, extent.rowMax) : height - 1;
+  const c0 = extent ? Math.max(0, extent.colMin) : 0;
+  const c1 = extent ? Math.min(width - 1, extent.colMax) : width - 1;
+  let n = 0;
+  for (let row = r0; row <= r1; row++) {
+    const end = row * width + c1;
+    for (let i = row * width + c0; i <= end; i++) {
+      if (pd[i] >= requiredPd && (pa[i] | ring[i]) !== 0 && cellState[i] === valid) n++;
+    }
+  }
+  return n;
+}
+
+/** The frame figures metrics need: size, origin (for the gap centroid) and cell size, m. */
+export interface MetricsGrid {
+  width: number;
+  height: number;
+  originX: number;
+  originY: number;
+  cellSizeM: number;
+}
+
+/** A height's figures from its counts, each radar's covered cells and the gap raster. */
+export function metricsFromCounts(
+  heightAglM: number,
+  counts: FusedCounts,
+  coveredCells: readonly number[],
+  radarIds: ReadonlyArray<string>,
+  gap: Uint8Array,
+  grid: MetricsGrid,
+): HeightMetrics {
+  const { width, height, cellSizeM, originX, originY } = grid;
+  const cellAreaM2 = cellSizeM * cellSizeM;
+  const comps = gapComponents(gap, width, height);
   return {
-    heightAglM: input.heightAglM,
-    protectedArea,
-    approachRing,
+    heightAglM,
+    protectedArea: regionFigures(counts.pa, cellAreaM2),
+    approachRing: regionFigures(counts.ring, cellAreaM2),
     gaps: {
       count: comps.count,
       totalAreaM2: comps.totalCells * cellAreaM2,
@@ -314,11 +384,22 @@ export function heightMetrics(input: MetricsInput): HeightMetrics {
             ]
           : null,
     },
-    overlapHistogram,
+    overlapHistogram: [...counts.histogram],
     perRadar: radarIds.map((radarId, r) => ({
       radarId,
       coveredAreaM2: coveredCells[r] * cellAreaM2,
-      onlyThisRadarAreaM2: onlyCells[r] * cellAreaM2,
+      onlyThisRadarAreaM2: counts.only[r] * cellAreaM2,
     })),
   };
+}
+
+/** All figures of one target height (see the module note for what counts where). */
+export function heightMetrics(input: MetricsInput): HeightMetrics {
+  const { fused, pdPerRadar, radarIds, requiredPd, cellState, regions, width, height } = input;
+  const grid = { width, height, radarCount: pdPerRadar.length };
+  const counts = fusedCounts(fused, cellState, regions, requiredPd, grid);
+  const covered = pdPerRadar.map((pd, r) =>
+    radarCoveredCells(pd, cellState, regions, requiredPd, grid, input.extents?.[r]),
+  );
+  return metricsFromCounts(input.heightAglM, counts, covered, radarIds, fused.gap, input);
 }

@@ -1,0 +1,181 @@
+import { describe, expect, it } from "vitest";
+import {
+  computeRadarCoverage,
+  evaluateSite,
+  fuseSiteHeight,
+  type PreparedSite,
+  radarKey,
+} from "../../src/coverage/evaluate.ts";
+import { cellStatesAtHeight } from "../../src/coverage/fusion.ts";
+import { FusionMemo, type MemoFusionInput } from "../../src/coverage/fusionMemo.ts";
+import { RadarResultCache } from "../../src/coverage/radarCache.ts";
+import {
+  cellXY,
+  demoRadar,
+  fixedWing,
+  frameOf,
+  placed,
+  quad,
+  roughGround,
+  siteOf,
+} from "./coverageFixtures.ts";
+
+/**
+ * 2 km square: one rotating radar over every cell, two short-range staring radars; a protected disc
+ * and an approach ring around it, so that every count of the metrics is exercised. `nw` and `se`
+ * move the staring radars (cells).
+ */
+function site(nw: [number, number] = [60, 60], se: [number, number] = [330, 300]): PreparedSite {
+  const f = frameOf(400, 400, 5);
+  const m = demoRadar("mossbee-58");
+  const s = siteOf(
+    f,
+    roughGround(f),
+    [
+      placed(demoRadar("kalvori-x9"), cellXY(f, 200, 200), 160, { id: "k" }),
+      placed(m, cellXY(f, nw[0], nw[1]), 150, { id: "nw", boresightAzDeg: 135, tiltDeg: -3 }),
+      placed(m, cellXY(f, se[0], se[1]), 150, { id: "se", boresightAzDeg: 315, tiltDeg: -3 }),
+    ],
+    { targets: [quad, fixedWing] },
+  );
+  const n = f.width * f.height;
+  const pa = new Uint8Array(n);
+  const ring = new Uint8Array(n);
+  for (let i = 0; i < n; i++) {
+    const d = Math.hypot((i % f.width) - 220, Math.floor(i / f.width) - 190);
+    if (d < 90) pa[i] = 1;
+    else if (d < 170) ring[i] = 1;
+  }
+  return { ...s, regions: { protectedArea: pa, approachRing: ring } };
+}
+
+/** The memo's input for one class and height of a site (its radars computed afresh). */
+function inputOf(s: PreparedSite, t: number, k: number, context = "c"): MemoFusionInput {
+  const radars = s.radars.map((_, i) => computeRadarCoverage(s, i));
+  const h = s.heightsAglM[k];
+  return {
+    sliceKey: `${t}/${h}`,
+    context,
+    radarKeys: s.radars.map((_, i) => radarKey(s, i, s.maskMode)),
+    pdPerRadar: radars.map((r) => r.heights[k].targets[t].pd!),
+    extents: radars.map((r) => r.extent),
+    radarIds: s.radars.map((r) => r.id),
+    requiredPd: s.requirement.requiredPd,
+    cellState: cellStatesAtHeight(s.ground, s.obstructionTopAglM, h),
+    regions: s.regions,
+    heightAglM: h,
+    grid: s.frame,
+  };
+}
+
+/** The whole-grid fusion and metrics of the same slice (fuseSiteHeight, no memo). */
+function reference(s: PreparedSite, t: number, k: number) {
+  const radars = s.radars.map((_, i) => computeRadarCoverage(s, i));
+  return fuseSiteHeight(s, radars, { targetIndex: t, heightIndex: k, extents: radars.map((r) => r.extent) });
+}
+
+function expectSame(got: ReturnType<FusionMemo["fuse"]>, want: ReturnType<typeof reference>): void {
+  expect(got.metrics).toEqual(want.metrics);
+  for (const key of ["combinedPd", "overlapCount", "bestRadar", "gap"] as const)
+    expect(Array.from(got.fused[key])).toEqual(Array.from(want[key]));
+}
+
+describe("fusion memo", () => {
+  it("[FM1] after a radar moves, only the rectangle of its old and new squares is fused, with the figures of a whole fusion", () => {
+    const memo = new FusionMemo();
+    const base = site();
+    const first = memo.fuse(inputOf(base, 0, 1));
+    expect(first.how).toBe("full");
+    expectSame(first, reference(base, 0, 1));
+    // Unchanged radars: nothing to do, the kept rasters come back.
+    const again = memo.fuse(inputOf(base, 0, 1));
+    expect(again.how).toBe("kept");
+    expect(again.fused.combinedPd).toBe(first.fused.combinedPd);
+    // The north-west radar moves by 10 and then 40 cells; then the south-east one moves too.
+    for (const [nw, se] of [
+      [
+        [70, 60],
+        [330, 300],
+      ],
+      [
+        [110, 80],
+        [330, 300],
+      ],
+      [
+        [110, 80],
+        [300, 320],
+      ],
+    ] as [[number, number], [number, number]][]) {
+      const s = site(nw, se);
+      const r = memo.fuse(inputOf(s, 0, 1));
+      expect(r.how).toBe("window");
+      // The window is the staring radars' squares, well inside the grid.
+      const w = r.window;
+      if (w === undefined) throw new Error("no window");
+      expect((w.rowMax - w.rowMin + 1) * (w.colMax - w.colMin + 1)).toBeLessThan(0.8 * 400 * 400);
+      expectSame(r, reference(s, 0, 1));
+      expect(r.fused.combinedPd).toBe(first.fused.combinedPd);
+    }
+    // The ring and the disc both hold covered and uncovered cells, and the staring radars cover
+    // cells alone, so every count took part.
+    const m = reference(site([110, 80], [300, 320]), 0, 1).metrics;
+    expect(m.protectedArea.coveredCells).toBeGreaterThan(0);
+    expect(m.approachRing.coveredCells).toBeLessThan(m.approachRing.validCells);
+    expect(m.perRadar.some((p) => p.onlyThisRadarAreaM2 > 0)).toBe(true);
+  });
+
+  it("[FM2] a changed context, radar list or class, or too many changed radars, fuse the whole grid", () => {
+    const memo = new FusionMemo(1);
+    memo.fuse(inputOf(site(), 1, 2));
+    // Another context (terrain, height, regions or requirement).
+    const moved = site([70, 60]);
+    expect(memo.fuse(inputOf(moved, 1, 2, "other")).how).toBe("full");
+    // Two radars changed, more than this memo updates.
+    const both = site([80, 60], [320, 300]);
+    const r = memo.fuse(inputOf(both, 1, 2, "other"));
+    expect(r.how).toBe("full");
+    expectSame(r, reference(both, 1, 2));
+    // A radar less.
+    const fewer: PreparedSite = { ...both, radars: both.radars.slice(0, 2) };
+    expect(memo.fuse(inputOf(fewer, 1, 2, "other")).how).toBe("full");
+    // A square over most of the grid (the rotating radar moved) is fused whole too.
+    const wide: PreparedSite = {
+      ...fewer,
+      radars: [{ ...fewer.radars[0], x: fewer.radars[0].x + 50 }, fewer.radars[1]],
+    };
+    const w = memo.fuse(inputOf(wide, 1, 2, "other"));
+    expect(w.how).toBe("full");
+    expectSame(w, reference(wide, 1, 2));
+  });
+
+  it("[FM3] runs of a site through a memo and the radar cache give the figures of fresh runs, slice by slice", async () => {
+    const memo = new FusionMemo();
+    const cache = new RadarResultCache<ReturnType<typeof computeRadarCoverage>>(16, {
+      perGroup: 2,
+      spares: 1,
+    });
+    for (const nw of [
+      [60, 60],
+      [75, 65],
+      [90, 70],
+      [60, 60],
+    ] as [number, number][]) {
+      const s = site(nw);
+      const viaMemo = await evaluateSite(s, { cache, fusionMemo: memo });
+      const fresh = await evaluateSite(s);
+      expect(viaMemo.targets.map((t) => t.heights.map((h) => h.metrics))).toEqual(
+        fresh.targets.map((t) => t.heights.map((h) => h.metrics)),
+      );
+      for (let t = 0; t < fresh.targets.length; t++)
+        for (let k = 0; k < fresh.targets[t].heights.length; k++) {
+          const a = viaMemo.targets[t].heights[k];
+          const b = fresh.targets[t].heights[k];
+          expect(Array.from(a.combinedPd)).toEqual(Array.from(b.combinedPd));
+          expect(Array.from(a.gap)).toEqual(Array.from(b.gap));
+          expect(Array.from(a.overlapCount)).toEqual(Array.from(b.overlapCount));
+        }
+    }
+    // The quadcopter at 3 heights, the fixed wing at 2.
+    expect(memo.size).toBe(5);
+  });
+});
