@@ -90,15 +90,34 @@ export function radarResultKey(parts: RadarKeyParts): string {
   return hashValue(parts);
 }
 
+/** Options of a RadarResultCache. */
+export interface RadarResultCacheOptions {
+  /**
+   * At most this many entries per group (set's `group`, e.g. one radar): a radar moved again and again
+   * keeps its newest results (undo, redo) and lets older ones go. Default: no limit.
+   */
+  perGroup?: number;
+  /**
+   * Entries that left (over a bound) are kept as spares, at most this many (default 0): a caller takes
+   * one with takeSpare() and writes a new result into its arrays instead of allocating new ones (fresh
+   * memory costs its page faults, about 1 ms per MB on the project machine).
+   */
+  spares?: number;
+}
+
 /**
  * A bounded map from radar keys to results, least recently used first out.
  * `computed` and `hits` count what happened, so callers and tests can see what was recomputed.
  */
 export class RadarResultCache<T> {
-  private readonly entries = new Map<string, T>();
+  private readonly entries = new Map<string, { value: T; group: string | undefined }>();
+  private readonly spareValues: T[] = [];
   hits = 0;
   computed = 0;
-  constructor(readonly maxEntries = 64) {}
+  constructor(
+    readonly maxEntries = 64,
+    private readonly options: RadarResultCacheOptions = {},
+  ) {}
 
   get size(): number {
     return this.entries.size;
@@ -106,24 +125,70 @@ export class RadarResultCache<T> {
 
   /** The cached result for `key`, marking it recently used; undefined when absent. */
   get(key: string): T | undefined {
-    const value = this.entries.get(key);
-    if (value === undefined) return undefined;
+    const entry = this.entries.get(key);
+    if (entry === undefined) return undefined;
     this.entries.delete(key);
-    this.entries.set(key, value);
-    return value;
+    this.entries.set(key, entry);
+    return entry.value;
   }
 
   has(key: string): boolean {
     return this.entries.has(key);
   }
 
-  set(key: string, value: T): void {
+  /**
+   * Store `value` under `key` (in `group`, see RadarResultCacheOptions.perGroup). Entries that leave
+   * become spares; a value that is in use elsewhere must not be stored twice.
+   */
+  set(key: string, value: T, group?: string): void {
+    const old = this.entries.get(key);
     this.entries.delete(key);
-    this.entries.set(key, value);
-    while (this.entries.size > this.maxEntries) {
-      const oldest = this.entries.keys().next().value as string;
-      this.entries.delete(oldest);
+    if (old !== undefined && old.value !== value) this.retire(old.value);
+    this.entries.set(key, { value, group });
+    const perGroup = this.options.perGroup;
+    if (group !== undefined && perGroup !== undefined) {
+      let inGroup = 0;
+      for (const e of this.entries.values()) if (e.group === group) inGroup++;
+      // Oldest first: the map keeps insertion (use) order.
+      for (const [k, e] of this.entries) {
+        if (inGroup <= perGroup) break;
+        if (e.group !== group) continue;
+        this.entries.delete(k);
+        this.retire(e.value);
+        inGroup--;
+      }
     }
+    while (this.entries.size > this.maxEntries) {
+      const [oldest, e] = this.entries.entries().next().value as [string, { value: T }];
+      this.entries.delete(oldest);
+      this.retire(e.value);
+    }
+  }
+
+  /**
+   * A result that has left the cache, for its arrays to be overwritten (the newest first), or
+   * undefined. Entries leave only when newer ones come in, so a spare is never one a run in progress
+   * has just taken from the cache: the cache holds more entries than a site has radars.
+   */
+  takeSpare(): T | undefined {
+    return this.spareValues.pop();
+  }
+
+  /** Spares held now. */
+  get spareCount(): number {
+    return this.spareValues.length;
+  }
+
+  /** Adds a value made ready elsewhere (e.g. memory prepared while idle) to the spares. */
+  addSpare(value: T): void {
+    this.retire(value);
+  }
+
+  private retire(value: T): void {
+    const max = this.options.spares ?? 0;
+    if (max === 0) return;
+    this.spareValues.push(value);
+    if (this.spareValues.length > max) this.spareValues.shift();
   }
 
   /** The cached value, or compute, store and return it (counting hits and computations). */
@@ -141,5 +206,6 @@ export class RadarResultCache<T> {
 
   clear(): void {
     this.entries.clear();
+    this.spareValues.length = 0;
   }
 }

@@ -8,7 +8,7 @@ import { createCoverageApi } from "./coverageApi";
 import type { CoverageApi } from "./protocol";
 import { viewTransferables } from "./protocol";
 
-const api = createCoverageApi();
+const api = createCoverageApi({ warmWhenIdle: true });
 
 const exposed: CoverageApi = {
   async evaluate(req, onProgress) {

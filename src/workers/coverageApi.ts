@@ -3,18 +3,20 @@
  * the site (src/io/preparePlan.ts, cached while terrain and grid stay the same), and calls the engine
  * (src/coverage/evaluate.ts) with a per-radar cache, so moving one post recomputes one radar.
  */
-import type { PlacedRadar, RadarCoverage } from "../coverage/coverage";
+import { blankRadarCoverage, type PlacedRadar, type RadarCoverage } from "../coverage/coverage";
 import {
   CancelledError,
   computeRadarCoverage,
   evaluatePoint,
   evaluateSite,
   type PreparedSite,
+  radarGroup,
   radarKey,
   type SiteResult,
   siteTerrainId,
   yieldToEventLoop,
 } from "../coverage/evaluate";
+import { FusionMemo } from "../coverage/fusionMemo";
 import { linkBudget } from "../coverage/linkBudget";
 import { RadarResultCache } from "../coverage/radarCache";
 import type { Plan } from "../io/planSchema";
@@ -37,9 +39,21 @@ import type {
 } from "./protocol";
 import { focusKey, focusSite, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
 import { cloneView, toCoverageView } from "./toView";
+import { WarmBuffers, writeThrough } from "./warmBuffers";
 
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
 const RADAR_CACHE_ENTRIES = 64;
+/**
+ * Results kept per post and mask mode: the newest and two earlier states, so undo and redo of a
+ * post's last two moves cost nothing; older results leave the cache and their arrays are written over
+ * by the next radar computed (two kept as spares), which saves faulting in new memory on each release.
+ */
+const RESULTS_PER_POST = 3;
+const SPARE_RESULTS = 2;
+
+function newCache(entries: number): RadarResultCache<RadarCoverage> {
+  return new RadarResultCache<RadarCoverage>(entries, { perGroup: RESULTS_PER_POST, spares: SPARE_RESULTS });
+}
 
 function now(): number {
   return performance.now();
@@ -89,19 +103,42 @@ function cacheEntriesFor(site: PreparedSite): number {
   return Math.max(site.radars.length + 2, Math.min(RADAR_CACHE_ENTRIES, fit));
 }
 
-export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | null } {
-  let cache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
+export interface CoverageApiOptions {
+  /**
+   * Prepare memory for the next run while idle (warmBuffers.ts): a spare radar result and the copies
+   * of the fused slices a view sends. The worker entry turns it on; inline runs and tests need not.
+   */
+  warmWhenIdle?: boolean;
+}
+
+/** What createCoverageApi gives besides the API: for the worker entry and for tests. */
+export interface CoverageApiInternals {
+  lastSite(): PreparedSite | null;
+  /** Resolves once the idle work started after the last run is done (or stopped by a new run). */
+  whenIdle(): Promise<void>;
+  /** Spare radar results of the accurate cache and ready arrays like `like`, for tests. */
+  readyCounts(like: Float32Array): { spareRadars: number; arrays: number };
+}
+
+export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi & CoverageApiInternals {
+  let cache = newCache(RADAR_CACHE_ENTRIES);
   /**
    * Drag previews (fast masking, often a coarser grid) keep their own cache: every drag step stores a
    * new entry for the moved radar, which would otherwise push the accurate radars out and make the
    * release recompute all of them.
    */
-  let fastCache = new RadarResultCache<RadarCoverage>(RADAR_CACHE_ENTRIES);
+  let fastCache = newCache(RADAR_CACHE_ENTRIES);
   const fastCacheFor = (site: PreparedSite): RadarResultCache<RadarCoverage> => {
     const entries = cacheEntriesFor(site);
-    if (entries !== fastCache.maxEntries) fastCache = new RadarResultCache<RadarCoverage>(entries);
+    if (entries !== fastCache.maxEntries) fastCache = newCache(entries);
     return fastCache;
   };
+  /**
+   * The last fused slices of accurate runs and of previews apart (a preview may run on a coarser
+   * grid): a release after a drag fuses again only where the moved radar's squares lie.
+   */
+  const accurateMemo = new FusionMemo();
+  const fastMemo = new FusionMemo();
   /** The full-resolution site of the last run, and the coarse one of the last preview of a large site. */
   let prepared: PreparedSlot | null = null;
   let coarse: PreparedSlot | null = null;
@@ -158,7 +195,7 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
     if (r.slot !== prepared) {
       prepared = r.slot;
       const entries = cacheEntriesFor(r.site);
-      if (entries !== cache.maxEntries) cache = new RadarResultCache<RadarCoverage>(entries);
+      if (entries !== cache.maxEntries) cache = newCache(entries);
     }
     return maskMode ? { ...r.site, maskMode } : r.site;
   };
@@ -169,104 +206,176 @@ export function createCoverageApi(): CoverageApi & { lastSite(): PreparedSite | 
   /** The newest generation this worker was told of; older runs stop at their next check. */
   let newest = 0;
 
+  /** Runs in progress (idle work stops when one starts) and the idle work last started. */
+  let running = 0;
+  let idleWork: Promise<void> = Promise.resolve();
+  const warm = new WarmBuffers();
+
+  /**
+   * After an accurate run of `site` (a whole site or a part): a spare radar result of its shape and
+   * ready copies of its fused slices, so that the next release writes into memory already faulted in.
+   */
+  const prepareWhileIdle = async (site: PreparedSite): Promise<void> => {
+    const stop = () => running > 0;
+    const n = site.frame.width * site.frame.height;
+    if (cache.spareCount === 0 && site.radars.length > 0) {
+      const target = cache;
+      const blank = blankRadarCoverage({ ...site, radar: site.radars[0] });
+      const arrays = [
+        blank.lowestVisibleHeightAglM,
+        ...blank.heights.flatMap((h) => [
+          h.snrDbAt0Dbsm,
+          ...h.targets.flatMap((t) => (t.pd && t.reason ? [t.pd, t.reason] : [])),
+        ]),
+      ];
+      if (await writeThrough(arrays, stop)) target.addSpare(blank);
+      else return;
+    }
+    const slices = site.targets.reduce((k, t) => k + t.heightsAglM.length, 0);
+    const f32 = new Float32Array(0);
+    const u8 = new Uint8Array(0);
+    for (const [like, want] of [
+      [f32, slices],
+      [u8, 2 * slices],
+    ] as const) {
+      const sized = like instanceof Float32Array ? new Float32Array(n) : new Uint8Array(n);
+      while (warm.count(sized) < Math.min(want, warm.maxPerKind)) {
+        const a = like instanceof Float32Array ? new Float32Array(n) : new Uint8Array(n);
+        if (!(await writeThrough([a], stop))) return;
+        warm.put(a);
+      }
+    }
+  };
+
+  /** One evaluation (see evaluate); `onSite` hears the site it evaluated. */
+  const evaluateRun = async (
+    req: EvaluateRequest,
+    onProgress: ProgressListener | undefined,
+    onSite: (site: PreparedSite) => void,
+  ): Promise<CoverageView> => {
+    const t0 = now();
+    const stale = () => req.generation < newest;
+    const whole = await prepare(req.plan, req.dem, req.maskMode);
+    const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
+    onSite(full);
+    let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
+    let result: SiteResult;
+    // An accurate run with a focus goes in two steps: the shown slice first, then (shownSliceHeld)
+    // the other slices; both take every radar of the full site from the cache, computed once.
+    const sub = site.maskMode === "fast" || !req.focus ? full : releaseStepSite(full, req.focus, req);
+    // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
+    const lowestVisible =
+      (req.part?.index ?? 0) === 0 &&
+      (sub === full || (req.sliceFirst ? req.lowestShown === true : req.lowestShown !== true));
+    if (sub !== full) {
+      const mode = full.maskMode;
+      const terrainId = siteTerrainId(full);
+      const computed: string[] = [];
+      const accurate = cache;
+      const radarKeys = full.radars.map((_, i) => radarKey(full, i, mode, terrainId));
+      result = await evaluateSite(sub, {
+        mode,
+        lowestVisible,
+        onProgress,
+        shouldCancel: stale,
+        fusionMemo: accurateMemo,
+        radarKeys,
+        runRadar: async (_s, i) => {
+          const key = radarKeys[i];
+          let r = accurate.get(key);
+          if (r === undefined) {
+            // A turn of the event loop before computing a radar, so that a newer generation can be
+            // heard (a radar from the cache takes no time and needs none).
+            await yieldToEventLoop();
+            if (stale()) throw new CancelledError();
+            r = computeRadarCoverage(full, i, mode, accurate.takeSpare());
+            accurate.computed++;
+            accurate.set(key, r, radarGroup(full.radars[i], mode));
+            computed.push(full.radars[i].id);
+          } else accurate.hits++;
+          return narrowRadar(r, full, sub);
+        },
+      });
+      result = {
+        ...result,
+        computedRadarIds: computed,
+        cachedRadarIds: full.radars.map((r) => r.id).filter((id) => !computed.includes(id)),
+      };
+      site = sub;
+    } else {
+      result = await evaluateSite(site, {
+        cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
+        fusionMemo: site.maskMode === "fast" ? fastMemo : accurateMemo,
+        mode: site.maskMode,
+        lowestVisible,
+        onProgress,
+        shouldCancel: stale,
+      });
+    }
+    const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
+    if (site.frame.cellSizeM !== prepared?.site.frame.cellSizeM) {
+      notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
+    }
+    if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
+    const terrainKey = site.terrainId ?? siteTerrainId(site);
+    const withTerrain = terrainKey !== req.haveTerrainKey;
+    const view = cloneView(
+      toCoverageView(site, result, {
+        generation: req.generation,
+        notes,
+        elapsedMs: now() - t0,
+        terrainKey,
+        withTerrain,
+        perRadarPostId: req.perRadarPostId ?? null,
+      }),
+      (a) => warm.copy(a),
+    );
+    if (req.sliceFirst && sub !== full) view.partial = true;
+    if (full !== whole) {
+      // A part: the whole run's heights and classes, so the parts can be put together.
+      view.heightsM = [...whole.heightsAglM];
+      view.classIds = whole.targets.map((t) => t.id);
+    }
+    const focused = view.slices.find(
+      (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
+    );
+    if (view.partial && focused) {
+      // The shown slice goes at once; its gap outlines come with the next step (from a copy, as
+      // the slice's arrays move to the caller).
+      shownGap = { generation: req.generation, focus: focusKey(focused), gap: focused.gap.slice() };
+    } else if (req.shownSliceHeld && req.focus) {
+      if (shownGap?.generation === req.generation && shownGap.focus === focusKey(req.focus))
+        view.shownGapShapes = gapShapesXY(shownGap.gap, view.frame);
+      shownGap = null;
+    } else if (focused && (site.maskMode !== "fast" || !req.focus)) {
+      focused.gapShapes = gapShapesXY(focused.gap, view.frame);
+    }
+    return view;
+  };
+
   return {
     lastSite: () => prepared?.site ?? null,
+    whenIdle: () => idleWork,
+    readyCounts: (like) => ({ spareRadars: cache.spareCount, arrays: warm.count(like) }),
     async supersede(generation: number) {
       newest = Math.max(newest, generation);
     },
     async evaluate(req: EvaluateRequest, onProgress?: ProgressListener): Promise<CoverageView> {
-      const t0 = now();
-      const stale = () => req.generation < newest;
-      const whole = await prepare(req.plan, req.dem, req.maskMode);
-      const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
-      let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
-      let result: SiteResult;
-      // An accurate run with a focus goes in two steps: the shown slice first, then (shownSliceHeld)
-      // the other slices; both take every radar of the full site from the cache, computed once.
-      const sub = site.maskMode === "fast" || !req.focus ? full : releaseStepSite(full, req.focus, req);
-      // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
-      const lowestVisible =
-        (req.part?.index ?? 0) === 0 &&
-        (sub === full || (req.sliceFirst ? req.lowestShown === true : req.lowestShown !== true));
-      if (sub !== full) {
-        const mode = full.maskMode;
-        const terrainId = siteTerrainId(full);
-        const computed: string[] = [];
-        const accurate = cache;
-        result = await evaluateSite(sub, {
-          mode,
-          lowestVisible,
-          onProgress,
-          shouldCancel: stale,
-          runRadar: async (_s, i) => {
-            const key = radarKey(full, i, mode, terrainId);
-            let r = accurate.get(key);
-            if (r === undefined) {
-              // A turn of the event loop before computing a radar, so that a newer generation can be
-              // heard (a radar from the cache takes no time and needs none).
-              await yieldToEventLoop();
-              if (stale()) throw new CancelledError();
-              r = computeRadarCoverage(full, i, mode);
-              accurate.computed++;
-              accurate.set(key, r);
-              computed.push(full.radars[i].id);
-            } else accurate.hits++;
-            return narrowRadar(r, full, sub);
-          },
+      running++;
+      let site: PreparedSite | null = null;
+      try {
+        const view = await evaluateRun(req, onProgress, (s) => {
+          site = s;
         });
-        result = {
-          ...result,
-          computedRadarIds: computed,
-          cachedRadarIds: full.radars.map((r) => r.id).filter((id) => !computed.includes(id)),
-        };
-        site = sub;
-      } else {
-        result = await evaluateSite(site, {
-          cache: site.maskMode === "fast" ? fastCacheFor(site) : cache,
-          mode: site.maskMode,
-          lowestVisible,
-          onProgress,
-          shouldCancel: stale,
-        });
+        return view;
+      } finally {
+        running--;
+        const done = site as PreparedSite | null;
+        if (options.warmWhenIdle && running === 0 && done !== null && done.maskMode !== "fast") {
+          const previous = idleWork;
+          idleWork = previous.then(() => (running === 0 ? prepareWhileIdle(done) : undefined));
+        }
       }
-      const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
-      if (site.frame.cellSizeM !== prepared?.site.frame.cellSizeM) {
-        notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
-      }
-      if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
-      const terrainKey = site.terrainId ?? siteTerrainId(site);
-      const withTerrain = terrainKey !== req.haveTerrainKey;
-      const view = cloneView(
-        toCoverageView(site, result, {
-          generation: req.generation,
-          notes,
-          elapsedMs: now() - t0,
-          terrainKey,
-          withTerrain,
-          perRadarPostId: req.perRadarPostId ?? null,
-        }),
-      );
-      if (req.sliceFirst && sub !== full) view.partial = true;
-      if (full !== whole) {
-        // A part: the whole run's heights and classes, so the parts can be put together.
-        view.heightsM = [...whole.heightsAglM];
-        view.classIds = whole.targets.map((t) => t.id);
-      }
-      const focused = view.slices.find(
-        (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
-      );
-      if (view.partial && focused) {
-        // The shown slice goes at once; its gap outlines come with the next step (from a copy, as
-        // the slice's arrays move to the caller).
-        shownGap = { generation: req.generation, focus: focusKey(focused), gap: focused.gap.slice() };
-      } else if (req.shownSliceHeld && req.focus) {
-        if (shownGap?.generation === req.generation && shownGap.focus === focusKey(req.focus))
-          view.shownGapShapes = gapShapesXY(shownGap.gap, view.frame);
-        shownGap = null;
-      } else if (focused && (site.maskMode !== "fast" || !req.focus)) {
-        focused.gapShapes = gapShapesXY(focused.gap, view.frame);
-      }
-      return view;
     },
     async point(req: PointRequest): Promise<PointReply> {
       if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg)))

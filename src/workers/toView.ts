@@ -56,16 +56,19 @@ export function toCoverageView(site: PreparedSite, result: SiteResult, o: ViewOp
 }
 
 /**
- * Copies the arrays of a view that the worker keeps (cached per-radar Pd, the site's terrain) so that
- * transferring the view leaves its caches intact; the fused arrays are new in every run and move as
- * they are.
+ * Copies the arrays of a view that the worker keeps (cached per-radar Pd, the site's terrain, the
+ * fused slices its FusionMemo holds for the next run) so that transferring the view leaves them intact.
+ * `copyOf` makes each copy (default a new array; the worker passes its ready memory, warmBuffers.ts).
  */
-export function cloneView(v: CoverageView): CoverageView {
+export function cloneView(
+  v: CoverageView,
+  copyOf: <T extends Float32Array | Uint8Array>(a: T) => T = (a) => a.slice() as typeof a,
+): CoverageView {
   const copies = new Map<ArrayBufferView, ArrayBufferView>();
   const c = <T extends Float32Array | Uint8Array>(a: T): T => {
     let out = copies.get(a);
     if (!out) {
-      out = a.slice() as T;
+      out = copyOf(a);
       copies.set(a, out);
     }
     return out as T;
@@ -74,6 +77,12 @@ export function cloneView(v: CoverageView): CoverageView {
     ...v,
     groundAmslM: c(v.groundAmslM),
     obstructionTopAglM: c(v.obstructionTopAglM),
-    slices: v.slices.map((s) => ({ ...s, perRadarPd: s.perRadarPd.map(c) })),
+    slices: v.slices.map((s) => ({
+      ...s,
+      combinedPd: c(s.combinedPd),
+      overlap: c(s.overlap),
+      gap: c(s.gap),
+      perRadarPd: s.perRadarPd.map(c),
+    })),
   };
 }

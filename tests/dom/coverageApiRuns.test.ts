@@ -158,4 +158,64 @@ describe("coverage API runs", () => {
     const release = await api.evaluate(request(end.plan));
     expect(release.computedRadarIds).toEqual([end.postId]);
   });
+
+  it("a post moved again and again writes into results that left the cache, with the figures of a fresh run", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    const api = createCoverageApi();
+    await api.evaluate(request(plan));
+    // Each move adds a result for the post; past the three kept per post, the oldest leaves and the
+    // next move's radar is written into its arrays. Moving back and forth also brings kept ones back.
+    let last: CoverageView | null = null;
+    let end = moved(plan, 0);
+    const seen = new Set<number>();
+    for (const k of [1, 2, 3, 4, 5, 6, 5, 7]) {
+      end = moved(plan, k);
+      const req = request(end.plan, { focus, perRadarPostId: end.postId });
+      const first = await api.evaluate({ ...req, sliceFirst: true });
+      const rest = await api.evaluate({ ...req, shownSliceHeld: true });
+      // Position 5 is kept from two moves before: nothing is computed.
+      expect(first.computedRadarIds).toEqual(seen.has(k) ? [] : [end.postId]);
+      seen.add(k);
+      last = { ...rest, slices: [...first.slices, ...rest.slices] };
+    }
+    const fresh = await createCoverageApi().evaluate(
+      request(end.plan, { focus, perRadarPostId: end.postId }),
+    );
+    if (last === null) throw new Error("no run");
+    expect(Array.from(last.lowestVisibleAglM)).toEqual(Array.from(fresh.lowestVisibleAglM));
+    for (const s of fresh.slices) {
+      const m = sliceOf(last, s.classId, s.heightM);
+      expect(m.metrics).toEqual(s.metrics);
+      expect(Array.from(m.combinedPd)).toEqual(Array.from(s.combinedPd));
+      const r = fresh.radarPostIds.indexOf(end.postId);
+      expect(Array.from(m.perRadarPd[r])).toEqual(Array.from(s.perRadarPd[r]));
+    }
+  });
+
+  it("prepares a spare radar result and the copies of its slices while idle, and the next release uses them", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    const api = createCoverageApi({ warmWhenIdle: true });
+    const first = await api.evaluate(request(plan, { part: { index: 1, count: 2 } }));
+    await api.whenIdle();
+    const like = first.slices[0].combinedPd;
+    // One spare radar, and a ready Float32 array for each of the part's three slices.
+    expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 3 });
+    const end = moved(plan, 3);
+    const release = await api.evaluate(request(end.plan, { focus, part: { index: 1, count: 2 } }));
+    expect(release.computedRadarIds).toEqual([end.postId]);
+    // The release took them; idle again, the worker prepares new ones.
+    expect(api.readyCounts(like)).toEqual({ spareRadars: 0, arrays: 0 });
+    await api.whenIdle();
+    expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 3 });
+    const fresh = await createCoverageApi().evaluate(
+      request(end.plan, { focus, part: { index: 1, count: 2 } }),
+    );
+    expect(release.slices.map((x) => x.metrics)).toEqual(fresh.slices.map((x) => x.metrics));
+    release.slices.forEach((x, k) => {
+      expect(Array.from(x.combinedPd)).toEqual(Array.from(fresh.slices[k].combinedPd));
+      expect(Array.from(x.gap)).toEqual(Array.from(fresh.slices[k].gap));
+    });
+  });
 });

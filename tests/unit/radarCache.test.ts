@@ -94,3 +94,37 @@ describe("per-radar cache", () => {
     expect(c.size).toBe(2);
   });
 });
+
+describe("radar result cache groups and spares", () => {
+  it("[RC5] keeps the newest entries of a group and hands the ones that left out as spares", () => {
+    const c = new RadarResultCache<{ n: number }>(10, { perGroup: 2, spares: 1 });
+    const v = [0, 1, 2, 3].map((n) => ({ n }));
+    c.set("a0", v[0], "a");
+    c.set("b0", { n: 9 }, "b");
+    c.set("a1", v[1], "a");
+    expect(c.takeSpare()).toBeUndefined();
+    c.set("a2", v[2], "a");
+    // The oldest of group a left; group b is untouched.
+    expect(c.has("a0")).toBe(false);
+    expect([c.has("a1"), c.has("a2"), c.has("b0")]).toEqual([true, true, true]);
+    c.set("a3", v[3], "a");
+    // At most one spare: the newest to leave.
+    expect(c.takeSpare()).toBe(v[1]);
+    expect(c.takeSpare()).toBeUndefined();
+  });
+
+  it("[RC6] an entry over the size bound becomes a spare too, and a cache without spares keeps none", () => {
+    const c = new RadarResultCache<number>(2, { spares: 2 });
+    c.set("a", 1);
+    c.set("b", 2);
+    c.set("c", 3);
+    expect(c.takeSpare()).toBe(1);
+    const plain = new RadarResultCache<number>(1);
+    plain.set("a", 1);
+    plain.set("b", 2);
+    expect(plain.takeSpare()).toBeUndefined();
+    c.set("d", 4);
+    c.clear();
+    expect(c.takeSpare()).toBeUndefined();
+  });
+});
