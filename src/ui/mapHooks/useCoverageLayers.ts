@@ -11,6 +11,21 @@ import { layerScale } from "../layerPaint";
 import { selectedSlice } from "../selection";
 import { useSession } from "../session";
 
+/**
+ * Table indices of the rasters last drawn, per values array and scale: a release shows the shown
+ * slice and then the whole run, whose slice is the same array, and switching back to a layer drawn
+ * before needs no second pass over a million cells on the main thread.
+ */
+const drawn = new WeakMap<object, { scaleKey: string; indices: Int16Array }>();
+
+function indicesOf(values: ArrayLike<number>, scaleKey: string, toIndex: (v: number) => number): Int16Array {
+  const hit = drawn.get(values);
+  if (hit?.scaleKey === scaleKey) return hit.indices;
+  const indices = quantise(values, toIndex);
+  drawn.set(values, { scaleKey, indices });
+  return indices;
+}
+
 export function useCoverageLayers(map: L.Map | null): void {
   const coverage = useMemo(() => new RasterLayer({ pane: "picket-coverage" }), []);
   const gaps = useMemo(() => new GapLayer(), []);
@@ -49,7 +64,7 @@ export function useCoverageLayers(map: L.Map | null): void {
     coverage.setPaint({
       frame,
       forward,
-      indices: quantise(values, scale.toIndex),
+      indices: indicesOf(values, `${layer}|${maxOverlap}|${maxH}`, scale.toIndex),
       table: scale.table,
       pattern: "fill",
     });

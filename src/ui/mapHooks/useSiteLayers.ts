@@ -9,16 +9,20 @@ import { usePlanStore } from "../store";
 export function useSiteLayers(map: L.Map | null): void {
   const layer = useMemo(() => new SiteLayer(), []);
   useMapLayer(map, layer);
-  const plan = usePlanStore((s) => s.plan);
+  // The parts of the plan this layer draws, each kept by reference across edits of other parts: a
+  // post moved leaves them as they are, and the layer (with its ring buffered by turf) is not rebuilt.
+  const protectedAreas = usePlanStore((s) => s.plan?.protectedAreas);
+  const approachRingDepthM = usePlanStore((s) => s.plan?.approachRingDepthM);
+  const terrain = usePlanStore((s) => s.plan?.terrain);
   const showBuildings = useSession((s) => s.showBuildings);
   useEffect(() => {
-    if (!plan) return;
+    if (!protectedAreas || approachRingDepthM === undefined || !terrain) return;
     layer.setSite({
-      protectedAreas: plan.protectedAreas,
-      approachRingDepthM: plan.approachRingDepthM,
-      buildings: plan.terrain.buildings.features,
-      treeStands: plan.terrain.treeStands,
+      protectedAreas,
+      approachRingDepthM,
+      buildings: terrain.buildings.features,
+      treeStands: terrain.treeStands,
       showBuildings,
     });
-  }, [plan?.protectedAreas, plan?.approachRingDepthM, plan?.terrain, showBuildings, layer, plan]);
+  }, [protectedAreas, approachRingDepthM, terrain, showBuildings, layer]);
 }
