@@ -6,7 +6,7 @@
  *   - main thread: long tasks (> 50 ms) observed during the drag.
  * Then the same plan at about 16 million cells (refused or timed, as the engine decides).
  * Run: npx tsx tests/bench/browser.bench.ts (PICKET_BENCH_DRAG_STEP_MS=100 moves the pointer 10 times a
- * second; PICKET_BENCH_CELLS=1e6 runs one grid size only)
+ * second; PICKET_BENCH_CELLS=1e6 runs one grid size only; PICKET_BENCH_DRAGS=n drags n times, default 4)
  */
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
@@ -17,6 +17,8 @@ import { siteGridFrame } from "../../src/io/siteGrid";
 import { browserAvailable, ROOT, startHarness } from "../e2e/harness";
 
 const DRAG_STEPS = 30;
+/** Drags of the post per grid size (back and forth): the first after opening also fills the caches. */
+const DRAGS = Number(process.env.PICKET_BENCH_DRAGS ?? 4);
 /** Pointer moves every this many ms: 16 ms is a 60 Hz pointer, as mice and touchpads report. */
 const DRAG_STEP_MS = Number(process.env.PICKET_BENCH_DRAG_STEP_MS ?? 16);
 
@@ -216,8 +218,8 @@ async function main() {
       console.log(`  open and first accurate run: ${openMs} ms wall (${st.trim()})`);
       if (!/Computed in/.test(st)) continue;
       const name = groundPostName(plan);
-      for (let run = 1; run <= 2; run++) {
-        const d = await dragOnce(page, name, run === 1 ? 1 : -1);
+      for (let run = 1; run <= DRAGS; run++) {
+        const d = await dragOnce(page, name, run % 2 === 1 ? 1 : -1);
         const over = d.longTasks.filter((t) => t.ms > 50);
         console.log(
           `  drag ${run} of "${name}": preview ${d.updatesPerS.toFixed(1)} updates/s (target ≥ 10 on 1 M cells)`,
