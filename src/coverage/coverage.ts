@@ -28,6 +28,7 @@ import { pdExact, type SwerlingCase } from "./detection.ts";
 import type { GridFrame } from "./grid.ts";
 import { cachedPdDbTable, type PdDbTable, pdFromSnrDb } from "./pdDbTable.ts";
 import { knifeEdgeLossDb } from "./propagation.ts";
+import { hashValue } from "./radarCache.ts";
 import { type RadarEquationParams, radarEquationParams, snrAtRange, snrConstant } from "./radarEquation.ts";
 import type { AntennaSpec, RadarModel, ScanMode } from "./radarModel.ts";
 import { curvatureFactorPerM, type HorizonResult } from "./terrainMask.ts";
@@ -366,6 +367,35 @@ export function buildRadarKernel(input: {
     rcsDbsm: targets.map((t) => t.rcsDbsm),
     requiredPd: requirement.requiredPd,
   };
+}
+
+/** Kernels built lately, by what they depend on (see kernelFor). */
+const kernels = new Map<string, RadarKernel>();
+const KERNELS_KEPT = 32;
+
+/**
+ * buildRadarKernel, or the same kernel built before for the same model, scan, pointing, classes,
+ * requirement and k: a kernel does not depend on where the radar stands or how high, so a post that
+ * is moved again and again (a drag, its release) reuses it (a few ms of pattern and loss tables each).
+ */
+export function kernelFor(input: Parameters<typeof buildRadarKernel>[0]): RadarKernel {
+  const { radar } = input;
+  const key = hashValue({
+    model: radar.model,
+    scan: radar.scan,
+    boresightAzDeg: radar.boresightAzDeg,
+    tiltDeg: radar.tiltDeg,
+    targets: input.targets.map((t) => [t.rcsDbsm, t.swerling]),
+    requirement: input.requirement,
+    k: input.effectiveEarthFactor,
+  });
+  let kernel = kernels.get(key);
+  if (kernel === undefined) {
+    kernel = buildRadarKernel(input);
+    if (kernels.size >= KERNELS_KEPT) kernels.delete(kernels.keys().next().value as string);
+  } else kernels.delete(key);
+  kernels.set(key, kernel);
+  return kernel;
 }
 
 /**

@@ -8,9 +8,9 @@
  * horizon sweep → radar stage (coverage.ts); then per class and height: fusion → metrics.
  */
 import {
-  buildRadarKernel,
   coveragePoint,
   type DetectionRequirement,
+  kernelFor,
   type PlacedRadar,
   type PointCoverage,
   type RadarCoverage,
@@ -260,7 +260,7 @@ export function computeRadarCoverage(
   reuse?: RadarCoverage,
 ): RadarCoverage {
   const radar = site.radars[radarIndex];
-  const kernel = buildRadarKernel({
+  const kernel = kernelFor({
     radar,
     targets: site.targets,
     requirement: site.requirement,

@@ -66,7 +66,12 @@ export async function run(moves = 12): Promise<void> {
       let b = 0;
       if (view.partial) {
         t = performance.now();
-        await api.evaluate({ ...req, sliceFirst: false, shownSliceHeld: true, haveTerrainKey: view.terrainKey });
+        await api.evaluate({
+          ...req,
+          sliceFirst: false,
+          shownSliceHeld: true,
+          haveTerrainKey: view.terrainKey,
+        });
         b = performance.now() - t;
       }
       // The worker's idle time between a release and the next drag.
@@ -75,7 +80,8 @@ export async function run(moves = 12): Promise<void> {
       first.push(a);
       rest.push(b);
     }
-    const steps = index === 0 ? `shown slice ${msText(first)}, its other slices ${msText(rest)}` : msText(first);
+    const steps =
+      index === 0 ? `shown slice ${msText(first)}, its other slices ${msText(rest)}` : msText(first);
     console.log(`  part ${index}: ${steps}`);
   }
 }

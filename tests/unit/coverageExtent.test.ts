@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { type RadarCoverage, Reason } from "../../src/coverage/coverage.ts";
+import { buildRadarKernel, kernelFor, type RadarCoverage, Reason } from "../../src/coverage/coverage.ts";
 import { computeRadarCoverage, evaluateSite, fuseSiteHeight } from "../../src/coverage/evaluate.ts";
 import { cellStatesAtHeight, fuseHeight } from "../../src/coverage/fusion.ts";
 import {
@@ -129,6 +129,31 @@ describe("radar extents", () => {
     expect((b.rowMax - b.rowMin + 1) * (b.colMax - b.colMin + 1)).toBeLessThan(
       (e.rowMax - e.rowMin + 1) * (e.colMax - e.colMin + 1),
     );
+  });
+
+  it("[CV12] a radar moved or raised keeps its kernel; one turned, tilted or judged for other classes gets a new one", () => {
+    const s = site();
+    const input = (radar = s.radars[1], targets = s.targets) => ({
+      radar,
+      targets,
+      requirement: s.requirement,
+      effectiveEarthFactor: s.effectiveEarthFactor,
+    });
+    const k = kernelFor(input());
+    expect(k).toEqual(buildRadarKernel(input()));
+    const r = s.radars[1];
+    expect(
+      kernelFor(input({ ...r, x: r.x + 40, y: r.y - 15, antennaHeightAslM: r.antennaHeightAslM + 5 })),
+    ).toBe(k);
+    for (const other of [
+      input({ ...r, boresightAzDeg: r.boresightAzDeg + 10 }),
+      input({ ...r, tiltDeg: r.tiltDeg + 1 }),
+      input(r, [s.targets[0]]),
+    ]) {
+      const k2 = kernelFor(other);
+      expect(k2).not.toBe(k);
+      expect(k2).toEqual(buildRadarKernel(other));
+    }
   });
 
   it("[FU6] fusion with extents equals fusion over every raster, also into reused arrays", () => {
