@@ -45,7 +45,7 @@ export function unique(ids: (string[] | undefined)[]): string[] {
 /**
  * The views of the parts of one run as one view: every slice in the order of a whole run (classes,
  * then heights, as the parts list them in `classIds` and `heightsM`); the arrays common to all parts
- * (terrain, lowest visible height, which only the first part merges) from the first.
+ * (terrain) from the first; the lowest visible height from the part that merged it (one does).
  */
 export function mergePartViews(parts: CoverageView[]): CoverageView {
   const [first] = parts;
@@ -56,6 +56,8 @@ export function mergePartViews(parts: CoverageView[]): CoverageView {
   return {
     ...first,
     slices,
+    lowestVisibleAglM:
+      parts.find((v) => v.lowestVisibleAglM.length > 0)?.lowestVisibleAglM ?? first.lowestVisibleAglM,
     notes: [...new Set(parts.flatMap((v) => v.notes))],
     elapsedMs: Math.max(...parts.map((v) => v.elapsedMs)),
     computedRadarIds: unique(parts.map((v) => v.computedRadarIds)),

@@ -37,7 +37,7 @@ import type {
   PointRequest,
   ProgressListener,
 } from "./protocol";
-import { focusKey, focusSite, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
+import { focusKey, focusSite, mergesLowest, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
 import { cloneView, toCoverageView } from "./toView";
 import { WarmBuffers, writeThrough } from "./warmBuffers";
 
@@ -265,8 +265,9 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     const sub = site.maskMode === "fast" || !req.focus ? full : releaseStepSite(full, req.focus, req);
     // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
     const lowestVisible =
-      (req.part?.index ?? 0) === 0 &&
-      (sub === full || (req.sliceFirst ? req.lowestShown === true : req.lowestShown !== true));
+      whole.maskMode === "fast" || sub === full
+        ? mergesLowest(whole, { ...req, sliceFirst: false, shownSliceHeld: false })
+        : mergesLowest(whole, req);
     if (sub !== full) {
       const mode = full.maskMode;
       const terrainId = siteTerrainId(full);

@@ -38,8 +38,8 @@ export interface EvaluateRequest {
   shownSliceHeld?: boolean;
   /**
    * The map shows the lowest visible height. The lowest visible height over all radars is merged by
-   * one step of a run only: the sliceFirst step when it is shown, else the step that follows it; a
-   * part other than the first leaves it out (the first part's is the run's).
+   * one step of a run only (siteSlices.mergesLowest): the sliceFirst step when it is shown; else, in a
+   * run split into parts, a part without the shown slice, and in one part the step after sliceFirst.
    */
   lowestShown?: boolean;
   /**

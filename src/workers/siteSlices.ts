@@ -63,6 +63,38 @@ export function partSite(site: PreparedSite, part: { index: number; count: numbe
   return restrictSite(site, (h, t) => mine.has(`${h}\u0000${t}`));
 }
 
+/** The index of the part (of `count`, partSite) that holds the focused slice, or -1. */
+export function partHolding(site: PreparedSite, count: number, f: Focus): number {
+  for (let index = 0; index < count; index++) if (holds(partSite(site, { index, count }), f)) return index;
+  return -1;
+}
+
+/**
+ * Whether this step of a run merges the lowest visible height (EvaluateRequest.lowestShown): once per
+ * run, by the step that brings it soonest. Shown: the step with the shown slice. Not shown: in a run
+ * split into parts, a part without the shown slice (it replies in one step, while the part holding the
+ * shown slice replies in two and has more to do); in one part, the step after the shown slice.
+ */
+export function mergesLowest(
+  whole: PreparedSite,
+  req: {
+    part?: { index: number; count: number };
+    focus?: Focus;
+    sliceFirst?: boolean;
+    shownSliceHeld?: boolean;
+    lowestShown?: boolean;
+  },
+): boolean {
+  const index = req.part?.index ?? 0;
+  const count = req.part?.count ?? 1;
+  const twoSteps = req.sliceFirst === true || req.shownSliceHeld === true;
+  const byStep = !twoSteps || (req.sliceFirst ? req.lowestShown === true : req.lowestShown !== true);
+  const holder = count > 1 && req.focus ? partHolding(whole, count, req.focus) : -1;
+  if (holder < 0) return index === 0 && byStep;
+  if (req.lowestShown) return index === holder && (!twoSteps || req.sliceFirst === true);
+  return index === (holder === 0 ? 1 : 0);
+}
+
 /**
  * One radar's result of the full site seen as a result of `sub` (some of its slices): the same
  * arrays, picked out, nothing copied.

@@ -122,8 +122,23 @@ describe("coverage API runs", () => {
         expect(Array.from(m.perRadarPd[r])).toEqual(Array.from(s.perRadarPd[r]));
     }
     expect(Array.from(merged.lowestVisibleAglM)).toEqual(Array.from(whole.lowestVisibleAglM));
-    // Only the first part merges it.
-    expect(parts[1].lowestVisibleAglM.length).toBe(0);
+    // One part merges it: the one without the shown slice (part 1 holds it here).
+    expect(parts.map((v) => v.lowestVisibleAglM.length > 0)).toEqual([true, false]);
+    // With the shown slice in part 0, part 1 merges it; shown on the map, part 0's first step does.
+    const early = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[0] };
+    for (const lowestShown of [false, true]) {
+      const got: boolean[] = [];
+      for (let index = 0; index < 2; index++) {
+        const req = request(plan, { focus: early, lowestShown, part: { index, count: 2 } });
+        const api = createCoverageApi();
+        const first = await api.evaluate({ ...req, sliceFirst: true });
+        const rest = first.partial ? await api.evaluate({ ...req, shownSliceHeld: true }) : null;
+        got.push(first.lowestVisibleAglM.length > 0, (rest?.lowestVisibleAglM.length ?? 0) > 0);
+        const mine = [first, rest].find((v) => v !== null && v.lowestVisibleAglM.length > 0);
+        if (mine) expect(Array.from(mine.lowestVisibleAglM)).toEqual(Array.from(whole.lowestVisibleAglM));
+      }
+      expect(got).toEqual(lowestShown ? [true, false, false, false] : [false, false, true, false]);
+    }
     expect(merged.heightsM).toEqual(whole.heightsM);
     expect(merged.classIds).toEqual(whole.classIds);
   });
