@@ -25,6 +25,7 @@ export class GapLayer extends L.LayerGroup {
   private readonly hatch = new RasterLayer({ pane: "picket-gaps" });
   private readonly outlines = L.layerGroup();
   private readonly table = hatchTable();
+  private hatched: { gap: Uint8Array; indices: Int16Array } | null = null;
 
   constructor() {
     super();
@@ -43,8 +44,13 @@ export class GapLayer extends L.LayerGroup {
       this.hatch.setPaint(null);
       return;
     }
-    const indices = new Int16Array(gap.length);
-    for (let i = 0; i < gap.length; i++) indices[i] = gap[i] ? 0 : -1;
+    // The same gap raster again (the outlines of the shown slice follow it): the same hatching.
+    if (this.hatched?.gap !== gap) {
+      const indices = new Int16Array(gap.length);
+      for (let i = 0; i < gap.length; i++) indices[i] = gap[i] ? 0 : -1;
+      this.hatched = { gap, indices };
+    }
+    const { indices } = this.hatched;
     this.hatch.setPaint({ frame, forward, indices, table: this.table, pattern: "hatch" });
     if (!shapes) return;
     for (const rings of shapes.outlines) {

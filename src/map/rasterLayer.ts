@@ -66,7 +66,19 @@ export class RasterLayer extends L.GridLayer {
    * within a time budget, so a large repaint never blocks the page for long.
    */
   setPaint(paint: RasterPaint | null): void {
+    const before = this.paint;
     this.paint = paint;
+    // The same raster again (a release's whole run after its shown slice): nothing to repaint.
+    if (
+      paint !== null &&
+      before !== null &&
+      paint.indices === before.indices &&
+      paint.table === before.table &&
+      paint.pattern === before.pattern &&
+      paint.forward === before.forward &&
+      frameKey(paint.frame) === frameKey(before.frame)
+    )
+      return;
     const key = paint ? frameKey(paint.frame) : "";
     let cache = this.indexCaches.get(key);
     if (cache) this.indexCaches.delete(key);

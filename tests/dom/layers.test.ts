@@ -3,7 +3,10 @@
 import { contours } from "d3-contour";
 import { describe, expect, it } from "vitest";
 import type { Grid, GridFrame } from "../../src/coverage/grid";
+import { GapLayer } from "../../src/map/gapLayer";
 import { hillshadeIndices, hillshadeIndicesInSlices } from "../../src/map/hillshade";
+import { forwardTo } from "../../src/map/pixelToGrid";
+import { RasterLayer } from "../../src/map/rasterLayer";
 import { importKindOf } from "../../src/ui/import/importFiles";
 import { layerScale, PD_SHOWN_FROM } from "../../src/ui/layerPaint";
 import { gapLabelsXY, gapOutlinesXY } from "../../src/workers/gapContours";
@@ -135,5 +138,58 @@ describe("layer scales and import kinds", () => {
     expect(importKindOf("plan.json", '{ "version": 1, "site": {}, "posts": [] }')).toBe("plan");
     expect(importKindOf("houses.json", '{ "type": "FeatureCollection" }')).toBe("buildings");
     expect(importKindOf("notes.docx")).toBe("unknown");
+  });
+});
+
+describe("repaints", () => {
+  /** A raster layer with one tile on record, as Leaflet keeps them, and its repaint queue. */
+  function withTile<T extends RasterLayer>(layer: T): { layer: T; queued: () => number } {
+    const el = document.createElement("canvas");
+    document.body.appendChild(el);
+    const internals = layer as unknown as { _tiles: object; pending: unknown[] };
+    internals._tiles = { "0:0:1": { el, coords: { x: 0, y: 0, z: 1 }, current: true } };
+    return {
+      layer,
+      queued: () => {
+        const n = internals.pending.length;
+        internals.pending.length = 0;
+        return n;
+      },
+    };
+  }
+  const forward = forwardTo(frame.crs);
+
+  it("a raster set again with the same indices, table and frame is not repainted; a new one is", () => {
+    const { layer, queued } = withTile(new RasterLayer());
+    const scale = layerScale("pd", 3, 120);
+    const indices = new Int16Array(frame.width * frame.height).fill(7);
+    layer.setPaint({ frame, forward, indices, table: scale.table, pattern: "fill" });
+    expect(queued()).toBe(1);
+    layer.setPaint({ frame, forward, indices, table: scale.table, pattern: "fill" });
+    expect(queued()).toBe(0);
+    layer.setPaint({ frame, forward, indices: indices.slice(), table: scale.table, pattern: "fill" });
+    expect(queued()).toBe(1);
+    layer.setPaint({
+      frame: { ...frame, originX: frame.originX + 5 },
+      forward,
+      indices,
+      table: scale.table,
+      pattern: "fill",
+    });
+    expect(queued()).toBe(1);
+  });
+
+  it("the same gap raster with its outlines added keeps its hatching", () => {
+    const gaps = new GapLayer();
+    const hatch = (gaps as unknown as { hatch: RasterLayer }).hatch;
+    const { queued } = withTile(hatch);
+    const gap = new Uint8Array(frame.width * frame.height);
+    gap[3] = 1;
+    gaps.setGaps(frame, forward, gap, null);
+    expect(queued()).toBe(1);
+    gaps.setGaps(frame, forward, gap, { outlines: [], labels: [] });
+    expect(queued()).toBe(0);
+    gaps.setGaps(frame, forward, gap.slice(), null);
+    expect(queued()).toBe(1);
   });
 });
