@@ -161,7 +161,7 @@ describe("repaints", () => {
 
   it("a raster set again with the same indices, table and frame is not repainted; a new one is", () => {
     const { layer, queued } = withTile(new RasterLayer());
-    const scale = layerScale("pd", 3, 120);
+    const scale = layerScale("combined", 3, 120);
     const indices = new Int16Array(frame.width * frame.height).fill(7);
     layer.setPaint({ frame, forward, indices, table: scale.table, pattern: "fill" });
     expect(queued()).toBe(1);
