@@ -62,10 +62,10 @@ export const RADAR_BYTES_PER_CELL = 4 + 4 + 4;
 /** Per radar and height: Pd f32 + SNR dB f32 + not-covered reason u8. */
 export const RADAR_HEIGHT_BYTES_PER_CELL = 4 + 4 + 1;
 /**
- * Per height, fused: combined Pd f32 + overlap u8 + best radar u8 + gap u8 + cell state u8,
- * plus fusion scratch (product of misses f32, best Pd f32).
+ * Per height, fused: combined Pd f32 + overlap u8 + best radar u8 + gap u8, twice (the page's copy and
+ * the one the worker keeps for the next release, fusionMemo.ts), plus the cell state u8, rounded up.
  */
-export const FUSED_HEIGHT_BYTES_PER_CELL = 4 + 1 + 1 + 1 + 1 + 4 + 4;
+export const FUSED_HEIGHT_BYTES_PER_CELL = 2 * (4 + 1 + 1 + 1) + 1 + 1;
 
 /** Thrown by siteGridFrame for a site the grid cannot hold; `name` is stable for the worker boundary. */
 export class SiteGridError extends Error {

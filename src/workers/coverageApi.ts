@@ -50,6 +50,12 @@ const RADAR_CACHE_ENTRIES = 64;
  */
 const RESULTS_PER_POST = 3;
 const SPARE_RESULTS = 2;
+/**
+ * Memory is prepared while idle only for grids up to this many cells: the ready copies of the fused
+ * slices are outside the run's memory estimate (siteGrid.ts), and on larger grids the faults are a
+ * smaller share of a release anyway.
+ */
+const WARM_MAX_CELLS = 4_000_000;
 
 function newCache(entries: number): RadarResultCache<RadarCoverage> {
   return new RadarResultCache<RadarCoverage>(entries, { perGroup: RESULTS_PER_POST, spares: SPARE_RESULTS });
@@ -99,7 +105,8 @@ function cacheEntriesFor(site: PreparedSite): number {
     cells *
     (RADAR_RESULT_BYTES.perCell +
       h * (RADAR_RESULT_BYTES.perHeight + site.targets.length * RADAR_RESULT_BYTES.perHeightClass));
-  const fit = Math.floor(RADAR_CACHE_BUDGET_BYTES / Math.max(1, perEntry));
+  // The spares (results that left the cache, one prepared while idle) share the budget.
+  const fit = Math.floor(RADAR_CACHE_BUDGET_BYTES / Math.max(1, perEntry)) - SPARE_RESULTS;
   return Math.max(site.radars.length + 2, Math.min(RADAR_CACHE_ENTRIES, fit));
 }
 
@@ -218,6 +225,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   const prepareWhileIdle = async (site: PreparedSite): Promise<void> => {
     const stop = () => running > 0;
     const n = site.frame.width * site.frame.height;
+    if (n > WARM_MAX_CELLS) return;
     if (cache.spareCount === 0 && site.radars.length > 0) {
       const target = cache;
       const blank = blankRadarCoverage({ ...site, radar: site.radars[0] });
