@@ -21,13 +21,6 @@ export interface RasterPaint {
   pattern: "fill" | "hatch";
 }
 
-/** Quantises values to table indices with a function (NaN → -1 by convention of `toIndex`). */
-export function quantise(values: ArrayLike<number>, toIndex: (v: number) => number): Int16Array {
-  const out = new Int16Array(values.length);
-  for (let i = 0; i < values.length; i++) out[i] = toIndex(values[i]);
-  return out;
-}
-
 /** Time spent repainting tiles per animation frame, ms (keeps frames under ~16 ms). */
 const REPAINT_BUDGET_MS = 10;
 

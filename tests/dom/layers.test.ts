@@ -127,6 +127,39 @@ describe("layer scales and import kinds", () => {
     expect(low.toIndex(50)).toBe(128);
     expect(low.title).toMatch(/m above ground/);
   });
+  it("turns whole rasters into the same indices as value by value, for every layer", () => {
+    const values = Float32Array.from([
+      Number.NaN,
+      Number.NEGATIVE_INFINITY,
+      Number.POSITIVE_INFINITY,
+      -1,
+      0,
+      PD_SHOWN_FROM / 2,
+      PD_SHOWN_FROM,
+      0.5,
+      1 / 510,
+      0.999,
+      1,
+      1.5,
+      2,
+      3,
+      7,
+      119.9,
+      120,
+      240,
+      ...Array.from({ length: 500 }, (_, k) => Math.sin(k * 12.9898) * 150),
+    ]);
+    for (const kind of ["combined", "single", "overlap", "lowest"] as const) {
+      const scale = layerScale(kind, 4, 120);
+      // As the layer stores them: Int16 (an overlap count is an integer; a fraction truncates alike).
+      expect(Array.from(scale.indices(values))).toEqual(
+        Array.from(Int16Array.from(values, (v) => scale.toIndex(v))),
+      );
+    }
+    // One table object per class count: an unchanged overlap layer is not repainted.
+    expect(layerScale("overlap", 4, 120).table).toBe(layerScale("overlap", 4, 60).table);
+  });
+
   it("tells the kind of an imported file from its name and head", () => {
     expect(importKindOf("DEM.TIF")).toBe("dem-geotiff");
     expect(importKindOf("N47E015.hgt")).toBe("dem-hgt");

@@ -4,10 +4,10 @@ import { GapLayer } from "../../map/gapLayer";
 import { gapShapes, shapesToLatLng } from "../../map/gapOutlines";
 import type L from "../../map/leaflet";
 import { forwardTo, inverseFrom } from "../../map/pixelToGrid";
-import { quantise, RasterLayer } from "../../map/rasterLayer";
+import { RasterLayer } from "../../map/rasterLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
 import { shownView, useCoverage } from "../coverageState";
-import { layerScale } from "../layerPaint";
+import { type LayerScale, layerScale } from "../layerPaint";
 import { selectedSlice } from "../selection";
 import { useSession } from "../session";
 
@@ -18,10 +18,10 @@ import { useSession } from "../session";
  */
 const drawn = new WeakMap<object, { scaleKey: string; indices: Int16Array }>();
 
-function indicesOf(values: ArrayLike<number>, scaleKey: string, toIndex: (v: number) => number): Int16Array {
+function indicesOf(values: ArrayLike<number>, scaleKey: string, scale: LayerScale): Int16Array {
   const hit = drawn.get(values);
   if (hit?.scaleKey === scaleKey) return hit.indices;
-  const indices = quantise(values, toIndex);
+  const indices = scale.indices(values);
   drawn.set(values, { scaleKey, indices });
   return indices;
 }
@@ -64,7 +64,7 @@ export function useCoverageLayers(map: L.Map | null): void {
     coverage.setPaint({
       frame,
       forward,
-      indices: indicesOf(values, `${layer}|${maxOverlap}|${maxH}`, scale.toIndex),
+      indices: indicesOf(values, `${layer}|${maxOverlap}|${maxH}`, scale),
       table: scale.table,
       pattern: "fill",
     });
