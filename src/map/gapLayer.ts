@@ -12,12 +12,16 @@ import { RasterLayer } from "./rasterLayer";
 /** Outlines labelled with their area (the largest ones). */
 const LABELLED_GAPS = 12;
 
+/**
+ * Indexed by the gap raster itself (0: no gap, transparent; 1: gap, dark), so that a new gap raster is
+ * drawn without a pass over its cells on the main thread.
+ */
 function hatchTable(): Uint8ClampedArray {
   const t = new Uint8ClampedArray(TABLE_SIZE * 4);
-  t[0] = 20;
-  t[1] = 10;
-  t[2] = 10;
-  t[3] = 230;
+  t[4] = 20;
+  t[5] = 10;
+  t[6] = 10;
+  t[7] = 230;
   return t;
 }
 
@@ -25,7 +29,6 @@ export class GapLayer extends L.LayerGroup {
   private readonly hatch = new RasterLayer({ pane: "picket-gaps" });
   private readonly outlines = L.layerGroup();
   private readonly table = hatchTable();
-  private hatched: { gap: Uint8Array; indices: Int16Array } | null = null;
 
   constructor() {
     super();
@@ -44,14 +47,8 @@ export class GapLayer extends L.LayerGroup {
       this.hatch.setPaint(null);
       return;
     }
-    // The same gap raster again (the outlines of the shown slice follow it): the same hatching.
-    if (this.hatched?.gap !== gap) {
-      const indices = new Int16Array(gap.length);
-      for (let i = 0; i < gap.length; i++) indices[i] = gap[i] ? 0 : -1;
-      this.hatched = { gap, indices };
-    }
-    const { indices } = this.hatched;
-    this.hatch.setPaint({ frame, forward, indices, table: this.table, pattern: "hatch" });
+    // The gap raster is the index raster (see hatchTable); set again unchanged, it is not repainted.
+    this.hatch.setPaint({ frame, forward, indices: gap, table: this.table, pattern: "hatch" });
     if (!shapes) return;
     for (const rings of shapes.outlines) {
       this.outlines.addLayer(

@@ -14,8 +14,8 @@ import { type Forward, tileCellIndices } from "./pixelToGrid";
 export interface RasterPaint {
   frame: GridFrame;
   forward: Forward;
-  /** Per cell, row-major: colour table index, or -1 (transparent). */
-  indices: Int16Array;
+  /** Per cell, row-major: colour table index, or -1 (transparent); bytes index the table directly. */
+  indices: Int16Array | Uint8Array;
   table: ColourTable;
   /** "fill" paints every pixel; "hatch" paints diagonal stripes only (reads without colour). */
   pattern: "fill" | "hatch";

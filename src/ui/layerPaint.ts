@@ -41,16 +41,27 @@ function linearIndices(
   const out = new Int16Array(values.length);
   const span = maxValue - minValue;
   const last = 255;
-  const from = keep === "finite" ? Number.NEGATIVE_INFINITY : keep.atLeast;
-  const finiteOnly = keep === "finite";
+  // One loop per test, so that the loop carries no choice between them.
+  if (keep === "finite") {
+    for (let i = 0; i < values.length; i++) {
+      const v = values[i];
+      if (v - v !== 0)
+        out[i] = -1; // NaN and ±Infinity
+      else {
+        const t = (v - minValue) / span;
+        out[i] = t <= 0 ? 0 : t >= 1 ? last : Math.round(t * last);
+      }
+    }
+    return out;
+  }
+  const from = keep.atLeast;
   for (let i = 0; i < values.length; i++) {
     const v = values[i];
-    if (finiteOnly ? !Number.isFinite(v) : !(v >= from)) {
-      out[i] = -1;
-      continue;
+    if (!(v >= from)) out[i] = -1;
+    else {
+      const t = (v - minValue) / span;
+      out[i] = t <= 0 ? 0 : t >= 1 ? last : Math.round(t * last);
     }
-    const t = (v - minValue) / span;
-    out[i] = t <= 0 ? 0 : t >= 1 ? last : Math.round(t * last);
   }
   return out;
 }
@@ -72,7 +83,7 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
         const top = classes - 1;
         for (let i = 0; i < values.length; i++) {
           const v = values[i];
-          out[i] = v > 0 ? (v < top ? v : top) : -1;
+          out[i] = v > 0 ? Math.min(v, top) : -1;
         }
         return out;
       },
