@@ -14,10 +14,10 @@ export interface LayerScale {
   /** Table index of one value (-1: transparent). */
   toIndex: (v: number) => number;
   /**
-   * toIndex over a whole raster, in one loop of its own per kind (a call of toIndex per cell costs
-   * several times as much: on 5.6 M cells the difference is tens of ms on the main thread).
+   * toIndex over cells [from, to) of a raster into `out`, in one loop of its own per kind (a call of
+   * toIndex per cell costs several times as much: on 5.6 M cells tens of ms on the main thread).
    */
-  indices: (values: ArrayLike<number>) => Int16Array;
+  fill: (values: ArrayLike<number>, out: Int16Array, from: number, to: number) => void;
   /** Legend: title with unit and the labelled stops. */
   title: string;
   stops: { label: string; index: number }[];
@@ -29,21 +29,23 @@ let lowTable: ColourTable | null = null;
 const classTables = new Map<number, ColourTable>();
 
 /**
- * tableIndex(v, [minValue, maxValue]) for the values `keep` accepts, -1 for the others, over a raster:
- * the same arithmetic as tableIndex, written out.
+ * tableIndex(v, [minValue, maxValue]) for the values `keep` accepts, -1 for the others, over cells
+ * [from, to): the same arithmetic as tableIndex, written out.
  */
-function linearIndices(
+function fillLinear(
   values: ArrayLike<number>,
-  minValue: number,
-  maxValue: number,
+  out: Int16Array,
+  from: number,
+  to: number,
+  scale: { minValue: number; maxValue: number },
   keep: "finite" | { atLeast: number },
-): Int16Array {
-  const out = new Int16Array(values.length);
-  const span = maxValue - minValue;
+): void {
+  const { minValue } = scale;
+  const span = scale.maxValue - minValue;
   const last = 255;
   // One loop per test, so that the loop carries no choice between them.
   if (keep === "finite") {
-    for (let i = 0; i < values.length; i++) {
+    for (let i = from; i < to; i++) {
       const v = values[i];
       if (v - v !== 0)
         out[i] = -1; // NaN and ±Infinity
@@ -52,18 +54,50 @@ function linearIndices(
         out[i] = t <= 0 ? 0 : t >= 1 ? last : Math.round(t * last);
       }
     }
-    return out;
+    return;
   }
-  const from = keep.atLeast;
-  for (let i = 0; i < values.length; i++) {
+  const least = keep.atLeast;
+  for (let i = from; i < to; i++) {
     const v = values[i];
-    if (!(v >= from)) out[i] = -1;
+    if (!(v >= least)) out[i] = -1;
     else {
       const t = (v - minValue) / span;
       out[i] = t <= 0 ? 0 : t >= 1 ? last : Math.round(t * last);
     }
   }
+}
+
+/** The table indices of a whole raster (LayerScale.fill over every cell). */
+export function scaleIndices(scale: LayerScale, values: ArrayLike<number>): Int16Array {
+  const out = new Int16Array(values.length);
+  scale.fill(values, out, 0, values.length);
   return out;
+}
+
+/**
+ * scaleIndices in slices of about `budgetMs` each, a turn of the event loop between them, so that a
+ * large raster never holds the main thread; null once `cancelled()` says so.
+ */
+export async function scaleIndicesInSlices(
+  scale: LayerScale,
+  values: ArrayLike<number>,
+  cancelled: () => boolean,
+  budgetMs = 8,
+): Promise<Int16Array | null> {
+  const out = new Int16Array(values.length);
+  let cells = 65_536;
+  for (let i = 0; i < values.length; ) {
+    if (cancelled()) return null;
+    const t0 = performance.now();
+    const end = Math.min(values.length, i + cells);
+    scale.fill(values, out, i, end);
+    const ms = performance.now() - t0;
+    // Aim the next slice at the budget from the pace of this one.
+    cells = Math.max(4096, Math.round(((end - i) * budgetMs) / Math.max(ms, 0.05)));
+    i = end;
+    await new Promise((resolve) => setTimeout(resolve, 0));
+  }
+  return cancelled() ? null : out;
 }
 
 export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: number): LayerScale {
@@ -78,14 +112,12 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
     return {
       table,
       toIndex,
-      indices: (values) => {
-        const out = new Int16Array(values.length);
+      fill: (values, out, from, to) => {
         const top = classes - 1;
-        for (let i = 0; i < values.length; i++) {
+        for (let i = from; i < to; i++) {
           const v = values[i];
           out[i] = v > 0 ? Math.min(v, top) : -1;
         }
-        return out;
       },
       title: "Radars meeting the required Pd (count)",
       stops: Array.from({ length: classes - 1 }, (_, k) => ({ label: String(k + 1), index: k + 1 })),
@@ -98,7 +130,7 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
     return {
       table: lowTable,
       toIndex: (v) => (Number.isFinite(v) ? tableIndex(v, scale) : -1),
-      indices: (values) => linearIndices(values, scale.minValue, scale.maxValue, "finite"),
+      fill: (values, out, from, to) => fillLinear(values, out, from, to, scale, "finite"),
       title: "Lowest visible height (m above ground)",
       stops: [0, 0.25, 0.5, 0.75, 1].map((t) => ({
         label: `${Math.round(t * top)} m`,
@@ -111,7 +143,7 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
   return {
     table: pdTable,
     toIndex: (v) => (v >= PD_SHOWN_FROM ? tableIndex(v, scale) : -1),
-    indices: (values) => linearIndices(values, scale.minValue, scale.maxValue, { atLeast: PD_SHOWN_FROM }),
+    fill: (values, out, from, to) => fillLinear(values, out, from, to, scale, { atLeast: PD_SHOWN_FROM }),
     title: kind === "single" ? "Pd of the chosen radar (0–1)" : "Combined Pd (0–1)",
     stops: [0, 0.25, 0.5, 0.75, 1].map((t) => ({ label: t.toFixed(2), index: Math.round(t * 255) })),
   };

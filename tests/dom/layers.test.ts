@@ -8,7 +8,7 @@ import { hillshadeIndices, hillshadeIndicesInSlices } from "../../src/map/hillsh
 import { forwardTo } from "../../src/map/pixelToGrid";
 import { RasterLayer } from "../../src/map/rasterLayer";
 import { importKindOf } from "../../src/ui/import/importFiles";
-import { layerScale, PD_SHOWN_FROM } from "../../src/ui/layerPaint";
+import { layerScale, PD_SHOWN_FROM, scaleIndices, scaleIndicesInSlices } from "../../src/ui/layerPaint";
 import { gapLabelsXY, gapOutlinesXY } from "../../src/workers/gapContours";
 
 const frame: GridFrame = {
@@ -127,7 +127,7 @@ describe("layer scales and import kinds", () => {
     expect(low.toIndex(50)).toBe(128);
     expect(low.title).toMatch(/m above ground/);
   });
-  it("turns whole rasters into the same indices as value by value, for every layer", () => {
+  it("turns whole rasters into the same indices as value by value, for every layer, at once or in slices", async () => {
     const values = Float32Array.from([
       Number.NaN,
       Number.NEGATIVE_INFINITY,
@@ -147,14 +147,16 @@ describe("layer scales and import kinds", () => {
       119.9,
       120,
       240,
-      ...Array.from({ length: 500 }, (_, k) => Math.sin(k * 12.9898) * 150),
+      ...Array.from({ length: 20_000 }, (_, k) => Math.sin(k * 12.9898) * 150),
     ]);
     for (const kind of ["combined", "single", "overlap", "lowest"] as const) {
       const scale = layerScale(kind, 4, 120);
       // As the layer stores them: Int16 (an overlap count is an integer; a fraction truncates alike).
-      expect(Array.from(scale.indices(values))).toEqual(
-        Array.from(Int16Array.from(values, (v) => scale.toIndex(v))),
-      );
+      const want = Array.from(Int16Array.from(values, (v) => scale.toIndex(v)));
+      expect(Array.from(scaleIndices(scale, values))).toEqual(want);
+      // In slices (here of 4096 cells, the least, as the budget is 0), the same.
+      const sliced = await scaleIndicesInSlices(scale, values, () => false, 0);
+      expect(Array.from(sliced ?? [])).toEqual(want);
     }
     // One table object per class count: an unchanged overlap layer is not repainted.
     expect(layerScale("overlap", 4, 120).table).toBe(layerScale("overlap", 4, 60).table);

@@ -7,24 +7,18 @@ import { forwardTo, inverseFrom } from "../../map/pixelToGrid";
 import { RasterLayer } from "../../map/rasterLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
 import { shownView, useCoverage } from "../coverageState";
-import { type LayerScale, layerScale } from "../layerPaint";
+import { layerScale, scaleIndices, scaleIndicesInSlices } from "../layerPaint";
 import { selectedSlice } from "../selection";
 import { useSession } from "../session";
 
 /**
  * Table indices of the rasters last drawn, per values array and scale: a release shows the shown
  * slice and then the whole run, whose slice is the same array, and switching back to a layer drawn
- * before needs no second pass over a million cells on the main thread.
+ * before needs no second pass over its cells on the main thread.
  */
 const drawn = new WeakMap<object, { scaleKey: string; indices: Int16Array }>();
-
-function indicesOf(values: ArrayLike<number>, scaleKey: string, scale: LayerScale): Int16Array {
-  const hit = drawn.get(values);
-  if (hit?.scaleKey === scaleKey) return hit.indices;
-  const indices = scale.indices(values);
-  drawn.set(values, { scaleKey, indices });
-  return indices;
-}
+/** Rasters up to this many cells are turned into indices at once (about 10 ms); larger ones in slices. */
+const AT_ONCE_CELLS = 1_500_000;
 
 export function useCoverageLayers(map: L.Map | null): void {
   const coverage = useMemo(() => new RasterLayer({ pane: "picket-coverage" }), []);
@@ -61,13 +55,31 @@ export function useCoverageLayers(map: L.Map | null): void {
       coverage.setPaint(null);
       return;
     }
-    coverage.setPaint({
-      frame,
-      forward,
-      indices: indicesOf(values, `${layer}|${maxOverlap}|${maxH}`, scale),
-      table: scale.table,
-      pattern: "fill",
+    const scaleKey = `${layer}|${maxOverlap}|${maxH}`;
+    const paint = (indices: Int16Array) =>
+      coverage.setPaint({ frame, forward, indices, table: scale.table, pattern: "fill" });
+    const hit = drawn.get(values);
+    if (hit?.scaleKey === scaleKey) {
+      paint(hit.indices);
+      return;
+    }
+    if (values.length <= AT_ONCE_CELLS) {
+      const indices = scaleIndices(scale, values);
+      drawn.set(values, { scaleKey, indices });
+      paint(indices);
+      return;
+    }
+    // A large raster: the map keeps what it shows until the new indices are ready.
+    let cancelled = false;
+    const raster = values;
+    void scaleIndicesInSlices(scale, raster, () => cancelled).then((indices) => {
+      if (indices === null || cancelled) return;
+      drawn.set(raster, { scaleKey, indices });
+      paint(indices);
     });
+    return () => {
+      cancelled = true;
+    };
   }, [view, slice, frame, forward, layer, singlePostId, coverage]);
 
   useEffect(() => {
