@@ -81,6 +81,8 @@ export interface SiteHeightResult extends FusedHeight {
   /** CellState per cell at this height. */
   cellState: Uint8Array;
   metrics: HeightMetrics;
+  /** With a FusionMemo: the identity of the gap raster (equal numbers, equal gap cells). */
+  gapVersion?: number;
 }
 
 export interface SiteTargetResult {
@@ -395,7 +397,7 @@ export function fuseSiteHeightMemo(
     heightAglM: h,
     grid: site.frame,
   });
-  return { ...r.fused, heightAglM: h, cellState, metrics: r.metrics };
+  return { ...r.fused, heightAglM: h, cellState, metrics: r.metrics, gapVersion: r.gapVersion };
 }
 
 interface Port {

@@ -11,6 +11,8 @@ import {
   addFusedCounts,
   type FusedCounts,
   fusedCounts,
+  type GapComponents,
+  gapComponents,
   type HeightMetrics,
   type MetricsGrid,
   metricsFromCounts,
@@ -44,6 +46,11 @@ export interface MemoFusionResult {
   how: "kept" | "window" | "full";
   /** The rectangle fused again (for "window"). */
   window?: RadarExtent;
+  /**
+   * Identity of the slice's gap raster in this memo: the same number, the same gap cells (so its
+   * components and outlines need not be found again).
+   */
+  gapVersion: number;
 }
 
 interface KeptSlice {
@@ -54,6 +61,8 @@ interface KeptSlice {
   counts: FusedCounts;
   covered: number[];
   metrics: HeightMetrics;
+  comps: GapComponents;
+  gapVersion: number;
 }
 
 /** The bounding rectangle of some squares, or undefined when one of them is the whole grid. */
@@ -89,6 +98,10 @@ function areaOf(e: RadarExtent, grid: MetricsGrid): number {
  */
 export class FusionMemo {
   private readonly slices = new Map<string, KeptSlice>();
+  /** Gap versions are drawn from one counter, so they never repeat within a memo. */
+  private gapVersions = 0;
+  /** The gap cells of a window before it is fused again, row after row (reused between calls). */
+  private gapBefore = new Uint8Array(0);
   /**
    * @param maxChanged more changed radars than this fuse the whole grid
    * @param maxWindowShare a rectangle over more than this share of the grid is fused whole (the two
@@ -141,7 +154,8 @@ export class FusionMemo {
     if (comparable)
       for (let r = 0; r < input.radarKeys.length; r++)
         if (kept.radarKeys[r] !== input.radarKeys[r]) changed.push(r);
-    if (comparable && changed.length === 0) return { fused: kept.fused, metrics: kept.metrics, how: "kept" };
+    if (comparable && changed.length === 0)
+      return { fused: kept.fused, metrics: kept.metrics, how: "kept", gapVersion: kept.gapVersion };
     let window: RadarExtent | undefined;
     if (comparable && changed.length <= this.maxChanged) {
       window = spanOf(changed.flatMap((r) => [kept.extents[r], extents[r]]));
@@ -151,14 +165,22 @@ export class FusionMemo {
     let fused: FusedHeight;
     let counts: FusedCounts;
     let covered: number[];
+    let comps: GapComponents | null = null;
+    let gapVersion: number;
     if (comparable && window !== undefined) {
       // The rectangle's counts leave with its old values and come back with the new ones.
       ({ fused, counts, covered } = kept);
       addFusedCounts(counts, fusedCounts(fused, cellState, regions, requiredPd, counting, window), -1);
+      const before = this.copyGaps(fused.gap, grid.width, window);
       fuseHeight({ ...fusion, out: fused, window });
       addFusedCounts(counts, fusedCounts(fused, cellState, regions, requiredPd, counting, window), 1);
       for (const r of changed)
         covered[r] = radarCoveredCells(pdPerRadar[r], cellState, regions, requiredPd, grid, extents[r]);
+      // Gap cells change only inside the rectangle: unchanged there, the components are the same.
+      if (sameGaps(before, fused.gap, grid.width, window)) {
+        comps = kept.comps;
+        gapVersion = kept.gapVersion;
+      } else gapVersion = ++this.gapVersions;
     } else {
       const out = kept !== undefined && kept.fused.combinedPd.length === n ? kept.fused : undefined;
       fused = fuseHeight({ ...fusion, out });
@@ -166,8 +188,10 @@ export class FusionMemo {
       covered = pdPerRadar.map((pd, r) =>
         radarCoveredCells(pd, cellState, regions, requiredPd, grid, extents[r]),
       );
+      gapVersion = ++this.gapVersions;
     }
-    const metrics = metricsFromCounts(input.heightAglM, counts, covered, input.radarIds, fused.gap, grid);
+    comps ??= gapComponents(fused.gap, grid.width, grid.height);
+    const metrics = metricsFromCounts(input.heightAglM, counts, covered, input.radarIds, comps, grid);
     const entry: KeptSlice = {
       context: input.context,
       radarKeys: [...input.radarKeys],
@@ -176,8 +200,36 @@ export class FusionMemo {
       counts,
       covered,
       metrics,
+      comps,
+      gapVersion,
     };
     this.slices.set(input.sliceKey, entry);
-    return window !== undefined ? { fused, metrics, how: "window", window } : { fused, metrics, how: "full" };
+    return window !== undefined
+      ? { fused, metrics, how: "window", window, gapVersion }
+      : { fused, metrics, how: "full", gapVersion };
   }
+
+  /** The gap cells of `window`, row after row, into the memo's scratch (valid until the next call). */
+  private copyGaps(gap: Uint8Array, width: number, window: RadarExtent): Uint8Array {
+    const rows = window.rowMax - window.rowMin + 1;
+    const cols = window.colMax - window.colMin + 1;
+    if (rows <= 0 || cols <= 0) return this.gapBefore.subarray(0, 0);
+    if (this.gapBefore.length < rows * cols) this.gapBefore = new Uint8Array(rows * cols);
+    for (let r = 0; r < rows; r++) {
+      const start = (window.rowMin + r) * width + window.colMin;
+      this.gapBefore.set(gap.subarray(start, start + cols), r * cols);
+    }
+    return this.gapBefore.subarray(0, rows * cols);
+  }
+}
+
+/** Whether `gap` holds in `window` what `before` (copyGaps of the same window) held. */
+function sameGaps(before: Uint8Array, gap: Uint8Array, width: number, window: RadarExtent): boolean {
+  if (before.length === 0) return true;
+  const cols = window.colMax - window.colMin + 1;
+  for (let r = 0, k = 0; k < before.length; r++) {
+    const start = (window.rowMin + r) * width + window.colMin;
+    for (let c = 0; c < cols; c++, k++) if (before[k] !== gap[start + c]) return false;
+  }
+  return true;
 }

@@ -356,18 +356,20 @@ export interface MetricsGrid {
   cellSizeM: number;
 }
 
-/** A height's figures from its counts, each radar's covered cells and the gap raster. */
+/** What gapComponents finds. */
+export type GapComponents = ReturnType<typeof gapComponents>;
+
+/** A height's figures from its counts, each radar's covered cells and the gap raster's components. */
 export function metricsFromCounts(
   heightAglM: number,
   counts: FusedCounts,
   coveredCells: readonly number[],
   radarIds: ReadonlyArray<string>,
-  gap: Uint8Array,
+  comps: GapComponents,
   grid: MetricsGrid,
 ): HeightMetrics {
-  const { width, height, cellSizeM, originX, originY } = grid;
+  const { cellSizeM, originX, originY } = grid;
   const cellAreaM2 = cellSizeM * cellSizeM;
-  const comps = gapComponents(gap, width, height);
   return {
     heightAglM,
     protectedArea: regionFigures(counts.pa, cellAreaM2),
@@ -401,5 +403,6 @@ export function heightMetrics(input: MetricsInput): HeightMetrics {
   const covered = pdPerRadar.map((pd, r) =>
     radarCoveredCells(pd, cellState, regions, requiredPd, grid, input.extents?.[r]),
   );
-  return metricsFromCounts(input.heightAglM, counts, covered, radarIds, fused.gap, input);
+  const comps = gapComponents(fused.gap, width, height);
+  return metricsFromCounts(input.heightAglM, counts, covered, radarIds, comps, input);
 }

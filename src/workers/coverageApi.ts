@@ -17,13 +17,14 @@ import {
   yieldToEventLoop,
 } from "../coverage/evaluate";
 import { FusionMemo } from "../coverage/fusionMemo";
+import type { GridFrame } from "../coverage/grid";
 import { linkBudget } from "../coverage/linkBudget";
 import { RadarResultCache } from "../coverage/radarCache";
 import type { Plan } from "../io/planSchema";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
 import { type SiteGrid, siteGridFrame } from "../io/siteGrid";
-import { gapShapesXY } from "./gapContours";
+import { type GapShapesXY, gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planKeyWithoutPlacement, previewSite } from "./preview";
 import { terrainProfile } from "./profile";
@@ -108,6 +109,18 @@ function cacheEntriesFor(site: PreparedSite): number {
   // The spares (results that left the cache, one prepared while idle) share the budget.
   const fit = Math.floor(RADAR_CACHE_BUDGET_BYTES / Math.max(1, perEntry)) - SPARE_RESULTS;
   return Math.max(site.radars.length + 2, Math.min(RADAR_CACHE_ENTRIES, fit));
+}
+
+/** The memo's identity of a slice's gap raster (FusionMemo gapVersion, by mask mode), if it has one. */
+function gapVersionOf(
+  result: SiteResult,
+  slice: { classId: string; heightM: number },
+  mode: "accurate" | "fast",
+): string | undefined {
+  const h = result.targets
+    .find((t) => t.targetId === slice.classId)
+    ?.heights.find((x) => x.heightAglM === slice.heightM);
+  return h?.gapVersion === undefined ? undefined : `${mode}:${h.gapVersion}`;
 }
 
 export interface CoverageApiOptions {
@@ -208,7 +221,16 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   };
 
   /** The gaps of the slice a first step gave, for its outlines in the second step. */
-  let shownGap: { generation: number; focus: string; gap: Uint8Array } | null = null;
+  let shownGap: { generation: number; focus: string; gap: Uint8Array; version?: string } | null = null;
+  /** The gap outlines last found, by slice and gap version (the same gap cells: the same outlines). */
+  let lastOutlines: { key: string; shapes: GapShapesXY } | null = null;
+  const outlinesOf = (gap: Uint8Array, frame: GridFrame, focus: string, version?: string): GapShapesXY => {
+    const key = version === undefined ? null : `${focus}|${version}|${JSON.stringify(frame)}`;
+    if (key !== null && lastOutlines?.key === key) return lastOutlines.shapes;
+    const shapes = gapShapesXY(gap, frame);
+    if (key !== null) lastOutlines = { key, shapes };
+    return shapes;
+  };
 
   /** The newest generation this worker was told of; older runs stop at their next check. */
   let newest = 0;
@@ -348,16 +370,17 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     const focused = view.slices.find(
       (s) => s.classId === req.focus?.classId && s.heightM === req.focus?.heightM,
     );
+    const version = focused ? gapVersionOf(result, focused, site.maskMode) : undefined;
     if (view.partial && focused) {
       // The shown slice goes at once; its gap outlines come with the next step (from a copy, as
       // the slice's arrays move to the caller).
-      shownGap = { generation: req.generation, focus: focusKey(focused), gap: focused.gap.slice() };
+      shownGap = { generation: req.generation, focus: focusKey(focused), gap: focused.gap.slice(), version };
     } else if (req.shownSliceHeld && req.focus) {
       if (shownGap?.generation === req.generation && shownGap.focus === focusKey(req.focus))
-        view.shownGapShapes = gapShapesXY(shownGap.gap, view.frame);
+        view.shownGapShapes = outlinesOf(shownGap.gap, view.frame, shownGap.focus, shownGap.version);
       shownGap = null;
     } else if (focused && (site.maskMode !== "fast" || !req.focus)) {
-      focused.gapShapes = gapShapesXY(focused.gap, view.frame);
+      focused.gapShapes = outlinesOf(focused.gap, view.frame, focusKey(focused), version);
     }
     return view;
   };

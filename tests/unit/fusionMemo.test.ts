@@ -92,9 +92,18 @@ describe("fusion memo", () => {
     expect(again.how).toBe("kept");
     expect(again.fused.combinedPd).toBe(first.fused.combinedPd);
     // The north-west radar moves by 10 and then 40 cells; then the south-east one moves too.
+    const kinds: boolean[] = [];
+    let gapBefore = Array.from(first.fused.gap);
+    let versionBefore = first.gapVersion;
+    const versionsSeen = new Set([versionBefore]);
     for (const [nw, se] of [
       [
         [70, 60],
+        [330, 300],
+      ],
+      // One cell further: the gap cells (here) stay the same.
+      [
+        [71, 60],
         [330, 300],
       ],
       [
@@ -115,7 +124,21 @@ describe("fusion memo", () => {
       expect((w.rowMax - w.rowMin + 1) * (w.colMax - w.colMin + 1)).toBeLessThan(0.8 * 400 * 400);
       expectSame(r, reference(s, 0, 1));
       expect(r.fused.combinedPd).toBe(first.fused.combinedPd);
+      // The gap version stays exactly when the gap cells stay; a new one is never an old one.
+      const gap = Array.from(r.fused.gap);
+      const same = gap.every((v, i) => v === gapBefore[i]);
+      if (same) expect(r.gapVersion).toBe(versionBefore);
+      else {
+        expect(r.gapVersion).not.toBe(versionBefore);
+        expect(versionsSeen.has(r.gapVersion)).toBe(false);
+      }
+      versionsSeen.add(r.gapVersion);
+      kinds.push(same);
+      gapBefore = gap;
+      versionBefore = r.gapVersion;
     }
+    // Here the staring radars change Pd only where the rotating one covers already: gaps kept.
+    expect(kinds).toEqual([true, true, true, true]);
     // The ring and the disc both hold covered and uncovered cells, and the staring radars cover
     // cells alone, so every count took part.
     const m = reference(site([110, 80], [300, 320]), 0, 1).metrics;
@@ -177,5 +200,55 @@ describe("fusion memo", () => {
     }
     // The quadcopter at 3 heights, the fixed wing at 2.
     expect(memo.size).toBe(5);
+  });
+
+  it("[FM4] gap cells changed inside the window give a new gap version and components found again", () => {
+    const width = 40;
+    const height = 30;
+    const n = width * height;
+    const frame = { width, height, originX: 0, originY: 0, cellSizeM: 10 };
+    const regions = { protectedArea: new Uint8Array(n).fill(1), approachRing: new Uint8Array(n) };
+    const cellState = new Uint8Array(n);
+    // Radar a: Pd 0.9 on the left half. Radar b: Pd `pd` on an 8 × 8 square at (row, col).
+    const a = new Float32Array(n);
+    for (let i = 0; i < n; i++) if (i % width < 20) a[i] = 0.9;
+    const square = (row: number, col: number, pd: number) => {
+      const b = new Float32Array(n);
+      for (let r = row; r < row + 8; r++) for (let c = col; c < col + 8; c++) b[r * width + c] = pd;
+      return { b, extent: { rowMin: row, rowMax: row + 7, colMin: col, colMax: col + 7 } };
+    };
+    const inputFor = (row: number, col: number, pd: number, key: string): MemoFusionInput => {
+      const { b, extent } = square(row, col, pd);
+      return {
+        sliceKey: "s",
+        context: "c",
+        radarKeys: ["a", key],
+        pdPerRadar: [a, b],
+        extents: [undefined, extent],
+        radarIds: ["a", "b"],
+        requiredPd: 0.8,
+        cellState,
+        regions,
+        heightAglM: 10,
+        grid: frame,
+      };
+    };
+    const whole = (input: MemoFusionInput) => new FusionMemo().fuse(input);
+    const memo = new FusionMemo();
+    const v0 = memo.fuse(inputFor(5, 25, 0.95, "b0")).gapVersion;
+    // Another Pd inside the same square, still above the requirement: the same gap cells.
+    const same = memo.fuse(inputFor(5, 25, 0.97, "b1"));
+    expect(same.how).toBe("window");
+    expect(same.gapVersion).toBe(v0);
+    expect(same.metrics).toEqual(whole(inputFor(5, 25, 0.97, "b1")).metrics);
+    // The square moves into the uncovered half elsewhere: gap cells change, one hole in the gap moves.
+    const moved = memo.fuse(inputFor(18, 28, 0.97, "b2"));
+    expect(moved.how).toBe("window");
+    expect(moved.gapVersion).not.toBe(v0);
+    const want = whole(inputFor(18, 28, 0.97, "b2"));
+    expect(moved.metrics).toEqual(want.metrics);
+    expect(Array.from(moved.fused.gap)).toEqual(Array.from(want.fused.gap));
+    // The right half around the square is still one gap.
+    expect(moved.metrics.gaps.count).toBe(1);
   });
 });
