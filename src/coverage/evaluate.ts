@@ -449,23 +449,43 @@ function mergeLowestVisible(
   prev: SiteResult | undefined,
 ): Float32Array {
   const n = site.frame.width * site.frame.height;
-  const w = site.frame.width;
   const reusable =
     prev !== undefined && prev.frame.width === site.frame.width && prev.frame.height === site.frame.height;
   const lowest =
     reusable &&
     prev.lowestVisibleHeightAglM.length === n &&
     !radars.some((r) => r.lowestVisibleHeightAglM === prev.lowestVisibleHeightAglM)
-      ? prev.lowestVisibleHeightAglM.fill(Number.NaN)
-      : new Float32Array(n).fill(Number.NaN);
+      ? prev.lowestVisibleHeightAglM
+      : new Float32Array(n);
+  mergeLowestVisibleInto(lowest, site.frame, radars);
+  return lowest;
+}
+
+/**
+ * The lowest visible height over `radars` into `lowest`, in `window` only (rows and columns
+ * inclusive; default the whole grid): NaN first, then each radar's inside its square.
+ */
+export function mergeLowestVisibleInto(
+  lowest: Float32Array,
+  frame: { width: number; height: number },
+  radars: readonly RadarCoverage[],
+  window?: RadarExtent,
+): void {
+  const w = frame.width;
+  const wr0 = window ? Math.max(0, window.rowMin) : 0;
+  const wr1 = window ? Math.min(frame.height - 1, window.rowMax) : frame.height - 1;
+  const wc0 = window ? Math.max(0, window.colMin) : 0;
+  const wc1 = window ? Math.min(w - 1, window.colMax) : w - 1;
+  if (wr1 < wr0 || wc1 < wc0) return;
+  for (let row = wr0; row <= wr1; row++) lowest.fill(Number.NaN, row * w + wc0, row * w + wc1 + 1);
   for (const r of radars) {
     const l = r.lowestVisibleHeightAglM;
     // Outside its extent a radar's lowest height is NaN, which changes nothing here.
     const e = r.extent;
-    const r0 = e ? e.rowMin : 0;
-    const r1 = e ? e.rowMax : site.frame.height - 1;
-    const c0 = e ? e.colMin : 0;
-    const c1 = e ? e.colMax : w - 1;
+    const r0 = Math.max(wr0, e ? e.rowMin : 0);
+    const r1 = Math.min(wr1, e ? e.rowMax : frame.height - 1);
+    const c0 = Math.max(wc0, e ? e.colMin : 0);
+    const c1 = Math.min(wc1, e ? e.colMax : w - 1);
     for (let row = r0; row <= r1; row++) {
       const end = row * w + c1;
       for (let i = row * w + c0; i <= end; i++) {
@@ -475,7 +495,6 @@ function mergeLowestVisible(
       }
     }
   }
-  return lowest;
 }
 
 /** The cache group of a radar's results (RadarResultCacheOptions.perGroup): one post in one mask mode. */
@@ -606,7 +625,12 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
     fused = await steps;
     checkCancel(opts);
   } else {
-    lowest = opts.lowestVisible === false ? new Float32Array(0) : mergeLowestVisible(site, radars, prev);
+    lowest =
+      opts.lowestVisible === false
+        ? new Float32Array(0)
+        : memoKeys
+          ? opts.fusionMemo!.lowest(siteTerrainId(site), site.frame, radars, memoKeys)
+          : mergeLowestVisible(site, radars, prev);
     fused = jobs.map((job) => {
       checkCancel(opts);
       const h = site.heightsAglM[job.heightIndex];

@@ -5,7 +5,8 @@
  * the rectangle those squares span is fused again, and the metrics are updated by the counts of that
  * rectangle before and after (integers: the result equals a full fusion value for value).
  */
-import type { RadarExtent } from "./coverage.ts";
+import type { RadarCoverage, RadarExtent } from "./coverage.ts";
+import { mergeLowestVisibleInto } from "./evaluate.ts";
 import { type FusedHeight, fuseHeight } from "./fusion.ts";
 import {
   addFusedCounts,
@@ -123,6 +124,7 @@ export class FusionMemo {
   clear(): void {
     this.slices.clear();
     this.states.clear();
+    this.kept_lowest = null;
   }
 
   /** The cell states of `terrainId` at a height: kept, or computed by `compute` and kept. */
@@ -207,6 +209,57 @@ export class FusionMemo {
     return window !== undefined
       ? { fused, metrics, how: "window", window, gapVersion }
       : { fused, metrics, how: "full", gapVersion };
+  }
+
+  /** The lowest visible height last merged, with what it was merged from. */
+  private kept_lowest: {
+    context: string;
+    radarKeys: string[];
+    extents: (RadarExtent | undefined)[];
+    lowest: Float32Array;
+  } | null = null;
+
+  /**
+   * The lowest visible height over `radars` (mergeLowestVisibleInto), merged again only inside the
+   * squares of the radars that changed since the last call of the same terrain. The array belongs to
+   * the memo, like the fused rasters.
+   */
+  lowest(
+    terrainId: string,
+    frame: { width: number; height: number },
+    radars: readonly RadarCoverage[],
+    radarKeys: readonly string[],
+  ): Float32Array {
+    const n = frame.width * frame.height;
+    const kept = this.kept_lowest;
+    const extents = radars.map((r) => r.extent);
+    let window: RadarExtent | undefined;
+    let full = true;
+    if (
+      kept !== null &&
+      kept.context === terrainId &&
+      kept.lowest.length === n &&
+      kept.radarKeys.length === radarKeys.length
+    ) {
+      const changed: number[] = [];
+      for (let r = 0; r < radarKeys.length; r++) if (kept.radarKeys[r] !== radarKeys[r]) changed.push(r);
+      if (changed.length === 0) return kept.lowest;
+      if (changed.length <= this.maxChanged) {
+        window = spanOf(changed.flatMap((r) => [kept.extents[r], extents[r]]));
+        full =
+          window === undefined ||
+          areaOf(window, { ...frame, originX: 0, originY: 0, cellSizeM: 1 }) > this.maxWindowShare * n;
+      }
+    }
+    const lowest = kept !== null && kept.lowest.length === n ? kept.lowest : new Float32Array(n);
+    mergeLowestVisibleInto(lowest, frame, radars, full ? undefined : window);
+    this.kept_lowest = {
+      context: terrainId,
+      radarKeys: [...radarKeys],
+      extents: extents.map((e) => (e === undefined ? undefined : { ...e })),
+      lowest,
+    };
+    return lowest;
   }
 
   /** The gap cells of `window`, row after row, into the memo's scratch (valid until the next call). */

@@ -124,7 +124,10 @@ let scratch: {
 } | null = null;
 
 function componentScratch(n: number, width: number): NonNullable<typeof scratch> {
-  const maxRuns = Math.ceil(n / 2) + 1;
+  // A row of `width` cells holds at most ⌈width / 2⌉ runs (a run and a gap between runs), so a grid
+  // at most rows × that; not ⌈n / 2⌉, which a narrow grid exceeds (a column of width 1: one run a row).
+  const rows = width > 0 ? Math.ceil(n / width) : 0;
+  const maxRuns = rows * Math.ceil(width / 2) + 1;
   const rowRuns = 3 * (Math.ceil(width / 2) + 1);
   if (scratch === null || scratch.parent.length < maxRuns || scratch.rows[0].length < rowRuns) {
     scratch = {

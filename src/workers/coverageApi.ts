@@ -264,8 +264,9 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     const slices = site.targets.reduce((k, t) => k + t.heightsAglM.length, 0);
     const f32 = new Float32Array(0);
     const u8 = new Uint8Array(0);
+    // A Float32 copy per slice and one for the lowest visible height.
     for (const [like, want] of [
-      [f32, slices],
+      [f32, slices + 1],
       [u8, 2 * slices],
     ] as const) {
       const sized = like instanceof Float32Array ? new Float32Array(n) : new Uint8Array(n);

@@ -57,7 +57,8 @@ export function toCoverageView(site: PreparedSite, result: SiteResult, o: ViewOp
 
 /**
  * Copies the arrays of a view that the worker keeps (cached per-radar Pd, the site's terrain, the
- * fused slices its FusionMemo holds for the next run) so that transferring the view leaves them intact.
+ * fused slices and lowest visible height its FusionMemo holds for the next run) so that transferring
+ * the view leaves them intact.
  * `copyOf` makes each copy (default a new array; the worker passes its ready memory, warmBuffers.ts).
  */
 export function cloneView(
@@ -77,6 +78,7 @@ export function cloneView(
     ...v,
     groundAmslM: c(v.groundAmslM),
     obstructionTopAglM: c(v.obstructionTopAglM),
+    lowestVisibleAglM: v.lowestVisibleAglM.length > 0 ? c(v.lowestVisibleAglM) : v.lowestVisibleAglM,
     slices: v.slices.map((s) => ({
       ...s,
       combinedPd: c(s.combinedPd),

@@ -215,19 +215,23 @@ describe("coverage API runs", () => {
     const first = await api.evaluate(request(plan, { part: { index: 1, count: 2 } }));
     await api.whenIdle();
     const like = first.slices[0].combinedPd;
-    // One spare radar, and a ready Float32 array for each of the part's three slices.
-    expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 3 });
+    // One spare radar, and a ready Float32 array for each of the part's three slices and one for
+    // the lowest visible height.
+    expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 4 });
     const end = moved(plan, 3);
     const release = await api.evaluate(request(end.plan, { focus, part: { index: 1, count: 2 } }));
     expect(release.computedRadarIds).toEqual([end.postId]);
-    // The release took them; idle again, the worker prepares new ones.
+    // The release took them (part 1 merges the lowest visible height: the shown slice is in part 0);
+    // idle again, the worker prepares new ones.
+    expect(release.lowestVisibleAglM.length).toBeGreaterThan(0);
     expect(api.readyCounts(like)).toEqual({ spareRadars: 0, arrays: 0 });
     await api.whenIdle();
-    expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 3 });
+    expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 4 });
     const fresh = await createCoverageApi().evaluate(
       request(end.plan, { focus, part: { index: 1, count: 2 } }),
     );
     expect(release.slices.map((x) => x.metrics)).toEqual(fresh.slices.map((x) => x.metrics));
+    expect(Array.from(release.lowestVisibleAglM)).toEqual(Array.from(fresh.lowestVisibleAglM));
     release.slices.forEach((x, k) => {
       expect(Array.from(x.combinedPd)).toEqual(Array.from(fresh.slices[k].combinedPd));
       expect(Array.from(x.gap)).toEqual(Array.from(fresh.slices[k].gap));

@@ -171,7 +171,7 @@ describe("fusion memo", () => {
     expectSame(w, reference(wide, 1, 2));
   });
 
-  it("[FM3] runs of a site through a memo and the radar cache give the figures of fresh runs, slice by slice", async () => {
+  it("[FM3] runs of a site through a memo and the radar cache give the figures of fresh runs, slice by slice, and the lowest visible height", async () => {
     const memo = new FusionMemo();
     const cache = new RadarResultCache<ReturnType<typeof computeRadarCoverage>>(16, {
       perGroup: 2,
@@ -186,6 +186,8 @@ describe("fusion memo", () => {
       const s = site(nw);
       const viaMemo = await evaluateSite(s, { cache, fusionMemo: memo });
       const fresh = await evaluateSite(s);
+      // The lowest visible height, merged again only where the moved radar reaches.
+      expect(Array.from(viaMemo.lowestVisibleHeightAglM)).toEqual(Array.from(fresh.lowestVisibleHeightAglM));
       expect(viaMemo.targets.map((t) => t.heights.map((h) => h.metrics))).toEqual(
         fresh.targets.map((t) => t.heights.map((h) => h.metrics)),
       );

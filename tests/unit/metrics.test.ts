@@ -110,6 +110,13 @@ function floodFillComponents(gap: Uint8Array, width: number, height: number) {
 }
 
 describe("gap components", () => {
+  it("[ME1] a narrow grid holds more runs than half its cells: a column of gap cells, one run a row", () => {
+    // Found by the property below when no larger grid had run before in the thread.
+    const gap = Uint8Array.from([1, 1, 0, 1, 1, 1, 0, 1, 1, 1, 1, 0, 1]);
+    expect(gapComponents(gap, 1, 13)).toEqual(floodFillComponents(gap, 1, 13));
+    expect(gapComponents(gap, 1, 13).count).toBe(4);
+  });
+
   it("[ME1] equal a plain flood fill on random rasters (count, cells, largest and its mean cell, ties first)", () => {
     fc.assert(
       fc.property(
