@@ -111,6 +111,14 @@ function cacheEntriesFor(site: PreparedSite): number {
   return Math.max(site.radars.length + 2, Math.min(RADAR_CACHE_ENTRIES, fit));
 }
 
+/** Gap shapes with their own ring arrays. */
+function copyShapes(s: GapShapesXY): GapShapesXY {
+  return {
+    outlines: s.outlines.map((o) => ({ ...o, rings: o.rings.map((r) => r.slice()) })),
+    labels: s.labels.map((l) => ({ ...l })),
+  };
+}
+
 /** The memo's identity of a slice's gap raster (FusionMemo gapVersion, by mask mode), if it has one. */
 function gapVersionOf(
   result: SiteResult,
@@ -226,9 +234,10 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   let lastOutlines: { key: string; shapes: GapShapesXY } | null = null;
   const outlinesOf = (gap: Uint8Array, frame: GridFrame, focus: string, version?: string): GapShapesXY => {
     const key = version === undefined ? null : `${focus}|${version}|${JSON.stringify(frame)}`;
-    if (key !== null && lastOutlines?.key === key) return lastOutlines.shapes;
+    // A copy goes out each time: the rings' buffers move with the view (transferred, then detached).
+    if (key !== null && lastOutlines?.key === key) return copyShapes(lastOutlines.shapes);
     const shapes = gapShapesXY(gap, frame);
-    if (key !== null) lastOutlines = { key, shapes };
+    if (key !== null) lastOutlines = { key, shapes: copyShapes(shapes) };
     return shapes;
   };
 

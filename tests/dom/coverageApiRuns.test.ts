@@ -6,7 +6,7 @@ import { parsePlan } from "../../src/io/planValidation";
 import { siteGridFrame } from "../../src/io/siteGrid";
 import { mergePartViews } from "../../src/ui/runParts";
 import { createCoverageApi } from "../../src/workers/coverageApi";
-import type { CoverageView, EvaluateRequest } from "../../src/workers/protocol";
+import { type CoverageView, type EvaluateRequest, viewTransferables } from "../../src/workers/protocol";
 
 const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
 
@@ -33,6 +33,11 @@ function moved(plan: Plan, k: number): { plan: Plan; postId: string } {
   m.posts[i].position.lonDeg += 0.00002 * k;
   m.posts[i].position.latDeg -= 0.00001 * k;
   return { plan: m, postId: m.posts[i].id };
+}
+
+/** A view as the page receives it from a worker: cloned with its buffers transferred. */
+function sent(v: CoverageView): CoverageView {
+  return structuredClone(v, { transfer: viewTransferables(v) });
 }
 
 function sliceOf(v: CoverageView, classId: string, heightM: number) {
@@ -183,17 +188,22 @@ describe("coverage API runs", () => {
     // next move's radar is written into its arrays. Moving back and forth also brings kept ones back.
     let last: CoverageView | null = null;
     let end = moved(plan, 0);
+    let outlined = 0;
     const seen = new Set<number>();
     for (const k of [1, 2, 3, 4, 5, 6, 5, 7]) {
       end = moved(plan, k);
       const req = request(end.plan, { focus, perRadarPostId: end.postId });
-      const first = await api.evaluate({ ...req, sliceFirst: true });
-      const rest = await api.evaluate({ ...req, shownSliceHeld: true });
+      // Each view as the page receives it: its buffers transferred, as the worker sends them.
+      const first = sent(await api.evaluate({ ...req, sliceFirst: true }));
+      const rest = sent(await api.evaluate({ ...req, shownSliceHeld: true }));
       // Position 5 is kept from two moves before: nothing is computed.
       expect(first.computedRadarIds).toEqual(seen.has(k) ? [] : [end.postId]);
       seen.add(k);
+      if ((rest.shownGapShapes?.labels.length ?? 0) > 0) outlined++;
       last = { ...rest, slices: [...first.slices, ...rest.slices] };
     }
+    // Every release brought the shown slice's outlines (found again only for new gap cells).
+    expect(outlined).toBe(8);
     const fresh = await createCoverageApi().evaluate(
       request(end.plan, { focus, perRadarPostId: end.postId }),
     );
