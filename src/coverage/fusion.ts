@@ -6,7 +6,7 @@
  * (the OR rule for independent sensors; common practice, e.g. Skolnik, Radar Handbook 3rd ed., on
  * netted radars). Overlap = the number of radars that alone meet the required Pd.
  */
-import type { RadarExtent } from "./coverage.ts";
+import type { RadarCoverage, RadarExtent } from "./coverage.ts";
 import type { RegionMasks } from "./regionMask.ts";
 
 /** "No radar" in a best-radar raster. */
@@ -272,4 +272,40 @@ export function cellStatesAtHeight(
     else state[i] = CellState.valid;
   }
   return state;
+}
+
+/**
+ * The lowest visible height over `radars` into `lowest`, in `window` only (rows and columns
+ * inclusive; default the whole grid): NaN first, then each radar's inside its square.
+ */
+export function mergeLowestVisibleInto(
+  lowest: Float32Array,
+  frame: { width: number; height: number },
+  radars: readonly RadarCoverage[],
+  window?: RadarExtent,
+): void {
+  const w = frame.width;
+  const wr0 = window ? Math.max(0, window.rowMin) : 0;
+  const wr1 = window ? Math.min(frame.height - 1, window.rowMax) : frame.height - 1;
+  const wc0 = window ? Math.max(0, window.colMin) : 0;
+  const wc1 = window ? Math.min(w - 1, window.colMax) : w - 1;
+  if (wr1 < wr0 || wc1 < wc0) return;
+  for (let row = wr0; row <= wr1; row++) lowest.fill(Number.NaN, row * w + wc0, row * w + wc1 + 1);
+  for (const r of radars) {
+    const l = r.lowestVisibleHeightAglM;
+    // Outside its extent a radar's lowest height is NaN, which changes nothing here.
+    const e = r.extent;
+    const r0 = Math.max(wr0, e ? e.rowMin : 0);
+    const r1 = Math.min(wr1, e ? e.rowMax : frame.height - 1);
+    const c0 = Math.max(wc0, e ? e.colMin : 0);
+    const c1 = Math.min(wc1, e ? e.colMax : w - 1);
+    for (let row = r0; row <= r1; row++) {
+      const end = row * w + c1;
+      for (let i = row * w + c0; i <= end; i++) {
+        const v = l[i];
+        // v < lowest, or lowest NaN, for a v that is not NaN.
+        if (!Number.isNaN(v) && !(v >= lowest[i])) lowest[i] = v;
+      }
+    }
+  }
 }

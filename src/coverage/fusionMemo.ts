@@ -6,8 +6,7 @@
  * rectangle before and after (integers: the result equals a full fusion value for value).
  */
 import type { RadarCoverage, RadarExtent } from "./coverage.ts";
-import { mergeLowestVisibleInto } from "./evaluate.ts";
-import { type FusedHeight, fuseHeight } from "./fusion.ts";
+import { type FusedHeight, fuseHeight, mergeLowestVisibleInto } from "./fusion.ts";
 import {
   addFusedCounts,
   type FusedCounts,
@@ -87,7 +86,7 @@ function spanOf(squares: readonly (RadarExtent | undefined)[]): RadarExtent | un
   return out ?? { rowMin: 0, rowMax: -1, colMin: 0, colMax: -1 };
 }
 
-function areaOf(e: RadarExtent, grid: MetricsGrid): number {
+function areaOf(e: RadarExtent, grid: { width: number; height: number }): number {
   const rows = Math.min(grid.height - 1, e.rowMax) - Math.max(0, e.rowMin) + 1;
   const cols = Math.min(grid.width - 1, e.colMax) - Math.max(0, e.colMin) + 1;
   return Math.max(0, rows) * Math.max(0, cols);
@@ -124,7 +123,7 @@ export class FusionMemo {
   clear(): void {
     this.slices.clear();
     this.states.clear();
-    this.kept_lowest = null;
+    this.keptLowest = null;
   }
 
   /** The cell states of `terrainId` at a height: kept, or computed by `compute` and kept. */
@@ -212,7 +211,7 @@ export class FusionMemo {
   }
 
   /** The lowest visible height last merged, with what it was merged from. */
-  private kept_lowest: {
+  private keptLowest: {
     context: string;
     radarKeys: string[];
     extents: (RadarExtent | undefined)[];
@@ -231,7 +230,7 @@ export class FusionMemo {
     radarKeys: readonly string[],
   ): Float32Array {
     const n = frame.width * frame.height;
-    const kept = this.kept_lowest;
+    const kept = this.keptLowest;
     const extents = radars.map((r) => r.extent);
     let window: RadarExtent | undefined;
     let full = true;
@@ -246,14 +245,12 @@ export class FusionMemo {
       if (changed.length === 0) return kept.lowest;
       if (changed.length <= this.maxChanged) {
         window = spanOf(changed.flatMap((r) => [kept.extents[r], extents[r]]));
-        full =
-          window === undefined ||
-          areaOf(window, { ...frame, originX: 0, originY: 0, cellSizeM: 1 }) > this.maxWindowShare * n;
+        full = window === undefined || areaOf(window, frame) > this.maxWindowShare * n;
       }
     }
     const lowest = kept !== null && kept.lowest.length === n ? kept.lowest : new Float32Array(n);
     mergeLowestVisibleInto(lowest, frame, radars, full ? undefined : window);
-    this.kept_lowest = {
+    this.keptLowest = {
       context: terrainId,
       radarKeys: [...radarKeys],
       extents: extents.map((e) => (e === undefined ? undefined : { ...e })),

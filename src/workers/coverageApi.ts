@@ -40,7 +40,7 @@ import type {
 } from "./protocol";
 import { focusKey, focusSite, mergesLowest, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
 import { cloneView, toCoverageView } from "./toView";
-import { WarmBuffers, writeThrough } from "./warmBuffers";
+import { newBuffer, WarmBuffers, writeThrough } from "./warmBuffers";
 
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
 const RADAR_CACHE_ENTRIES = 64;
@@ -271,16 +271,13 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
       else return;
     }
     const slices = site.targets.reduce((k, t) => k + t.heightsAglM.length, 0);
-    const f32 = new Float32Array(0);
-    const u8 = new Uint8Array(0);
-    // A Float32 copy per slice and one for the lowest visible height.
-    for (const [like, want] of [
-      [f32, slices + 1],
-      [u8, 2 * slices],
+    // A Float32 copy per slice and one for the lowest visible height; two bytes per slice.
+    for (const [kind, want] of [
+      ["f32", slices + 1],
+      ["u8", 2 * slices],
     ] as const) {
-      const sized = like instanceof Float32Array ? new Float32Array(n) : new Uint8Array(n);
-      while (warm.count(sized) < Math.min(want, warm.maxPerKind)) {
-        const a = like instanceof Float32Array ? new Float32Array(n) : new Uint8Array(n);
+      while (warm.count(kind, n) < Math.min(want, warm.maxPerKind)) {
+        const a = newBuffer(kind, n);
         if (!(await writeThrough([a], stop))) return;
         warm.put(a);
       }
@@ -398,7 +395,10 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   return {
     lastSite: () => prepared?.site ?? null,
     whenIdle: () => idleWork,
-    readyCounts: (like) => ({ spareRadars: cache.spareCount, arrays: warm.count(like) }),
+    readyCounts: (like) => ({
+      spareRadars: cache.spareCount,
+      arrays: warm.count(like instanceof Float32Array ? "f32" : "u8", like.length),
+    }),
     async supersede(generation: number) {
       newest = Math.max(newest, generation);
     },

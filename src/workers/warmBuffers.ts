@@ -9,9 +9,20 @@
 import { yieldToEventLoop } from "../coverage/evaluate";
 
 type Buffer = Float32Array | Uint8Array;
+/** The element types a pool holds. */
+export type BufferKind = "f32" | "u8";
+
+function keyOf(kind: BufferKind, length: number): string {
+  return `${kind}:${length}`;
+}
 
 function kindOf(a: Buffer): string {
-  return `${a instanceof Float32Array ? "f32" : "u8"}:${a.length}`;
+  return keyOf(a instanceof Float32Array ? "f32" : "u8", a.length);
+}
+
+/** A new array of this kind and length. */
+export function newBuffer(kind: BufferKind, length: number): Buffer {
+  return kind === "f32" ? new Float32Array(length) : new Uint8Array(length);
 }
 
 /** Typed arrays of given kinds and lengths, written through once, waiting to be taken. */
@@ -24,9 +35,9 @@ export class WarmBuffers {
     return this.pool.get(kindOf(like))?.pop() as T | undefined;
   }
 
-  /** Ready arrays of the kind and length of `like`. */
-  count(like: Buffer): number {
-    return this.pool.get(kindOf(like))?.length ?? 0;
+  /** Ready arrays of this kind and length. */
+  count(kind: BufferKind, length: number): number {
+    return this.pool.get(keyOf(kind, length))?.length ?? 0;
   }
 
   /** A copy of `a` in a ready array when there is one, else in a new one. */

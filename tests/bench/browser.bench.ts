@@ -8,13 +8,14 @@
  * Run: npx tsx tests/bench/browser.bench.ts (PICKET_BENCH_DRAG_STEP_MS=100 moves the pointer 10 times a
  * second; PICKET_BENCH_CELLS=1e6 runs one grid size only; PICKET_BENCH_DRAGS=n drags n times, default 4)
  */
-import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
+import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
 import type { Page } from "playwright-core";
 import type { Plan } from "../../src/io/planSchema";
 import { siteGridFrame } from "../../src/io/siteGrid";
-import { browserAvailable, ROOT, startHarness } from "../e2e/harness";
+import { browserAvailable, startHarness } from "../e2e/harness";
+import { scaledRidgePlan } from "./demoPlan";
 
 const DRAG_STEPS = 30;
 /** Drags of the post per grid size (back and forth): the first after opening also fills the caches. */
@@ -23,13 +24,7 @@ const DRAGS = Number(process.env.PICKET_BENCH_DRAGS ?? 4);
 const DRAG_STEP_MS = Number(process.env.PICKET_BENCH_DRAG_STEP_MS ?? 16);
 
 function scaledPlan(targetCells: number): Plan {
-  const plan = JSON.parse(readFileSync(join(ROOT, "demo-sites/ridge-waterworks/plan.json"), "utf8")) as Plan;
-  const g = siteGridFrame({ ...plan, analysis: { ...plan.analysis, cellSizeM: 10 } });
-  const areaM2 = g.frame.width * g.frame.height * 100;
-  const cell = Math.sqrt(areaM2 / targetCells);
-  plan.analysis = { ...plan.analysis, cellSizeM: Math.round(cell * 100) / 100 };
-  let enabled = 0;
-  plan.posts = plan.posts.map((p) => ({ ...p, enabled: enabled++ < 8 }));
+  const plan = scaledRidgePlan(targetCells);
   plan.site = { ...plan.site, name: `${plan.site.name} at ${(targetCells / 1e6).toFixed(0)} M cells` };
   return plan;
 }

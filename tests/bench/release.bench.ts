@@ -8,31 +8,19 @@
  */
 import { readFileSync } from "node:fs";
 import { join } from "node:path";
-import type { Plan } from "../../src/io/planSchema";
 import { siteGridFrame } from "../../src/io/siteGrid";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import type { EvaluateRequest } from "../../src/workers/protocol";
+import { RIDGE_DEMO, scaledRidgePlan } from "./demoPlan";
 import { msText } from "./stats";
 
-const DEMO = join(import.meta.dirname, "../../demo-sites/ridge-waterworks");
-
-function scaledPlan(targetCells: number): Plan {
-  const plan = JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")) as Plan;
-  const g = siteGridFrame({ ...plan, analysis: { ...plan.analysis, cellSizeM: 10 } });
-  const cell = Math.sqrt((g.frame.width * g.frame.height * 100) / targetCells);
-  plan.analysis = { ...plan.analysis, cellSizeM: Math.round(cell * 100) / 100 };
-  let enabled = 0;
-  plan.posts = plan.posts.map((p) => ({ ...p, enabled: enabled++ < 8 }));
-  return plan;
-}
-
 export async function run(moves = 12): Promise<void> {
-  const bytes = readFileSync(join(DEMO, "terrain.tif"));
+  const bytes = readFileSync(join(RIDGE_DEMO, "terrain.tif"));
   const dem = {
     fileName: "terrain.tif",
     bytes: bytes.buffer.slice(bytes.byteOffset, bytes.byteOffset + bytes.byteLength),
   };
-  const plan = scaledPlan(1e6);
+  const plan = scaledRidgePlan(1e6);
   const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
   const post = plan.posts.findIndex((p) => p.id === "south-gate");
   const g = siteGridFrame(plan);

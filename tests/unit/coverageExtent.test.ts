@@ -2,32 +2,9 @@ import { describe, expect, it } from "vitest";
 import { buildRadarKernel, kernelFor, type RadarCoverage, Reason } from "../../src/coverage/coverage.ts";
 import { computeRadarCoverage, evaluateSite, fuseSiteHeight } from "../../src/coverage/evaluate.ts";
 import { cellStatesAtHeight, fuseHeight } from "../../src/coverage/fusion.ts";
-import {
-  cellXY,
-  demoRadar,
-  fixedWing,
-  frameOf,
-  placed,
-  quad,
-  roughGround,
-  siteOf,
-} from "./coverageFixtures.ts";
+import { threeRadarSite } from "./coverageFixtures.ts";
 
-/** 2 km square: one rotating radar reaching every cell, two short-range staring radars that do not. */
-function site() {
-  const f = frameOf(400, 400, 5);
-  const m = demoRadar("mossbee-58");
-  return siteOf(
-    f,
-    roughGround(f),
-    [
-      placed(demoRadar("kalvori-x9"), cellXY(f, 200, 200), 160, { id: "k" }),
-      placed(m, cellXY(f, 60, 60), 150, { id: "nw", boresightAzDeg: 135, tiltDeg: -3 }),
-      placed(m, cellXY(f, 330, 300), 150, { id: "se", boresightAzDeg: 315, tiltDeg: -3 }),
-    ],
-    { targets: [quad, fixedWing] },
-  );
-}
+const site = () => threeRadarSite();
 
 /** Cells where two arrays differ (NaN equal to NaN); null arrays equal each other only. */
 function differences(a: ArrayLike<number> | null, b: ArrayLike<number> | null): number {

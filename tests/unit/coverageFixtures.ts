@@ -143,3 +143,25 @@ export function stageOf(
   });
   return { kernel, horizon };
 }
+
+/**
+ * 2 km square of 5 m cells on rough ground: one rotating radar reaching every cell (k), two
+ * short-range staring radars (nw, se, at the given cells) that do not; both demo classes.
+ */
+export function threeRadarSite(
+  nw: [number, number] = [60, 60],
+  se: [number, number] = [330, 300],
+): PreparedSite {
+  const f = frameOf(400, 400, 5);
+  const m = demoRadar("mossbee-58");
+  return siteOf(
+    f,
+    roughGround(f),
+    [
+      placed(demoRadar("kalvori-x9"), cellXY(f, 200, 200), 160, { id: "k" }),
+      placed(m, cellXY(f, nw[0], nw[1]), 150, { id: "nw", boresightAzDeg: 135, tiltDeg: -3 }),
+      placed(m, cellXY(f, se[0], se[1]), 150, { id: "se", boresightAzDeg: 315, tiltDeg: -3 }),
+    ],
+    { targets: [quad, fixedWing] },
+  );
+}

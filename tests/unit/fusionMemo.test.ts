@@ -9,35 +9,16 @@ import {
 import { cellStatesAtHeight } from "../../src/coverage/fusion.ts";
 import { FusionMemo, type MemoFusionInput } from "../../src/coverage/fusionMemo.ts";
 import { RadarResultCache } from "../../src/coverage/radarCache.ts";
-import {
-  cellXY,
-  demoRadar,
-  fixedWing,
-  frameOf,
-  placed,
-  quad,
-  roughGround,
-  siteOf,
-} from "./coverageFixtures.ts";
+import { threeRadarSite } from "./coverageFixtures.ts";
 
 /**
- * 2 km square: one rotating radar over every cell, two short-range staring radars; a protected disc
- * and an approach ring around it, so that every count of the metrics is exercised. `nw` and `se`
+ * The three-radar site (coverageFixtures.ts) with a protected disc and an approach ring around it,
+ * so that every count of the metrics is exercised. `nw` and `se`
  * move the staring radars (cells).
  */
 function site(nw: [number, number] = [60, 60], se: [number, number] = [330, 300]): PreparedSite {
-  const f = frameOf(400, 400, 5);
-  const m = demoRadar("mossbee-58");
-  const s = siteOf(
-    f,
-    roughGround(f),
-    [
-      placed(demoRadar("kalvori-x9"), cellXY(f, 200, 200), 160, { id: "k" }),
-      placed(m, cellXY(f, nw[0], nw[1]), 150, { id: "nw", boresightAzDeg: 135, tiltDeg: -3 }),
-      placed(m, cellXY(f, se[0], se[1]), 150, { id: "se", boresightAzDeg: 315, tiltDeg: -3 }),
-    ],
-    { targets: [quad, fixedWing] },
-  );
+  const s = threeRadarSite(nw, se);
+  const f = s.frame;
   const n = f.width * f.height;
   const pa = new Uint8Array(n);
   const ring = new Uint8Array(n);
