@@ -6,12 +6,14 @@
  *   - main thread: long tasks (> 50 ms) observed during the drag.
  * Then the same plan at about 16 million cells (refused or timed, as the engine decides).
  * Run: npx tsx tests/bench/browser.bench.ts (PICKET_BENCH_DRAG_STEP_MS=100 moves the pointer 10 times a
- * second; PICKET_BENCH_CELLS=1e6 runs one grid size only; PICKET_BENCH_DRAGS=n drags n times, default 4)
+ * second; PICKET_BENCH_CELLS=1e6 runs one grid size only; PICKET_BENCH_DRAGS=n drags n times, default 4;
+ * PICKET_BENCH_TRACE=DIR writes a Chrome trace of each release, page and workers, to DIR/release-N.json
+ * for chrome://tracing or the DevTools performance panel; PICKET_BENCH_TRACE_JS=1 adds JavaScript samples)
  */
 import { mkdtempSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
 import { join } from "node:path";
-import type { Page } from "playwright-core";
+import type { CDPSession, Page } from "playwright-core";
 import type { Plan } from "../../src/io/planSchema";
 import { siteGridFrame } from "../../src/io/siteGrid";
 import { browserAvailable, startHarness } from "../e2e/harness";
@@ -22,6 +24,45 @@ const DRAG_STEPS = 30;
 const DRAGS = Number(process.env.PICKET_BENCH_DRAGS ?? 4);
 /** Pointer moves every this many ms: 16 ms is a 60 Hz pointer, as mice and touchpads report. */
 const DRAG_STEP_MS = Number(process.env.PICKET_BENCH_DRAG_STEP_MS ?? 16);
+/** Where the traces of the releases go (unset: none taken; tracing slows the page a little). */
+const TRACE_DIR = process.env.PICKET_BENCH_TRACE;
+
+/** Starts a Chrome trace of the page and its workers (CDP Tracing: main thread, workers, V8). */
+async function startTrace(page: Page): Promise<CDPSession> {
+  const cdp = await page.context().newCDPSession(page);
+  await cdp.send("Tracing.start", {
+    transferMode: "ReturnAsStream",
+    traceConfig: {
+      includedCategories: [
+        "devtools.timeline",
+        "disabled-by-default-devtools.timeline",
+        "v8.execute",
+        "toplevel",
+        // JavaScript samples of every thread: names the functions, but slows the page about 1.5×.
+        ...(process.env.PICKET_BENCH_TRACE_JS ? ["disabled-by-default-v8.cpu_profiler"] : []),
+      ],
+    },
+  });
+  return cdp;
+}
+
+/** Ends the trace and writes it to `file` as JSON. */
+async function endTrace(cdp: CDPSession, file: string): Promise<void> {
+  const done = new Promise<string>((resolve) =>
+    cdp.once("Tracing.tracingComplete", (e) => resolve(e.stream ?? "")),
+  );
+  await cdp.send("Tracing.end");
+  const handle = await done;
+  let text = "";
+  for (;;) {
+    const chunk = await cdp.send("IO.read", { handle });
+    text += chunk.base64Encoded ? Buffer.from(chunk.data, "base64").toString("utf8") : chunk.data;
+    if (chunk.eof) break;
+  }
+  await cdp.send("IO.close", { handle });
+  await cdp.detach();
+  writeFileSync(file, text);
+}
 
 function scaledPlan(targetCells: number): Plan {
   const plan = scaledRidgePlan(targetCells);
@@ -87,7 +128,7 @@ function groundPostName(plan: Plan): string {
  * Drags the post by DRAG_STEPS small moves, `direction` 1 to the east and -1 back west (so two drags
  * return it near its start and the grid frame, which the posts' positions bound, stays the same).
  */
-async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
+async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFile?: string) {
   await page.evaluate(() => {
     const w = window as unknown as {
       __long: { ms: number; at: number }[];
@@ -144,6 +185,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
   }
   const dragS = (Date.now() - tDrag) / 1000;
   const updates = await page.evaluate(() => (window as unknown as { __gens: number[] }).__gens.length);
+  const trace = traceFile ? await startTrace(page) : null;
   const tUp = await page.evaluate(() => performance.now());
   await page.mouse.up();
   await page.waitForFunction(
@@ -159,6 +201,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1) {
     tUp,
     { timeout: 120_000 },
   );
+  if (trace && traceFile) await endTrace(trace, traceFile);
   // The shown slice lands first (accurate), the other slices a moment later.
   const [firstMs, releaseMs] = await page.evaluate((t) => {
     const w = window as unknown as { __accurate: number[]; __complete: number[] };
@@ -214,7 +257,9 @@ async function main() {
       if (!/Computed in/.test(st)) continue;
       const name = groundPostName(plan);
       for (let run = 1; run <= DRAGS; run++) {
-        const d = await dragOnce(page, name, run % 2 === 1 ? 1 : -1);
+        const traceFile = TRACE_DIR ? join(TRACE_DIR, `release-${run}.json`) : undefined;
+        const d = await dragOnce(page, name, run % 2 === 1 ? 1 : -1, traceFile);
+        if (traceFile) console.log(`    trace of the release: ${traceFile}`);
         const over = d.longTasks.filter((t) => t.ms > 50);
         console.log(
           `  drag ${run} of "${name}": preview ${d.updatesPerS.toFixed(1)} updates/s (target ≥ 10 on 1 M cells)`,
