@@ -25,6 +25,7 @@ const exposed: CoverageApi = {
   point: (req) => api.point(req),
   crashForTest: () => api.crashForTest(),
   supersede: (generation) => api.supersede(generation),
+  settled: () => api.settled(),
 };
 
 Comlink.expose(exposed);

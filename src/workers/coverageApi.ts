@@ -28,6 +28,7 @@ import { type GapShapesXY, gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planKeyWithoutPlacement, previewSite } from "./preview";
 import { terrainProfile } from "./profile";
+import { throttleProgress } from "./progressThrottle";
 import type {
   CoverageApi,
   CoverageView,
@@ -142,7 +143,7 @@ export interface CoverageApiOptions {
 /** What createCoverageApi gives besides the API: for the worker entry and for tests. */
 export interface CoverageApiInternals {
   lastSite(): PreparedSite | null;
-  /** Resolves once the idle work started after the last run is done (or stopped by a new run). */
+  /** Resolves once the idle work started by the last `settled()` is done (or stopped by a new run). */
   whenIdle(): Promise<void>;
   /** Spare radar results of the accurate cache and ready arrays like `like`, for tests. */
   readyCounts(like: Float32Array): { spareRadars: number; arrays: number };
@@ -244,9 +245,14 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   /** The newest generation this worker was told of; older runs stop at their next check. */
   let newest = 0;
 
-  /** Runs in progress (idle work stops when one starts) and the idle work last started. */
-  let running = 0;
+  /**
+   * Accurate runs in progress, and the idle work last started. Idle work stops for these only: a drag's previews (fast masking) run
+   * between its arrays, so that the memory is ready when the drag ends however soon it ends.
+   */
+  let runningAccurate = 0;
   let idleWork: Promise<void> = Promise.resolve();
+  /** The site of the last accurate run, whose shapes the idle work prepares once the page settles. */
+  let lastAccurate: PreparedSite | null = null;
   const warm = new WarmBuffers();
 
   /**
@@ -254,7 +260,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
    * ready copies of its fused slices, so that the next release writes into memory already faulted in.
    */
   const prepareWhileIdle = async (site: PreparedSite): Promise<void> => {
-    const stop = () => running > 0;
+    const stop = () => runningAccurate > 0;
     const n = site.frame.width * site.frame.height;
     if (n > WARM_MAX_CELLS) return;
     if (cache.spareCount === 0 && site.radars.length > 0) {
@@ -366,7 +372,8 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
         withTerrain,
         perRadarPostId: req.perRadarPostId ?? null,
       }),
-      (a) => warm.copy(a),
+      // A preview copies into new memory: the ready arrays are kept for the release that follows.
+      (a) => (site.maskMode === "fast" ? (a.slice() as typeof a) : warm.copy(a)),
     );
     if (req.sliceFirst && sub !== full) view.partial = true;
     if (full !== whole) {
@@ -403,21 +410,25 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
       newest = Math.max(newest, generation);
     },
     async evaluate(req: EvaluateRequest, onProgress?: ProgressListener): Promise<CoverageView> {
-      running++;
+      const accurate = req.maskMode !== "fast";
+      if (accurate) runningAccurate++;
       let site: PreparedSite | null = null;
       try {
-        const view = await evaluateRun(req, onProgress, (s) => {
+        const view = await evaluateRun(req, throttleProgress(onProgress), (s) => {
           site = s;
         });
         return view;
       } finally {
-        running--;
+        if (accurate) runningAccurate--;
         const done = site as PreparedSite | null;
-        if (options.warmWhenIdle && running === 0 && done !== null && done.maskMode !== "fast") {
-          const previous = idleWork;
-          idleWork = previous.then(() => (running === 0 ? prepareWhileIdle(done) : undefined));
-        }
+        if (done !== null && done.maskMode !== "fast") lastAccurate = done;
       }
+    },
+    async settled() {
+      const done = lastAccurate;
+      if (!options.warmWhenIdle || runningAccurate > 0 || done === null) return;
+      const previous = idleWork;
+      idleWork = previous.then(() => (runningAccurate === 0 ? prepareWhileIdle(done) : undefined));
     },
     async point(req: PointRequest): Promise<PointReply> {
       if (!(Number.isFinite(req.lonDeg) && Number.isFinite(req.latDeg)))

@@ -93,6 +93,22 @@ export class WorkerPool<Api extends object> {
     return this.slots.length;
   }
 
+  /**
+   * Calls `f` with every worker's remote (or the inline API), outside the job queue: for notices that
+   * need no reply and must not wait behind jobs.
+   */
+  notifyAll(f: (api: Comlink.Remote<Api> | Api) => Promise<unknown> | unknown): void {
+    const targets: (Comlink.Remote<Api> | Api)[] =
+      this.options.size === 0 ? [this.options.inline as Api] : this.slots.map((s) => s.remote);
+    for (const t of targets) {
+      try {
+        void Promise.resolve(f(t)).catch(() => undefined);
+      } catch {
+        // A notice to a worker that cannot take it (closed, being replaced) is dropped.
+      }
+    }
+  }
+
   /** The newest generation submitted on a channel (0 when none). */
   latestGeneration(channel: string): number {
     return this.latest.get(channel) ?? 0;

@@ -194,6 +194,12 @@ export interface CoverageApi {
    * with a CancelledError instead of finishing work nobody will see.
    */
   supersede(generation: number): Promise<void>;
+  /**
+   * The page's run is complete (every part and step landed): the worker may now use its idle time to
+   * prepare memory for the next release (CoverageApiOptions.warmWhenIdle). Started any earlier, between
+   * the steps of a release, that work would take a core from the other worker's part of it.
+   */
+  settled(): Promise<void>;
 }
 
 /** The arrays of a view, for a transfer list. */

@@ -62,7 +62,8 @@ export async function run(moves = 12): Promise<void> {
         });
         b = performance.now() - t;
       }
-      // The worker's idle time between a release and the next drag.
+      // The worker's idle time between a release and the next drag (the page says when it settled).
+      await api.settled();
       await api.whenIdle();
       if (m === 0) continue;
       first.push(a);

@@ -223,6 +223,10 @@ describe("coverage API runs", () => {
     const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
     const api = createCoverageApi({ warmWhenIdle: true });
     const first = await api.evaluate(request(plan, { part: { index: 1, count: 2 } }));
+    // Nothing is prepared between the steps of a run: only once the page says the run settled.
+    await api.whenIdle();
+    expect(api.readyCounts(first.slices[0].combinedPd)).toEqual({ spareRadars: 0, arrays: 0 });
+    await api.settled();
     await api.whenIdle();
     const like = first.slices[0].combinedPd;
     // One spare radar, and a ready Float32 array for each of the part's three slices and one for
@@ -235,6 +239,7 @@ describe("coverage API runs", () => {
     // idle again, the worker prepares new ones.
     expect(release.lowestVisibleAglM.length).toBeGreaterThan(0);
     expect(api.readyCounts(like)).toEqual({ spareRadars: 0, arrays: 0 });
+    await api.settled();
     await api.whenIdle();
     expect(api.readyCounts(like)).toEqual({ spareRadars: 1, arrays: 4 });
     const fresh = await createCoverageApi().evaluate(

@@ -101,6 +101,34 @@ describe("worker pool", () => {
     pool.close();
   });
 
+  it("notifies every worker outside the job queue, and drops a notice that fails", async () => {
+    const pool = new WorkerPool<Api>({ size: 2, createWorker: () => new FakeWorker() as unknown as Worker });
+    // Worker 0 is busy for a while; a notice reaches it at once, not after its job.
+    let busyDone = false;
+    const busy = pool.run("x", 1, "echo", [1, 1000], { slot: 0 }).finally(() => {
+      busyDone = true;
+    });
+    const heard: number[] = [];
+    pool.notifyAll(async (api) => {
+      heard.push(await api.whoami());
+    });
+    pool.notifyAll(() => {
+      throw new Error("a worker being replaced");
+    });
+    pool.notifyAll(() => Promise.reject(new Error("closed")));
+    await expect.poll(() => heard.length).toBe(2);
+    expect(busyDone).toBe(false);
+    expect(new Set(heard).size).toBe(2);
+    await expect(busy).resolves.toBe(1);
+    pool.close();
+    const inline = new WorkerPool<Api>({ size: 0, inline: makeApi(7) });
+    const alone: number[] = [];
+    inline.notifyAll(async (api) => {
+      alone.push(await api.whoami());
+    });
+    await expect.poll(() => alone).toEqual([7]);
+  });
+
   it("replaces a crashed worker, rejects its job by name and tells the user", async () => {
     const { workers, createWorker } = recordedWorkers();
     const told: string[] = [];

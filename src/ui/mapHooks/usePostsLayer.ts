@@ -10,7 +10,7 @@ import { radarModelOfPost } from "../../io/planValidation";
 import type L from "../../map/leaflet";
 import { PostsLayer, type PostView } from "../../map/postsLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
-import { runEvaluation } from "../engine";
+import { evaluateScheduledNow, runEvaluation } from "../engine";
 import { updatePost } from "../planEdits";
 import { roofUnder } from "../roofs";
 import { say, useSession } from "../session";
@@ -124,6 +124,7 @@ export function usePostsLayer(map: L.Map | null): void {
               .getState()
               .change((p) => updatePost(p, id, { position: { lonDeg, latDeg } }), "move post");
           }
+          evaluateScheduledNow();
         },
         onBoresight: (id, azDeg, done) => {
           const plan = usePlanStore.getState().plan;
@@ -132,6 +133,7 @@ export function usePostsLayer(map: L.Map | null): void {
           if (done) {
             previewRef.current = null;
             usePlanStore.getState().change((p) => updatePost(p, id, { boresightAzDeg: az }), "turn post");
+            evaluateScheduledNow();
           } else {
             const post = plan.posts.find((p) => p.id === id);
             if (!post) return;
