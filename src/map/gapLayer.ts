@@ -50,11 +50,12 @@ export class GapLayer extends L.LayerGroup {
     // The gap raster is the index raster (see hatchTable); set again unchanged, it is not repainted.
     this.hatch.setPaint({ frame, forward, indices: gap, table: this.table, pattern: "hatch" });
     if (!shapes) return;
-    for (const rings of shapes.outlines) {
+    // All outlines as one multipolygon: one SVG path for the map to add, lay out and remove instead
+    // of one per gap (hundreds on a large site).
+    if (shapes.outlines.length > 0)
       this.outlines.addLayer(
-        L.polygon(rings, { color: "#140a0a", weight: 1.5, fill: false, interactive: false }),
+        L.polygon(shapes.outlines, { color: "#140a0a", weight: 1.5, fill: false, interactive: false }),
       );
-    }
     for (const label of shapes.labels.slice(0, LABELLED_GAPS)) {
       const el = document.createElement("span");
       el.textContent = formatAreaM2(label.areaM2);

@@ -69,6 +69,13 @@ export class PostsLayer extends L.LayerGroup {
   private display: PostsDisplay = { showSectors: true, showExposure: false };
   private readonly outlines = L.layerGroup();
   private readonly marks = L.layerGroup();
+  /** The selected post's boresight line and handle, drawn again on every rebuild. */
+  private readonly pointer = L.layerGroup();
+  /**
+   * Each post's marker with what its icon shows: a rebuild keeps a marker whose icon is unchanged
+   * (only moving it), so a plan change (a post released after a drag) does not replace every marker.
+   */
+  private readonly markers = new Map<string, { marker: L.Marker; look: string }>();
   private mapRef: L.Map | null = null;
   private dragging = false;
   private readonly onZoom = () => this.rebuild();
@@ -78,6 +85,7 @@ export class PostsLayer extends L.LayerGroup {
     this.cb = cb;
     this.addLayer(this.outlines);
     this.addLayer(this.marks);
+    this.addLayer(this.pointer);
   }
 
   override onAdd(map: L.Map): this {
@@ -178,33 +186,25 @@ export class PostsLayer extends L.LayerGroup {
 
   private rebuild(): void {
     this.rebuildOutlines();
-    this.marks.clearLayers();
+    this.pointer.clearLayers();
     const labelled = this.labelled();
+    const present = new Set(this.posts.map((p) => p.id));
+    for (const [id, m] of this.markers) {
+      if (present.has(id)) continue;
+      this.marks.removeLayer(m.marker);
+      this.markers.delete(id);
+    }
     for (const p of this.posts) {
       const selected = p.id === this.selectedId;
-      const marker = L.marker([p.latDeg, p.lonDeg], {
-        icon: postIcon(p, selected, labelled.has(p.id)),
-        draggable: true,
-        keyboard: true,
-        title: `${p.name}: drag to move`,
-        alt: p.name,
-        zIndexOffset: selected ? 1000 : 0,
-      });
-      marker.on("click", () => this.cb.onSelect(p.id));
-      marker.on("dragstart", () => {
-        this.dragging = true;
-        this.cb.onSelect(p.id);
-      });
-      marker.on("drag", () => {
-        const ll = marker.getLatLng();
-        this.cb.onDrag(p.id, ll.lng, ll.lat);
-      });
-      marker.on("dragend", () => {
-        this.dragging = false;
-        const ll = marker.getLatLng();
-        this.cb.onDragEnd(p.id, ll.lng, ll.lat);
-      });
-      this.marks.addLayer(marker);
+      const look = JSON.stringify([p.name, p.enabled, selected, labelled.has(p.id)]);
+      const kept = this.markers.get(p.id);
+      if (kept?.look === look) {
+        const ll = kept.marker.getLatLng();
+        if (ll.lat !== p.latDeg || ll.lng !== p.lonDeg) kept.marker.setLatLng([p.latDeg, p.lonDeg]);
+      } else {
+        if (kept) this.marks.removeLayer(kept.marker);
+        this.markers.set(p.id, { marker: this.newMarker(p, selected, labelled.has(p.id)), look });
+      }
       if (!selected) continue;
       const d = this.handleDistanceM(p);
       const tip = destinationLatLng(p.lonDeg, p.latDeg, p.boresightAzDeg, d);
@@ -234,8 +234,35 @@ export class PostsLayer extends L.LayerGroup {
         this.dragging = false;
         this.cb.onBoresight(p.id, az(), true);
       });
-      this.marks.addLayer(line);
-      this.marks.addLayer(handle);
+      this.pointer.addLayer(line);
+      this.pointer.addLayer(handle);
     }
+  }
+
+  private newMarker(p: PostView, selected: boolean, withLabel: boolean): L.Marker {
+    const marker = L.marker([p.latDeg, p.lonDeg], {
+      icon: postIcon(p, selected, withLabel),
+      draggable: true,
+      keyboard: true,
+      title: `${p.name}: drag to move`,
+      alt: p.name,
+      zIndexOffset: selected ? 1000 : 0,
+    });
+    marker.on("click", () => this.cb.onSelect(p.id));
+    marker.on("dragstart", () => {
+      this.dragging = true;
+      this.cb.onSelect(p.id);
+    });
+    marker.on("drag", () => {
+      const ll = marker.getLatLng();
+      this.cb.onDrag(p.id, ll.lng, ll.lat);
+    });
+    marker.on("dragend", () => {
+      this.dragging = false;
+      const ll = marker.getLatLng();
+      this.cb.onDragEnd(p.id, ll.lng, ll.lat);
+    });
+    this.marks.addLayer(marker);
+    return marker;
   }
 }

@@ -134,13 +134,32 @@ export class RasterLayer extends L.GridLayer {
     const paint = this.paint;
     if (!paint) return;
     const cells = this.cellIndices(coords, paint, n);
-    const image = ctx.createImageData(n, n);
-    renderTilePixels(image.data, cells, paint, coords.x * n, coords.y * n, n);
-    ctx.putImageData(image, 0, 0);
+    // One pixel buffer per layer, rewritten whole for each tile: a new ImageData per tile is 256 kB
+    // to allocate, zero and collect again, dozens of times per repaint.
+    if (this.image?.width !== n) this.image = ctx.createImageData(n, n);
+    renderTilePixels(this.image.data, cells, paint, coords.x * n, coords.y * n, n);
+    ctx.putImageData(this.image, 0, 0);
   }
+
+  private image: ImageData | null = null;
 }
 
-/** Fills RGBA `out` for one tile from its cell indices; exported for tests. */
+/** The colour table as one 32-bit word per entry (the four RGBA bytes in memory order). */
+const tableWords = new WeakMap<ColourTable, Uint32Array>();
+function wordsOf(table: ColourTable): Uint32Array {
+  let w = tableWords.get(table);
+  if (!w) {
+    const bytes = table.byteOffset % 4 === 0 ? table : table.slice();
+    w = new Uint32Array(bytes.buffer, bytes.byteOffset, TABLE_SIZE);
+    tableWords.set(table, w);
+  }
+  return w;
+}
+
+/**
+ * Fills RGBA `out` for one tile from its cell indices, every pixel (transparent where no cell or no
+ * colour is drawn), so one buffer serves tile after tile; exported for tests.
+ */
 export function renderTilePixels(
   out: Uint8ClampedArray,
   cells: Int32Array,
@@ -149,22 +168,23 @@ export function renderTilePixels(
   originPy: number,
   sizePx: number,
 ): void {
-  const { indices, table } = paint;
+  const { indices } = paint;
+  const table = wordsOf(paint.table);
+  const words = new Uint32Array(out.buffer, out.byteOffset, sizePx * sizePx);
   const hatch = paint.pattern === "hatch";
+  const tableSize = TABLE_SIZE;
   for (let py = 0; py < sizePx; py++) {
     for (let px = 0; px < sizePx; px++) {
       const p = py * sizePx + px;
       const cell = cells[p];
-      if (cell < 0) continue;
-      const k = indices[cell];
-      if (k < 0 || k >= TABLE_SIZE) continue;
-      if (hatch && (originPx + px + originPy + py) % HATCH_PERIOD_PX >= HATCH_WIDTH_PX) continue;
-      const o = p * 4;
-      const t = k * 4;
-      out[o] = table[t];
-      out[o + 1] = table[t + 1];
-      out[o + 2] = table[t + 2];
-      out[o + 3] = table[t + 3];
+      const k = cell < 0 ? -1 : indices[cell];
+      if (
+        k < 0 ||
+        k >= tableSize ||
+        (hatch && (originPx + px + originPy + py) % HATCH_PERIOD_PX >= HATCH_WIDTH_PX)
+      )
+        words[p] = 0;
+      else words[p] = table[k];
     }
   }
 }

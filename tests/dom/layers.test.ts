@@ -4,6 +4,7 @@ import { contours } from "d3-contour";
 import { describe, expect, it } from "vitest";
 import type { Grid, GridFrame } from "../../src/coverage/grid";
 import { GapLayer } from "../../src/map/gapLayer";
+import L from "../../src/map/leaflet";
 import { hillshadeIndices, hillshadeIndicesInSlices } from "../../src/map/hillshade";
 import { forwardTo } from "../../src/map/pixelToGrid";
 import { RasterLayer } from "../../src/map/rasterLayer";
@@ -226,5 +227,31 @@ describe("repaints", () => {
     expect(queued()).toBe(0);
     gaps.setGaps(frame, forward, gap.slice(), null);
     expect(queued()).toBe(1);
+  });
+
+  it("draws every gap outline in one multipolygon, with a label per gap", () => {
+    const gaps = new GapLayer();
+    const frame = { crs: "EPSG:32632", originX: 0, originY: 100, cellSizeM: 10, width: 10, height: 10 };
+    const square = (lat: number): [number, number][] => [
+      [lat, 8],
+      [lat, 8.001],
+      [lat + 0.001, 8.001],
+      [lat + 0.001, 8],
+    ];
+    const shapes = {
+      outlines: [[square(47)], [square(47.01), square(47.0102)], [square(47.02)]],
+      labels: [
+        { at: [47.0005, 8.0005] as [number, number], areaM2: 800 },
+        { at: [47.0105, 8.0005] as [number, number], areaM2: 300 },
+      ],
+    };
+    gaps.setGaps(frame, forwardTo(frame.crs), new Uint8Array(100), shapes);
+    const layers = (gaps as unknown as { outlines: L.LayerGroup }).outlines.getLayers();
+    const polygons = layers.filter((l): l is L.Polygon => l instanceof L.Polygon);
+    expect(polygons).toHaveLength(1);
+    // Three gaps, the second with a hole: a multipolygon of three polygons of 1, 2 and 1 rings.
+    const rings = polygons[0].getLatLngs() as L.LatLng[][][];
+    expect(rings.map((p) => p.length)).toEqual([1, 2, 1]);
+    expect(layers.filter((l) => l instanceof L.Marker)).toHaveLength(2);
   });
 });

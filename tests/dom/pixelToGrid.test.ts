@@ -116,5 +116,26 @@ describe("pixel to grid mapping", () => {
     let painted = 0;
     for (let p = 0; p < 64; p++) if (hatch[p * 4 + 3] > 0) painted++;
     expect(painted).toBe(16); // 2 of every 8 diagonals
+    // The layer reuses one buffer tile after tile: every pixel is written, stale colour included.
+    const reused = new Uint8ClampedArray(16).fill(200);
+    renderTilePixels(
+      reused,
+      cells,
+      { frame: f, forward: forwardTo(f.crs), indices, table, pattern: "fill" },
+      0,
+      0,
+      2,
+    );
+    expect(Array.from(reused)).toEqual(Array.from(out));
+    const stripes = new Uint8ClampedArray(8 * 8 * 4).fill(77);
+    renderTilePixels(
+      stripes,
+      all,
+      { frame: f, forward: forwardTo(f.crs), indices, table, pattern: "hatch" },
+      0,
+      0,
+      8,
+    );
+    expect(Array.from(stripes)).toEqual(Array.from(hatch));
   });
 });

@@ -1,0 +1,65 @@
+// @vitest-environment jsdom
+import { describe, expect, it } from "vitest";
+import L from "../../src/map/leaflet";
+import { PostsLayer, type PostView } from "../../src/map/postsLayer";
+
+function post(id: string, lonDeg: number, latDeg: number, name = id): PostView {
+  return {
+    id,
+    name,
+    lonDeg,
+    latDeg,
+    boresightAzDeg: 90,
+    enabled: true,
+    sectorWidthDeg: 120,
+    sectorCentreAzDeg: 90,
+    maxRangeM: 500,
+    exposureDistanceM: 3,
+  };
+}
+
+function mapOnPage(): L.Map {
+  const el = document.createElement("div");
+  Object.defineProperty(el, "clientWidth", { value: 800 });
+  Object.defineProperty(el, "clientHeight", { value: 600 });
+  document.body.appendChild(el);
+  return L.map(el, { center: [47.0, 8.0], zoom: 15, zoomAnimation: false, fadeAnimation: false });
+}
+
+const noop = () => undefined;
+const callbacks = { onSelect: noop, onDrag: noop, onDragEnd: noop, onBoresight: noop };
+const display = { showSectors: true, showExposure: false };
+
+/** The marker element of each post, by the name in its title. */
+function markerElements(map: L.Map): Map<string, Element> {
+  const out = new Map<string, Element>();
+  for (const el of map.getContainer().querySelectorAll(".post-icon"))
+    out.set((el.getAttribute("title") ?? "").replace(/: drag to move$/, ""), el);
+  return out;
+}
+
+describe("posts layer", () => {
+  it("keeps the markers whose look did not change when the posts change, and moves them", () => {
+    const map = mapOnPage();
+    const layer = new PostsLayer(callbacks);
+    layer.addTo(map);
+    layer.setPosts([post("a", 8.0, 47.0), post("b", 8.002, 47.001)], "a", display);
+    const before = markerElements(map);
+    expect([...before.keys()].sort()).toEqual(["a", "b"]);
+    // Post b moved (a release after a drag): both markers stay the same elements, b at its new place.
+    layer.setPosts([post("a", 8.0, 47.0), post("b", 8.003, 47.001)], "a", display);
+    const moved = markerElements(map);
+    expect(moved.get("a")).toBe(before.get("a"));
+    expect(moved.get("b")).toBe(before.get("b"));
+    const ll = map.layerPointToLatLng(L.DomUtil.getPosition(moved.get("b") as HTMLElement));
+    expect(ll.lng).toBeCloseTo(8.003, 4); // to the pixel at zoom 15
+    // A renamed post gets a new marker; a post taken away loses its marker; the others stay.
+    layer.setPosts([post("a", 8.0, 47.0, "a2")], "a", display);
+    const renamed = markerElements(map);
+    expect([...renamed.keys()]).toEqual(["a2"]);
+    expect(renamed.get("a2")).not.toBe(before.get("a"));
+    // The selected post keeps one boresight handle, however often the layer is rebuilt.
+    expect(map.getContainer().querySelectorAll(".boresight-handle").length).toBe(1);
+    map.remove();
+  });
+});
