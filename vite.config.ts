@@ -13,7 +13,8 @@ export default defineConfig({
     ],
   },
   worker: { format: "es" },
-  build: { target: "es2022", sourcemap: true },
+  // PICKET_NO_MINIFY=1 keeps the functions' names in the bundle, for the browser bench's traces.
+  build: { target: "es2022", sourcemap: true, minify: !process.env.PICKET_NO_MINIFY },
   // `npm start` opens the planner in the default browser; set BROWSER=none (or run under CI) to stay quiet.
   server: { host: "127.0.0.1", port: 5173, open: !process.env.CI },
   test: {

@@ -53,10 +53,12 @@ export async function bootstrap(): Promise<void> {
   useAssets.subscribe((s, prev) => {
     if (s.dem !== prev.dem) scheduleEvaluation();
   });
-  // The single-radar layer needs that radar's arrays (from the worker's cache: no recomputation).
+  // The single-radar layer needs that radar's arrays, the lowest-height layer its merge over the
+  // radars (runs merge it only while it is shown): from the worker's cache, no radar recomputed.
   useSession.subscribe((s, prev) => {
     if (s.layer === "single" && (prev.layer !== "single" || s.singlePostId !== prev.singlePostId))
       scheduleEvaluation();
+    if (s.layer === "lowest" && prev.layer !== "lowest") scheduleEvaluation();
   });
   window.addEventListener("keydown", (e) => {
     if (!(e.ctrlKey || e.metaKey) || isTyping(e.target)) return;

@@ -170,6 +170,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     ...focus,
     ...(!options.preview && focus.focus ? { sliceFirst: true } : {}),
     lowestShown: useSession.getState().layer === "lowest",
+    skipLowest: useSession.getState().layer !== "lowest",
     ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
   };
   useCoverage.getState().set({ running: true, generation: g });

@@ -308,9 +308,10 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     const sub = site.maskMode === "fast" || !req.focus ? full : releaseStepSite(full, req.focus, req);
     // See EvaluateRequest.lowestShown: which step of a run merges the lowest visible height.
     const lowestVisible =
-      whole.maskMode === "fast" || sub === full
+      req.skipLowest !== true &&
+      (whole.maskMode === "fast" || sub === full
         ? mergesLowest(whole, { ...req, sliceFirst: false, shownSliceHeld: false })
-        : mergesLowest(whole, req);
+        : mergesLowest(whole, req));
     if (sub !== full) {
       const mode = full.maskMode;
       const terrainId = siteTerrainId(full);

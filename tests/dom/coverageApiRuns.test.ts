@@ -91,6 +91,25 @@ describe("coverage API runs", () => {
     expect(shownRest.lowestVisibleAglM.length).toBe(0);
   });
 
+  it("merges no lowest visible height while the page does not show it, and merges it from the cache when asked", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    const reference = await createCoverageApi().evaluate(request(plan, { focus }));
+    const api = createCoverageApi();
+    for (let index = 0; index < 2; index++) {
+      const req = request(plan, { focus, skipLowest: true, part: { index, count: 2 } });
+      const first = await api.evaluate({ ...req, sliceFirst: true });
+      const rest = first.partial ? await api.evaluate({ ...req, shownSliceHeld: true }) : null;
+      expect([first, rest].map((v) => v?.lowestVisibleAglM.length ?? 0)).toEqual([0, 0]);
+    }
+    // The layer is shown: one run, every radar from the cache, brings it.
+    const shown = await api.evaluate(
+      request(plan, { focus, lowestShown: true, part: { index: 0, count: 2 } }),
+    );
+    expect(shown.computedRadarIds).toEqual([]);
+    expect(Array.from(shown.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
+  });
+
   it("a run split in parts over two workers, put together, equals the whole run", async () => {
     const plan = demoPlan();
     const post = plan.posts.find((p) => p.enabled);
