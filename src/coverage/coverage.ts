@@ -452,6 +452,17 @@ function fitsShape(r: RadarCoverage, input: RadarShapeInput, n: number): boolean
   );
 }
 
+/**
+ * Where the stage writes a class at a height the class is not judged at (its values are never read):
+ * kept for the next call in this thread, as a part of a run split over workers has such pairs in every
+ * call and 5 bytes per cell of new memory cost their first write and a collection each time.
+ */
+let sinkArrays: { pd: Float32Array; reason: Uint8Array } | null = null;
+function stageSink(n: number): { pd: Float32Array; reason: Uint8Array } {
+  if (sinkArrays?.pd.length !== n) sinkArrays = { pd: new Float32Array(n), reason: new Uint8Array(n) };
+  return sinkArrays;
+}
+
 /** Mark [from, to) as outside the radar's range in every output. */
 function fillOutside(
   from: number,
@@ -883,15 +894,12 @@ export function radarCoverageFromHorizon(
   const snrOut: Float32Array[] = out.heights.map((hc) => hc.snrDbAt0Dbsm);
   const pdOut: Float32Array[] = [];
   const reasonOut: Uint8Array[] = [];
-  let scratchPd: Float32Array | null = null;
-  let scratchReason: Uint8Array | null = null;
   for (const hc of out.heights)
     for (const tc of hc.targets) {
       if (tc.pd === null || tc.reason === null) {
-        scratchPd ??= new Float32Array(n);
-        scratchReason ??= new Uint8Array(n);
-        pdOut.push(scratchPd);
-        reasonOut.push(scratchReason);
+        const sink = stageSink(n);
+        pdOut.push(sink.pd);
+        reasonOut.push(sink.reason);
       } else {
         pdOut.push(tc.pd);
         reasonOut.push(tc.reason);

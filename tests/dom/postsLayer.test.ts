@@ -58,8 +58,18 @@ describe("posts layer", () => {
     const renamed = markerElements(map);
     expect([...renamed.keys()]).toEqual(["a2"]);
     expect(renamed.get("a2")).not.toBe(before.get("a"));
-    // The selected post keeps one boresight handle, however often the layer is rebuilt.
+    // The selected post keeps one boresight handle, however often the layer is rebuilt, and the
+    // handle follows the selection.
     expect(map.getContainer().querySelectorAll(".boresight-handle").length).toBe(1);
+    const two = [post("a", 8.0, 47.0), post("b", 8.003, 47.001)];
+    layer.setPosts(two, "a", display);
+    layer.setPosts(two, "b", display);
+    const handles = map.getContainer().querySelectorAll(".boresight-icon");
+    expect(handles.length).toBe(1);
+    const at = map.layerPointToLatLng(L.DomUtil.getPosition(handles[0] as HTMLElement));
+    // Boresight 90°: the handle lies east of b, at b's latitude.
+    expect(at.lat).toBeCloseTo(47.001, 3);
+    expect(at.lng).toBeGreaterThan(8.003);
     map.remove();
   });
 });
