@@ -18,7 +18,7 @@ import type {
   PointRequest,
   ProgressListener,
 } from "../workers/protocol";
-import { useAssets } from "./assets";
+import { type DemAsset, useAssets } from "./assets";
 import { useCoverage } from "./coverageState";
 import { mergePartViews, RunProgressTracker, unique } from "./runParts";
 import { selectedSlice } from "./selection";
@@ -91,9 +91,19 @@ function evaluateChannel(slot: number): string {
 }
 let generation = 0;
 
+/** An id per DEM the page holds (DemPayload.id): a new file of the same name and size is a new DEM. */
+const demIds = new WeakMap<DemAsset, string>();
+let demCount = 0;
+
 function demPayload(): DemPayload | null {
   const d = useAssets.getState().dem;
-  return d ? { fileName: d.fileName, bytes: d.bytes } : null;
+  if (!d) return null;
+  let id = demIds.get(d);
+  if (id === undefined) {
+    id = `dem-${++demCount}`;
+    demIds.set(d, id);
+  }
+  return { fileName: d.fileName, bytes: d.bytes, id };
 }
 
 function errorText(e: unknown): string {

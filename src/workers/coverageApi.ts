@@ -184,7 +184,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     slot: PreparedSlot | null,
     preview: boolean,
   ): Promise<{ slot: PreparedSlot; site: PreparedSite }> => {
-    const demKey = [dem?.fileName ?? null, dem?.bytes.byteLength ?? 0];
+    const demKey = dem?.id ?? [dem?.fileName ?? null, dem?.bytes.byteLength ?? 0];
     const key = JSON.stringify([plan, demKey]);
     const placementFreeKey = JSON.stringify([planKeyWithoutPlacement(plan), demKey]);
     if (slot?.key === key) return { slot, site: slot.site };

@@ -12,6 +12,12 @@ import type { GapShapesXY } from "./gapContours";
 export interface DemPayload {
   fileName: string;
   bytes: ArrayBuffer;
+  /**
+   * The page's name for these bytes, new for every DEM it loads: a worker reuses the terrain it
+   * prepared only for the same id. Without one (command line, tests), the file name and size decide,
+   * which cannot tell a DEM edited in place from its earlier self.
+   */
+  id?: string;
 }
 
 export interface EvaluateRequest {

@@ -110,6 +110,18 @@ describe("coverage API runs", () => {
     expect(Array.from(shown.lowestVisibleAglM)).toEqual(Array.from(reference.lowestVisibleAglM));
   });
 
+  it("prepares the terrain again for a new DEM of the same name and size", async () => {
+    const plan = demoPlan();
+    const api = createCoverageApi();
+    const first = await api.evaluate(request(plan, { dem: { ...dem(), id: "dem-a" } }));
+    // The same file with every height set to 900 m (600 × 600 uncompressed Float32, strips at its end).
+    const edited = dem();
+    new Float32Array(edited.bytes, edited.bytes.byteLength - 600 * 600 * 4, 600 * 600).fill(900);
+    const second = await api.evaluate(request(plan, { dem: { ...edited, id: "dem-b" } }));
+    expect(Array.from(second.groundAmslM)).not.toEqual(Array.from(first.groundAmslM));
+    expect(second.groundAmslM.every((g) => g === 900)).toBe(true);
+  });
+
   it("a run split in parts over two workers, put together, equals the whole run", async () => {
     const plan = demoPlan();
     const post = plan.posts.find((p) => p.enabled);
