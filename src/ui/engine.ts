@@ -47,6 +47,8 @@ export async function getPool(): Promise<WorkerPool<CoverageApi>> {
         new Worker(new URL("../workers/coverage.worker.ts", import.meta.url), { type: "module" }),
       onSuperseded: (remote, _channel, g) => void remote.supersede(g).catch(() => undefined),
       onCrash: (message) => {
+        // The new worker holds no DEM yet (withDem would find out, at the cost of one refused request).
+        demHeld.clear();
         say("error", message);
         // The plan is intact; run it again on the new worker.
         scheduleEvaluation();
@@ -106,6 +108,36 @@ function demPayload(): DemPayload | null {
   return { fileName: d.fileName, bytes: d.bytes, id };
 }
 
+/** The DEM id each worker (by its index in the pool) has received with the DEM's bytes. */
+const demHeld = new Map<number, string>();
+
+/**
+ * Sends a request that carries the DEM to the worker of `slot`: its bytes only when that worker has
+ * not had this DEM yet (a 1.4 MB copy per message otherwise, in the task of the release), and again
+ * if the worker turns out not to hold it (replaced after a crash).
+ */
+async function withDem<T>(
+  p: WorkerPool<CoverageApi>,
+  slot: number,
+  send: (dem: DemPayload | null) => Promise<T>,
+): Promise<T> {
+  const full = demPayload();
+  if (full === null) return send(null);
+  const index = p.size > 0 ? slot % p.size : 0;
+  const held = demHeld.get(index) === full.id;
+  try {
+    const r = await send(held ? { fileName: full.fileName, id: full.id } : full);
+    demHeld.set(index, full.id ?? "");
+    return r;
+  } catch (e) {
+    if ((e as Error)?.name !== "DemMissingError") throw e;
+    demHeld.delete(index);
+    const r = await send(full);
+    demHeld.set(index, full.id ?? "");
+    return r;
+  }
+}
+
 function errorText(e: unknown): string {
   return e instanceof Error ? e.message : String(e);
 }
@@ -126,7 +158,9 @@ async function runPart(
   // Marked once for comlink; each call that takes it gets a channel of its own, closed by the worker.
   const listener = Comlink.proxy(onProgress);
   const view = withTerrain(
-    await p.run(channel, req.generation, "evaluate", [req, listener], { slot }),
+    await withDem(p, slot, (dem) =>
+      p.run(channel, req.generation, "evaluate", [{ ...req, dem }, listener], { slot }),
+    ),
     "full",
   );
   if (!view.partial) return view;
@@ -138,7 +172,9 @@ async function runPart(
   };
   // The second step is asked for before the shown slice is drawn: drawing it takes the page 10–30 ms
   // at 1 M cells, which the worker would otherwise wait through.
-  const second = p.run(channel, req.generation, "evaluate", [rest, listener], { slot });
+  const second = withDem(p, slot, (dem) =>
+    p.run(channel, req.generation, "evaluate", [{ ...rest, dem }, listener], { slot }),
+  );
   onShown(view);
   const all = withTerrain(await second, "full");
   // The second step fused the part's other slices only: the shown one is the first step's, with the
@@ -187,7 +223,12 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   try {
     if (options.preview) {
       const slot = p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT;
-      const view = withTerrain(await p.run(evaluateChannel(slot), g, "evaluate", [req], { slot }), kind);
+      const view = withTerrain(
+        await withDem(p, slot, (dem) =>
+          p.run(evaluateChannel(slot), g, "evaluate", [{ ...req, dem }], { slot }),
+        ),
+        kind,
+      );
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }
@@ -272,9 +313,10 @@ export async function runPoint(req: Omit<PointRequest, "generation" | "plan" | "
   const p = await getPool();
   useCoverage.getState().set({ pointBusy: true });
   try {
-    const reply = await p.run("point", g, "point", [{ ...req, generation: g, plan, dem: demPayload() }], {
-      slot: p.size > 1 ? p.size + POINT_SLOT : EVAL_SLOT,
-    });
+    const slot = p.size > 1 ? p.size + POINT_SLOT : EVAL_SLOT;
+    const reply = await withDem(p, slot, (dem) =>
+      p.run("point", g, "point", [{ ...req, generation: g, plan, dem }], { slot }),
+    );
     useCoverage.getState().set({ point: reply, pointBusy: false });
   } catch (e) {
     if (isStale(e)) return;

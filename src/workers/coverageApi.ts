@@ -72,6 +72,14 @@ export class BadRequestError extends Error {
   override name = "BadRequestError";
 }
 
+/** A request named a DEM by its id alone and this worker holds no DEM of that id (a new worker). */
+export class DemMissingError extends Error {
+  override name = "DemMissingError";
+}
+
+/** A DEM with its bytes, as a worker holds it. */
+type HeldDem = DemPayload & { bytes: ArrayBuffer };
+
 /** Previews run on at most this many cells: a larger grid is previewed on a coarser one (same extent). */
 export const PREVIEW_MAX_CELLS = 250_000;
 /** Memory the per-radar cache may hold, bytes (entries are sized from the grid). */
@@ -180,7 +188,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
 
   const prepareSlot = async (
     plan: Plan,
-    dem: DemPayload | null,
+    dem: HeldDem | null,
     slot: PreparedSlot | null,
     preview: boolean,
   ): Promise<{ slot: PreparedSlot; site: PreparedSite }> => {
@@ -206,9 +214,21 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     return { slot: { key, placementFreeKey, site, warnings: p.warnings, grid: p.grid }, site };
   };
 
+  /** The DEM last received with its bytes; requests that name it by id alone use it. */
+  let heldDem: HeldDem | null = null;
+  const demOf = (dem: DemPayload | null | undefined): HeldDem | null => {
+    if (!dem) return null;
+    if (dem.bytes !== undefined) {
+      heldDem = dem as HeldDem;
+      return heldDem;
+    }
+    if (dem.id !== undefined && heldDem?.id === dem.id) return heldDem;
+    throw new DemMissingError(`this worker does not hold the DEM ${dem.fileName} (${dem.id ?? "no id"})`);
+  };
+
   const prepare = async (
     planInput: unknown,
-    dem: DemPayload | null,
+    dem: HeldDem | null,
     maskMode?: "accurate" | "fast",
   ): Promise<PreparedSite> => {
     const plan = parse(planInput);
@@ -298,7 +318,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   ): Promise<CoverageView> => {
     const t0 = now();
     const stale = () => req.generation < newest;
-    const whole = await prepare(req.plan, req.dem, req.maskMode);
+    const whole = await prepare(req.plan, demOf(req.dem), req.maskMode);
     const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
     onSite(full);
     let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;
@@ -436,7 +456,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
         throw new BadRequestError("point: lon/lat must be numbers");
       if (!(Number.isFinite(req.heightM) && req.heightM >= 0))
         throw new BadRequestError(`heightM: ${req.heightM} must be ≥ 0 m`);
-      const site = await prepare(req.plan, req.dem);
+      const site = await prepare(req.plan, demOf(req.dem));
       const grid = prepared?.grid;
       if (!grid) throw new BadRequestError("the site could not be prepared");
       const [x, y] = grid.toGrid(req.lonDeg, req.latDeg);

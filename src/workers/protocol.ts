@@ -11,7 +11,12 @@ import type { GapShapesXY } from "./gapContours";
 /** DEM bytes as the plan names them (terrain.ground.file). */
 export interface DemPayload {
   fileName: string;
-  bytes: ArrayBuffer;
+  /**
+   * The file's bytes. Absent: the DEM of this `id` the worker last received with its bytes (the page
+   * sends them once per worker, not with every request); a worker without it throws DemMissingError
+   * and the page sends them again.
+   */
+  bytes?: ArrayBuffer;
   /**
    * The page's name for these bytes, new for every DEM it loads: a worker reuses the terrain it
    * prepared only for the same id. Without one (command line, tests), the file name and size decide,
@@ -23,7 +28,7 @@ export interface DemPayload {
 export interface EvaluateRequest {
   generation: number;
   plan: Plan;
-  /** The DEM the plan names (copied with each request so that a restarted worker has it too). */
+  /** The DEM the plan names (its bytes once per worker: DemPayload.bytes). */
   dem: DemPayload | null;
   /** "fast" for previews while dragging; "accurate" otherwise (the plan's own setting when absent). */
   maskMode?: "accurate" | "fast";

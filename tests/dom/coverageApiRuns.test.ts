@@ -122,6 +122,22 @@ describe("coverage API runs", () => {
     expect(second.groundAmslM.every((g) => g === 900)).toBe(true);
   });
 
+  it("takes the DEM's bytes once and its id after that; without them a new worker says so by name", async () => {
+    const plan = demoPlan();
+    const api = createCoverageApi();
+    const withBytes = await api.evaluate(request(plan, { dem: { ...dem(), id: "dem-1" } }));
+    const byId = await api.evaluate(request(plan, { dem: { fileName: "terrain.tif", id: "dem-1" } }));
+    expect(Array.from(byId.slices[0].combinedPd)).toEqual(Array.from(withBytes.slices[0].combinedPd));
+    const fresh = createCoverageApi();
+    await expect(
+      fresh.evaluate(request(plan, { dem: { fileName: "terrain.tif", id: "dem-1" } })),
+    ).rejects.toMatchObject({ name: "DemMissingError" });
+    // Another id than the one held is not taken for it either.
+    await expect(
+      api.evaluate(request(plan, { dem: { fileName: "terrain.tif", id: "dem-2" } })),
+    ).rejects.toMatchObject({ name: "DemMissingError" });
+  });
+
   it("a run split in parts over two workers, put together, equals the whole run", async () => {
     const plan = demoPlan();
     const post = plan.posts.find((p) => p.enabled);
