@@ -1,44 +1,37 @@
 /**
- * Gap shapes for the map: outlines and labels in grid metres (src/workers/gapContours.ts) turned into
- * Leaflet [lat, lon] coordinates.
+ * Gap shapes for the map: outlines and labels in grid metres (src/workers/gapContours.ts), turned into
+ * Leaflet [lat, lon] coordinates as the gap layer draws them.
  */
 import type { GridFrame } from "../coverage/grid";
 import { type GapShapesXY, gapShapesXY } from "../workers/gapContours";
 
-export interface GapShapes {
-  /** Polygons, each as rings of [lat, lon] (outer first, then holes). */
-  outlines: [number, number][][][];
-  /** Largest first: where to write each gap's area, and the area, m². */
-  labels: { at: [number, number]; areaM2: number }[];
+/** Gap shapes in grid metres with the way to geographic coordinates, for the map to draw. */
+export interface GapOutlineSource {
+  shapes: GapShapesXY;
+  /** Grid x, y (m) to [lon, lat] in degrees. */
+  toLonLat: (x: number, y: number) => [number, number];
 }
 
-export function shapesToLatLng(
-  s: GapShapesXY,
+/** One ring of grid x, y pairs (m) as Leaflet [lat, lon] pairs. */
+export function ringToLatLng(
+  flat: ArrayLike<number>,
   toLonLat: (x: number, y: number) => [number, number],
-): GapShapes {
-  const ll = (x: number, y: number): [number, number] => {
-    const [lon, lat] = toLonLat(x, y);
-    return [lat, lon];
-  };
-  return {
-    outlines: s.outlines.map((p) =>
-      p.rings.map((flat) => {
-        const ring: [number, number][] = [];
-        for (let i = 0; i + 1 < flat.length; i += 2) ring.push(ll(flat[i], flat[i + 1]));
-        return ring;
-      }),
-    ),
-    labels: s.labels.map((l) => ({ at: ll(l.x, l.y), areaM2: l.areaM2 })),
-  };
+): [number, number][] {
+  const ring: [number, number][] = [];
+  for (let i = 0; i + 1 < flat.length; i += 2) {
+    const [lon, lat] = toLonLat(flat[i], flat[i + 1]);
+    ring.push([lat, lon]);
+  }
+  return ring;
 }
 
-/** Gap shapes computed here (used when the worker did not send them for the shown slice). */
-export function gapShapes(
+/** Gap shapes found here (used when the worker did not send them for the shown slice). */
+export function gapOutlineSource(
   gap: Uint8Array,
   frame: GridFrame,
   toLonLat: (x: number, y: number) => [number, number],
-): GapShapes {
-  return shapesToLatLng(gapShapesXY(gap, frame), toLonLat);
+): GapOutlineSource {
+  return { shapes: gapShapesXY(gap, frame), toLonLat };
 }
 
 /** An area for a label: m² below 1 ha, else hectares. */

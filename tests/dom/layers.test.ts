@@ -3,7 +3,7 @@
 import { contours } from "d3-contour";
 import { describe, expect, it } from "vitest";
 import type { Grid, GridFrame } from "../../src/coverage/grid";
-import { GapLayer } from "../../src/map/gapLayer";
+import { GapLayer, OUTLINE_BATCH_VERTICES } from "../../src/map/gapLayer";
 import { hillshadeIndices, hillshadeIndicesInSlices } from "../../src/map/hillshade";
 import L from "../../src/map/leaflet";
 import { forwardTo } from "../../src/map/pixelToGrid";
@@ -223,35 +223,56 @@ describe("repaints", () => {
     gap[3] = 1;
     gaps.setGaps(frame, forward, gap, null);
     expect(queued()).toBe(1);
-    gaps.setGaps(frame, forward, gap, { outlines: [], labels: [] });
+    gaps.setGaps(frame, forward, gap, { shapes: { outlines: [], labels: [] }, toLonLat: (x, y) => [x, y] });
     expect(queued()).toBe(0);
     gaps.setGaps(frame, forward, gap.slice(), null);
     expect(queued()).toBe(1);
   });
 
-  it("draws every gap outline in one multipolygon, with a label per gap", () => {
+  it("draws the gap outlines as a few multipolygons over a few tasks, with a label per gap", async () => {
     const gaps = new GapLayer();
     const frame = { crs: "EPSG:32632", originX: 0, originY: 100, cellSizeM: 10, width: 10, height: 10 };
-    const square = (lat: number): [number, number][] => [
-      [lat, 8],
-      [lat, 8.001],
-      [lat + 0.001, 8.001],
-      [lat + 0.001, 8],
-    ];
-    const shapes = {
-      outlines: [[square(47)], [square(47.01), square(47.0102)], [square(47.02)]],
+    // Grid metres to degrees: 1 m = 1e-5 degrees from (8° E, 47° N), enough for the layer.
+    const toLonLat = (x: number, y: number): [number, number] => [8 + x * 1e-5, 47 + y * 1e-5];
+    const square = (x: number, y: number, side: number) =>
+      new Float64Array([x, y, x + side, y, x + side, y + side, x, y + side, x, y]);
+    // Three gaps, the second with a hole: polygons of 1, 2 and 1 rings, 5 vertices a ring.
+    const small = {
+      outlines: [
+        { rings: [square(0, 0, 10)] },
+        { rings: [square(20, 0, 30), square(30, 10, 5)] },
+        { rings: [square(60, 0, 10)] },
+      ],
       labels: [
-        { at: [47.0005, 8.0005] as [number, number], areaM2: 800 },
-        { at: [47.0105, 8.0005] as [number, number], areaM2: 300 },
+        { x: 5, y: 5, areaM2: 800 },
+        { x: 25, y: 5, areaM2: 300 },
       ],
     };
-    gaps.setGaps(frame, forwardTo(frame.crs), new Uint8Array(100), shapes);
-    const layers = (gaps as unknown as { outlines: L.LayerGroup }).outlines.getLayers();
-    const polygons = layers.filter((l): l is L.Polygon => l instanceof L.Polygon);
-    expect(polygons).toHaveLength(1);
-    // Three gaps, the second with a hole: a multipolygon of three polygons of 1, 2 and 1 rings.
-    const rings = polygons[0].getLatLngs() as L.LatLng[][][];
+    const group = (gaps as unknown as { outlines: L.LayerGroup }).outlines;
+    const polygonsOf = () => group.getLayers().filter((l): l is L.Polygon => l instanceof L.Polygon);
+    gaps.setGaps(frame, forwardTo(frame.crs), new Uint8Array(100), { shapes: small, toLonLat });
+    await gaps.whenOutlined();
+    expect(polygonsOf()).toHaveLength(1);
+    const rings = polygonsOf()[0].getLatLngs() as L.LatLng[][][];
     expect(rings.map((p) => p.length)).toEqual([1, 2, 1]);
-    expect(layers.filter((l) => l instanceof L.Marker)).toHaveLength(2);
+    expect(rings[0][0][1].lng).toBeCloseTo(8 + 10e-5, 9);
+    expect(group.getLayers().filter((l) => l instanceof L.Marker)).toHaveLength(2);
+    // Many gaps: the first batch at once, the rest in later tasks, each batch near the vertex budget.
+    const count = Math.ceil((3 * OUTLINE_BATCH_VERTICES) / 5);
+    const many = {
+      outlines: Array.from({ length: count }, (_, k) => ({ rings: [square(k, 0, 1)] })),
+      labels: [],
+    };
+    gaps.setGaps(frame, forwardTo(frame.crs), new Uint8Array(100), { shapes: many, toLonLat });
+    expect(polygonsOf()).toHaveLength(1);
+    await gaps.whenOutlined();
+    const batches = polygonsOf().map((p) => (p.getLatLngs() as L.LatLng[][][]).length);
+    expect(batches.length).toBeGreaterThanOrEqual(3);
+    expect(batches.reduce((a, b) => a + b, 0)).toBe(count);
+    // A new set of gaps drops the batches still pending for the old one.
+    gaps.setGaps(frame, forwardTo(frame.crs), new Uint8Array(100), { shapes: many, toLonLat });
+    gaps.setGaps(frame, forwardTo(frame.crs), new Uint8Array(100), { shapes: small, toLonLat });
+    await new Promise((r) => setTimeout(r, 20));
+    expect(polygonsOf()).toHaveLength(1);
   });
 });

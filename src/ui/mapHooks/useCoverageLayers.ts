@@ -1,7 +1,7 @@
 /** The coverage raster and the gap layer for the selected layer, class and height. */
 import { useEffect, useMemo } from "react";
 import { GapLayer } from "../../map/gapLayer";
-import { gapShapes, shapesToLatLng } from "../../map/gapOutlines";
+import { gapOutlineSource } from "../../map/gapOutlines";
 import type L from "../../map/leaflet";
 import { forwardTo, inverseFrom } from "../../map/pixelToGrid";
 import { RasterLayer } from "../../map/rasterLayer";
@@ -93,8 +93,8 @@ export function useCoverageLayers(map: L.Map | null): void {
       previewing || partial
         ? null
         : slice.gapShapes
-          ? shapesToLatLng(slice.gapShapes, inverse)
-          : gapShapes(slice.gap, frame, inverse);
+          ? { shapes: slice.gapShapes, toLonLat: inverse }
+          : gapOutlineSource(slice.gap, frame, inverse);
     gaps.setGaps(frame, forward, slice.gap, outlines);
   }, [slice, frame, forward, inverse, showGaps, gaps, previewing, partial]);
 }
