@@ -21,8 +21,20 @@ const frame: GridFrame = {
   crs: "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs",
 };
 
+/**
+ * Runs both gap functions on a larger grid full of gaps first: they keep their work arrays from call
+ * to call, and what a larger call left there must not reach a smaller one.
+ */
+function dirtyWorkArrays(): void {
+  const big = { ...frame, width: 64, height: 48 };
+  const gap = new Uint8Array(big.width * big.height).map((_, i) => (i % 7 < 4 ? 1 : 0));
+  gapOutlinesXY(gap, big);
+  gapLabelsXY(gap, big);
+}
+
 describe("gap shapes", () => {
   it("label each 8-connected gap with its exact area (cell count × cell area), largest first", () => {
+    dirtyWorkArrays();
     const gap = new Uint8Array(frame.width * frame.height);
     // A 4 × 3 block with a 1-cell hole, a 2 × 1 block, and a cell touching it diagonally (same gap).
     for (let r = 1; r <= 3; r++) for (let c = 2; c <= 5; c++) gap[r * frame.width + c] = 1;
@@ -53,6 +65,7 @@ describe("gap shapes", () => {
   });
 
   it("outlines contoured on the gaps' bounding box equal d3-contour on the whole grid", () => {
+    dirtyWorkArrays();
     const gap = new Uint8Array(frame.width * frame.height);
     // Two blobs away from the grid edges and one on the eastern edge.
     for (let r = 3; r <= 6; r++) for (let c = 7; c <= 9; c++) gap[r * frame.width + c] = 1;
