@@ -116,7 +116,7 @@ const demHeld = new Map<number, string>();
  * not had this DEM yet (a 1.4 MB copy per message otherwise, in the task of the release), and again
  * if the worker turns out not to hold it (replaced after a crash).
  */
-async function withDem<T>(
+export async function withDem<T>(
   p: WorkerPool<CoverageApi>,
   slot: number,
   send: (dem: DemPayload | null) => Promise<T>,
