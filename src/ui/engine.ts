@@ -97,7 +97,7 @@ let generation = 0;
 const demIds = new WeakMap<DemAsset, string>();
 let demCount = 0;
 
-function demPayload(): DemPayload | null {
+function demPayload(): (DemPayload & { id: string }) | null {
   const d = useAssets.getState().dem;
   if (!d) return null;
   let id = demIds.get(d);
@@ -124,17 +124,18 @@ export async function withDem<T>(
   const full = demPayload();
   if (full === null) return send(null);
   const index = p.size > 0 ? slot % p.size : 0;
-  const held = demHeld.get(index) === full.id;
-  try {
-    const r = await send(held ? { fileName: full.fileName, id: full.id } : full);
-    demHeld.set(index, full.id ?? "");
+  const attempt = async (dem: DemPayload): Promise<T> => {
+    const r = await send(dem);
+    demHeld.set(index, full.id);
     return r;
+  };
+  if (demHeld.get(index) !== full.id) return attempt(full);
+  try {
+    return await attempt({ fileName: full.fileName, id: full.id });
   } catch (e) {
     if ((e as Error)?.name !== "DemMissingError") throw e;
     demHeld.delete(index);
-    const r = await send(full);
-    demHeld.set(index, full.id ?? "");
-    return r;
+    return attempt(full);
   }
 }
 
@@ -207,16 +208,18 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   const p = pool ?? (await getPool());
   const kind = options.preview ? "preview" : "full";
   const focus = focusOf();
+  const lowestShown = useSession.getState().layer === "lowest";
   const req: EvaluateRequest = {
     generation: g,
     plan,
-    dem: demPayload(),
+    // Each send puts in the DEM as that worker needs it (withDem).
+    dem: null,
     ...(options.preview ? { maskMode: "fast" as const } : {}),
     perRadarPostId: singleRadarShown(),
     ...focus,
     ...(!options.preview && focus.focus ? { sliceFirst: true } : {}),
-    lowestShown: useSession.getState().layer === "lowest",
-    skipLowest: useSession.getState().layer !== "lowest",
+    lowestShown,
+    skipLowest: !lowestShown,
     ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
   };
   useCoverage.getState().set({ running: true, generation: g });

@@ -266,8 +266,9 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   let newest = 0;
 
   /**
-   * Accurate runs in progress, and the idle work last started. Idle work stops for these only: a drag's previews (fast masking) run
-   * between its arrays, so that the memory is ready when the drag ends however soon it ends.
+   * Accurate runs in progress, and the idle work last started. Idle work stops for these only: a
+   * drag's previews (fast masking) run between its arrays, so that the memory is ready when the drag
+   * ends however soon it ends.
    */
   let runningAccurate = 0;
   let idleWork: Promise<void> = Promise.resolve();
