@@ -94,8 +94,14 @@ export class GraticuleLayer extends L.LayerGroup {
   }
 }
 
-/** Labels are set as text, never as HTML. */
+/**
+ * Labels are set as text, never as HTML; in a span of their own, because the marker's box is 0 × 0
+ * and only the span can carry the backing that keeps the label legible over gap hatching.
+ */
 function setLabel(marker: L.Marker, text: string): void {
   const el = marker.getElement();
-  if (el) el.textContent = text;
+  if (!el) return;
+  const span = document.createElement("span");
+  span.textContent = text;
+  el.replaceChildren(span);
 }

@@ -23,7 +23,8 @@ export function useLeafletMap(container: RefObject<HTMLDivElement | null>, init:
     const m = L.map(el, {
       center: initRef.current.centerLatLon,
       zoom: initRef.current.zoom,
-      zoomControl: true,
+      // Top right, added below: the top left holds the graticule's latitude labels.
+      zoomControl: false,
       attributionControl: true,
       keyboard: true,
       maxZoom: 21,
@@ -33,6 +34,7 @@ export function useLeafletMap(container: RefObject<HTMLDivElement | null>, init:
       pmIgnore: false,
     });
     m.attributionControl.setPrefix(false);
+    L.control.zoom({ position: "topright" }).addTo(m);
     // Rasters sit between the basemap tiles (200) and the vectors (400): outlines always stay on top.
     for (const [name, z] of Object.entries(RASTER_PANES)) {
       const pane = m.createPane(name);

@@ -20,6 +20,8 @@ export interface LayerScale {
   fill: (values: ArrayLike<number>, out: Int16Array, from: number, to: number) => void;
   /** Legend: title with unit and the labelled stops. */
   title: string;
+  /** Legend: what a cell left without colour (the basemap showing through) means. */
+  uncoloured: string;
   stops: { label: string; index: number }[];
 }
 
@@ -120,6 +122,7 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
         }
       },
       title: "Radars meeting the required Pd (count)",
+      uncoloured: "No colour: no radar meets the required Pd",
       stops: Array.from({ length: classes - 1 }, (_, k) => ({ label: String(k + 1), index: k + 1 })),
     };
   }
@@ -132,8 +135,10 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
       toIndex: (v) => (Number.isFinite(v) ? tableIndex(v, scale) : -1),
       fill: (values, out, from, to) => fillLinear(values, out, from, to, scale, "finite"),
       title: "Lowest visible height (m above ground)",
+      uncoloured: "No colour: beyond every radar's range, or no terrain data",
       stops: [0, 0.25, 0.5, 0.75, 1].map((t) => ({
-        label: `${Math.round(t * top)} m`,
+        // Heights above the top of the ramp take its last colour.
+        label: `${t === 1 ? "≥ " : ""}${Math.round(t * top)} m`,
         index: Math.round(t * 255),
       })),
     };
@@ -145,6 +150,7 @@ export function layerScale(kind: LayerKind, maxOverlap: number, maxHeightM: numb
     toIndex: (v) => (v >= PD_SHOWN_FROM ? tableIndex(v, scale) : -1),
     fill: (values, out, from, to) => fillLinear(values, out, from, to, scale, { atLeast: PD_SHOWN_FROM }),
     title: kind === "single" ? "Pd of the chosen radar (0–1)" : "Combined Pd (0–1)",
+    uncoloured: `No colour: Pd below ${PD_SHOWN_FROM} (nothing detected)`,
     stops: [0, 0.25, 0.5, 0.75, 1].map((t) => ({ label: t.toFixed(2), index: Math.round(t * 255) })),
   };
 }

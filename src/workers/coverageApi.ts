@@ -382,7 +382,6 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     if (site.frame.cellSizeM !== prepared?.site.frame.cellSizeM) {
       notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
     }
-    if (site.groundSource === "flat") notes.unshift("No DEM: the ground is flat.");
     const terrainKey = site.terrainId ?? siteTerrainId(site);
     const withTerrain = terrainKey !== req.haveTerrainKey;
     const view = cloneView(

@@ -299,4 +299,13 @@ describe("coverage API runs", () => {
       expect(Array.from(x.gap)).toEqual(Array.from(fresh.slices[k].gap));
     });
   });
+  it("says once that a plan without a DEM stands on flat ground", async () => {
+    const plan = demoPlan();
+    plan.terrain.ground = { type: "flat", elevationAmslM: 312 };
+    const v = await createCoverageApi().evaluate(request(plan, { dem: null }));
+    const flat = v.notes.filter((n) => /No DEM/.test(n));
+    expect(flat).toEqual([
+      "No DEM: the ground is flat at 312 m above sea level; terrain masking comes from buildings and trees only.",
+    ]);
+  });
 });

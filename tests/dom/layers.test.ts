@@ -140,6 +140,11 @@ describe("layer scales and import kinds", () => {
     expect(low.toIndex(Number.POSITIVE_INFINITY)).toBe(-1);
     expect(low.toIndex(50)).toBe(128);
     expect(low.title).toMatch(/m above ground/);
+    // The legend says what no colour means, and that the ramp's top colour holds above its top.
+    expect(pd.uncoloured).toBe("No colour: Pd below 0.01 (nothing detected)");
+    expect(ov.uncoloured).toMatch(/no radar meets the required Pd/);
+    expect(low.uncoloured).toMatch(/range|terrain data/);
+    expect(low.stops.map((s) => s.label)).toEqual(["0 m", "25 m", "50 m", "75 m", "≥ 100 m"]);
   });
   it("turns whole rasters into the same indices as value by value, for every layer, at once or in slices", async () => {
     const values = Float32Array.from([

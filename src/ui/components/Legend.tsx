@@ -38,6 +38,9 @@ export function Legend(props: {
           </div>
         </>
       )}
+      <div className="legend-note" data-testid="legend-uncoloured">
+        {s.uncoloured}
+      </div>
       {props.showGaps && (
         <div className="legend-gap">
           <span className="swatch hatch" /> Gap: below the required Pd inside the protected area or approach

@@ -6,16 +6,13 @@ import { lazy, Suspense } from "react";
 import type { PointRadar } from "../../workers/protocol";
 import { ColumnHeads } from "../components/ColumnHeads";
 import { useCoverage } from "../coverageState";
+import { formatDb as db, formatLatLon } from "../numberText";
 import { radarsByPd } from "../selection";
 import { useSession } from "../session";
 
 const ProfileChart = lazy(() => import("../components/ProfileChart"));
 
 const M_PER_KM = 1000;
-
-function db(v: number): string {
-  return Number.isFinite(v) ? v.toFixed(1) : v === Number.NEGATIVE_INFINITY ? "−∞" : "—";
-}
 
 function RadarRows({ r }: { r: PointRadar }) {
   return (
@@ -81,7 +78,7 @@ export function InspectPanel() {
       {point && (
         <>
           <p data-testid="point-summary">
-            {point.latDeg.toFixed(6)}° N, {point.lonDeg.toFixed(6)}° E at {point.heightM} m AGL: combined Pd{" "}
+            {formatLatLon(point.latDeg, point.lonDeg)} at {point.heightM} m AGL: combined Pd{" "}
             <strong data-testid="point-combined-pd">
               {Number.isFinite(point.combinedPd) ? point.combinedPd.toFixed(3) : "—"}
             </strong>{" "}

@@ -1,6 +1,7 @@
 /** Posts: the list (select, enable), and the selected post's radar, mast, boresight, tilt and sector. */
 import type { Post } from "../../io/planSchema";
 import { CheckField, NumberField, SelectField, TextField } from "../components/NumberField";
+import { formatLatLon } from "../numberText";
 import { removePost, updatePost } from "../planEdits";
 import { useSession } from "../session";
 import { usePlanStore } from "../store";
@@ -103,8 +104,8 @@ function PostEditor({ post }: { post: Post }) {
         </>
       )}
       <p className="muted">
-        {post.position.latDeg.toFixed(6)}° N, {post.position.lonDeg.toFixed(6)}° E — drag the post on the map
-        to move it, the orange handle to turn it.
+        {formatLatLon(post.position.latDeg, post.position.lonDeg)} — drag the post on the map to move it, the
+        orange handle to turn it.
       </p>
       <button
         type="button"
