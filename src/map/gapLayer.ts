@@ -5,6 +5,7 @@
 import type { GridFrame } from "../coverage/grid";
 import { TABLE_SIZE } from "./colourTable";
 import { formatAreaM2, type GapOutlineSource, ringToLatLng } from "./gapOutlines";
+import { type ScreenBox, unoverlappedLabels } from "./labelDeclutter";
 import L from "./leaflet";
 import type { Forward } from "./pixelToGrid";
 import { RasterLayer } from "./rasterLayer";
@@ -31,15 +32,51 @@ function hatchTable(): Uint8ClampedArray {
   return t;
 }
 
+/** Post names and marks: a gap's area label gives way to them. */
+const LABELS_KEPT_SELECTOR = ".post-mark, .post-label";
+
 export class GapLayer extends L.LayerGroup {
   private readonly hatch = new RasterLayer({ pane: "picket-gaps" });
   private readonly outlines = L.layerGroup();
   private readonly table = hatchTable();
+  /** The area labels of the last setGaps, largest gap first. */
+  private labels: HTMLElement[] = [];
+  private onMap: L.Map | null = null;
+  private readonly declutter = () => this.hideOverlappingLabels();
 
   constructor() {
     super();
     this.addLayer(this.hatch);
     this.addLayer(this.outlines);
+  }
+
+  override onAdd(map: L.Map): this {
+    super.onAdd(map);
+    this.onMap = map;
+    map.on("zoomend", this.declutter);
+    return this;
+  }
+
+  override onRemove(map: L.Map): this {
+    map.off("zoomend", this.declutter);
+    this.onMap = null;
+    return super.onRemove(map);
+  }
+
+  /**
+   * Hides the area labels that would overlap a post's name or a larger gap's label (they overlap or
+   * not whatever the pan; a zoom or new labels decide again).
+   */
+  hideOverlappingLabels(): void {
+    const container = this.onMap?.getContainer();
+    if (!container || this.labels.length === 0) return;
+    for (const el of this.labels) el.style.visibility = "";
+    const box = (el: Element): ScreenBox => el.getBoundingClientRect();
+    const fixed = Array.from(container.querySelectorAll(LABELS_KEPT_SELECTOR), box);
+    const shown = unoverlappedLabels(this.labels.map(box), fixed);
+    this.labels.forEach((el, k) => {
+      el.style.visibility = shown[k] ? "" : "hidden";
+    });
   }
 
   /** The batches of outlines still to add (cancelled by the next setGaps). */
@@ -60,6 +97,7 @@ export class GapLayer extends L.LayerGroup {
     if (this.pendingBatch !== null) clearTimeout(this.pendingBatch);
     this.pendingBatch = null;
     this.outlines.clearLayers();
+    this.labels = [];
     this.outlined = Promise.resolve();
     if (!frame || !forward || !gap) {
       this.hatch.setPaint(null);
@@ -72,6 +110,7 @@ export class GapLayer extends L.LayerGroup {
     for (const label of shapes.labels.slice(0, LABELLED_GAPS)) {
       const el = document.createElement("span");
       el.textContent = formatAreaM2(label.areaM2);
+      this.labels.push(el);
       const [lon, lat] = toLonLat(label.x, label.y);
       this.outlines.addLayer(
         L.marker([lat, lon], {
@@ -81,6 +120,7 @@ export class GapLayer extends L.LayerGroup {
         }),
       );
     }
+    this.hideOverlappingLabels();
     // Outlines as multipolygons of about OUTLINE_BATCH_VERTICES vertices each: few SVG paths for the
     // map to add, lay out and remove, and no task longer than one batch.
     let next = 0;

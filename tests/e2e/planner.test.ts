@@ -114,6 +114,19 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
       .getAttribute("content");
     expect(csp).toMatch(/script-src 'self'/);
     expect(csp).not.toMatch(/unsafe-eval/);
+    // Gap area labels give way to post names: no shown label overlaps one, and some are shown.
+    const clashes = await page.evaluate(() => {
+      const rect = (e: Element) => e.getBoundingClientRect();
+      const hit = (a: DOMRect, b: DOMRect) =>
+        a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+      const posts = Array.from(document.querySelectorAll(".post-label"), rect);
+      const shown = Array.from(document.querySelectorAll(".gap-label span"))
+        .filter((e) => (e as HTMLElement).style.visibility !== "hidden")
+        .map(rect);
+      return { shown: shown.length, clashes: shown.filter((g) => posts.some((q) => hit(g, q))).length };
+    });
+    expect(clashes.shown).toBeGreaterThan(0);
+    expect(clashes.clashes).toBe(0);
   });
 
   it("shows the same summary figures as the engine run in Node on the same plan", async () => {
