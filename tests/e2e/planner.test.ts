@@ -555,6 +555,42 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await shoot(page, "bad-file");
   });
 
+  it("keeps a protected area that crosses itself, names it, and leaves it out of the run until undone", async () => {
+    await openTab(page, "site");
+    const areas0 = await page.getByTestId("area-list").locator("li").count();
+    const summary0 = await summaryFigures(page);
+    await page.getByTestId("tool-area").click();
+    await page.waitForTimeout(500);
+    const b = await mapBox(page);
+    // A bow tie: the second edge crosses the fourth.
+    for (const [fx, fy] of [
+      [0.12, 0.12],
+      [0.2, 0.2],
+      [0.2, 0.12],
+      [0.12, 0.2],
+      [0.12, 0.12],
+    ]) {
+      await page.mouse.click(b.x + b.width * fx, b.y + b.height * fy);
+      await page.waitForTimeout(150);
+    }
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0 + 1);
+    await page.keyboard.press("Escape");
+    await expect.poll(() => text(page, "area-problem")).toMatch(/crosses itself/);
+    await expect.poll(() => text(page, "run-status")).toMatch(/Not computed: protectedAreas\[\d+\]/);
+    // The results of the last good plan stay on screen; nothing else was lost.
+    expect(await summaryFigures(page)).toBe(summary0);
+    // The top bar stays one line with the refusal in it (cut, its whole text in the title).
+    const bar = await page.locator(".topbar").boundingBox();
+    const about = await page.getByTestId("about").boundingBox();
+    expect(about && bar && about.y + about.height <= bar.y + 44).toBe(true);
+    await shoot(page, "self-crossing-area");
+    const before = await gen(page);
+    await page.getByTestId("undo").click();
+    await expect.poll(() => page.getByTestId("area-list").locator("li").count()).toBe(areas0);
+    expect(await page.getByTestId("area-problem").count()).toBe(0);
+    await waitNewRun(page, before);
+  });
+
   it("finds the plan intact after a reload", async () => {
     await openTab(page, "site");
     const areas = await page.getByTestId("area-list").locator("li").count();

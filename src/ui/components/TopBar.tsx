@@ -115,7 +115,12 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
           testId="redo"
         />
       </nav>
-      <div className="run-status" role="status" data-testid="run-status">
+      <div
+        className="run-status"
+        role="status"
+        data-testid="run-status"
+        title={problem ? `Not computed: ${problem}` : undefined}
+      >
         {running && progress !== null && (
           <progress className="run-progress" max={1} value={progress} aria-label="Run progress" />
         )}

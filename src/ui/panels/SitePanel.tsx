@@ -1,5 +1,7 @@
 /** Site: name, approach ring depth, protected areas, drawing tools for areas, holes, buildings, trees. */
-import { useState } from "react";
+import { useMemo, useState } from "react";
+import type { ProtectedArea } from "../../io/planSchema";
+import { polygonProblems } from "../../io/polygonRules";
 import { NumberField, TextField } from "../components/NumberField";
 import { removeProtectedArea } from "../planEdits";
 import { type Tool, useSession } from "../session";
@@ -58,6 +60,7 @@ export function SitePanel() {
             <span className="muted">
               {a.geometry.type === "Polygon" ? `${a.geometry.coordinates.length - 1} hole(s)` : "multi-part"}
             </span>
+            <AreaProblem area={a} />
             <button
               type="button"
               disabled={plan.protectedAreas.length <= 1}
@@ -118,5 +121,24 @@ export function SitePanel() {
         Import a DEM, buildings (GeoJSON, KML, OSM) or posts (CSV) with Import… or drop files on the map.
       </p>
     </div>
+  );
+}
+
+/** What keeps an area from being evaluated (a ring that crosses itself, …), shown beside it. */
+function AreaProblem({ area }: { area: ProtectedArea }) {
+  const problem = useMemo(() => {
+    const g = area.geometry;
+    const parts = g.type === "Polygon" ? [g.coordinates] : g.coordinates;
+    for (const rings of parts) {
+      const [first] = polygonProblems(rings, []);
+      if (first) return first.message;
+    }
+    return null;
+  }, [area.geometry]);
+  if (!problem) return null;
+  return (
+    <span className="field-error" role="alert" data-testid="area-problem">
+      Not evaluated: {problem}. Undo, or delete the area and draw it again.
+    </span>
   );
 }
