@@ -14,7 +14,13 @@ export interface SiteView {
   buildings: BuildingFeature[];
   treeStands: TreeStand[];
   showBuildings: boolean;
+  /** The building (index) or tree stand (id) chosen for editing: drawn with a heavy outline. */
+  selectedBuilding?: number | null;
+  selectedTreeId?: string | null;
 }
+
+/** Outline of the chosen obstruction (the accent of the tool bar). */
+const SELECTED_OUTLINE = { color: "#e07b00", weight: 3 };
 
 function textTooltip(text: string): HTMLElement {
   const el = document.createElement("span");
@@ -63,10 +69,18 @@ export class SiteLayer extends L.FeatureGroup {
       const h =
         b.properties.height ?? (b.properties["building:levels"] ?? Number.NaN) * DEFAULT_METRES_PER_LEVEL;
       const layer = L.geoJSON(b.geometry as Polygon, {
-        style: { color: "#3b2f2f", weight: 1, fillColor: "#8c7b70", fillOpacity: 0.55 },
+        style: {
+          color: "#3b2f2f",
+          weight: 1,
+          fillColor: "#8c7b70",
+          fillOpacity: 0.55,
+          ...(i === v.selectedBuilding ? SELECTED_OUTLINE : {}),
+        },
       });
       layer.bindTooltip(
-        textTooltip(`Building ${b.id ?? i + 1}: ${Number.isFinite(h) ? `${h} m` : "default height"}`),
+        textTooltip(
+          `${typeof b.properties.name === "string" ? b.properties.name : `Building ${i + 1}`}: ${Number.isFinite(h) ? `${h} m` : "default height"}`,
+        ),
         {
           sticky: true,
         },
@@ -75,7 +89,14 @@ export class SiteLayer extends L.FeatureGroup {
     });
     for (const t of v.treeStands) {
       const layer = L.geoJSON(t.geometry as Polygon, {
-        style: { color: "#24452a", weight: 1, fillColor: "#4f7a52", fillOpacity: 0.45, dashArray: "2 3" },
+        style: {
+          color: "#24452a",
+          weight: 1,
+          fillColor: "#4f7a52",
+          fillOpacity: 0.45,
+          dashArray: "2 3",
+          ...(t.id === v.selectedTreeId ? SELECTED_OUTLINE : {}),
+        },
       });
       layer.bindTooltip(textTooltip(`${t.name ?? t.id}: canopy ${t.canopyHeightM} m`), { sticky: true });
       this.obstructions.addLayer(layer);

@@ -14,6 +14,7 @@ import { RadarsPanel } from "./panels/RadarsPanel";
 import { ResultsPanel } from "./panels/ResultsPanel";
 import { SitePanel } from "./panels/SitePanel";
 import { TargetsPanel } from "./panels/TargetsPanel";
+import { useSession } from "./session";
 
 const PLAN_TABS = [
   { id: "posts", label: "Posts", render: () => <PostsPanel /> },
@@ -29,6 +30,7 @@ const RESULT_TABS = [
 ];
 
 export function App() {
+  const planTabRequest = useSession((s) => s.planTabRequest);
   const [aboutOpen, setAboutOpen] = useState(false);
   const mapRef = useRef<L.Map | null>(null);
   const onMap = useCallback((m: L.Map | null) => {
@@ -43,7 +45,7 @@ export function App() {
       <TopBar onAbout={() => setAboutOpen(true)} mapCentre={centre} />
       <main className="workspace">
         <aside className="side side-left" aria-label="Plan">
-          <Tabs tabs={PLAN_TABS} label="Plan" testId="plan-tabs" />
+          <Tabs tabs={PLAN_TABS} label="Plan" testId="plan-tabs" request={planTabRequest} />
         </aside>
         <MapView onMap={onMap} initialCentre={[47.1, 15.3]} />
         <aside className="side side-right" aria-label="Results">

@@ -114,3 +114,45 @@ export function setAnalysisHeights(plan: Plan, heightsM: number[]): Plan {
   });
   return { ...plan, analysis: { ...plan.analysis, targetHeightsM: hs }, targetClasses };
 }
+
+function withBuildings(plan: Plan, features: BuildingFeature[]): Plan {
+  return { ...plan, terrain: { ...plan.terrain, buildings: { ...plan.terrain.buildings, features } } };
+}
+
+/** Sets a building's roof height above ground (its `height`, which takes precedence over levels). */
+export function setBuildingHeight(plan: Plan, index: number, heightM: number): Plan {
+  const f = plan.terrain.buildings.features[index];
+  if (!f || f.properties.height === heightM) return plan;
+  const features = plan.terrain.buildings.features.slice();
+  features[index] = { ...f, properties: { ...f.properties, height: heightM } };
+  return withBuildings(plan, features);
+}
+
+export function removeBuilding(plan: Plan, index: number): Plan {
+  if (!plan.terrain.buildings.features[index]) return plan;
+  return withBuildings(
+    plan,
+    plan.terrain.buildings.features.filter((_, i) => i !== index),
+  );
+}
+
+function withTreeStands(plan: Plan, treeStands: TreeStand[]): Plan {
+  return { ...plan, terrain: { ...plan.terrain, treeStands } };
+}
+
+export function setCanopyHeight(plan: Plan, id: string, canopyHeightM: number): Plan {
+  const t = plan.terrain.treeStands.find((s) => s.id === id);
+  if (!t || t.canopyHeightM === canopyHeightM) return plan;
+  return withTreeStands(
+    plan,
+    plan.terrain.treeStands.map((s) => (s.id === id ? { ...s, canopyHeightM } : s)),
+  );
+}
+
+export function removeTreeStand(plan: Plan, id: string): Plan {
+  if (!plan.terrain.treeStands.some((s) => s.id === id)) return plan;
+  return withTreeStands(
+    plan,
+    plan.terrain.treeStands.filter((s) => s.id !== id),
+  );
+}

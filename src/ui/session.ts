@@ -3,6 +3,7 @@
  * what is shown, what is selected, the active tool, messages, and the drag preview.
  */
 import { create } from "zustand";
+import type { ObstructionRef } from "./roofs";
 
 export type LayerKind = "combined" | "single" | "overlap" | "lowest";
 export type Tool = "select" | "post" | "area" | "hole" | "building" | "tree" | "inspect";
@@ -32,6 +33,10 @@ export interface SessionState {
   layer: LayerKind;
   singlePostId: string | null;
   selectedPostId: string | null;
+  /** The building or tree stand chosen on the map for editing (Site panel). */
+  selectedObstruction: ObstructionRef | null;
+  /** A plan tab to bring forward (e.g. after a click on the map chose something it edits); seq repeats a request. */
+  planTabRequest: { id: string; seq: number } | null;
   tool: Tool;
   inspect: InspectPoint | null;
   /** The radar whose terrain profile the inspect panel shows (null: the best one). */
@@ -63,6 +68,8 @@ export const useSession = create<SessionState>()((set) => ({
   layer: "combined",
   singlePostId: null,
   selectedPostId: null,
+  selectedObstruction: null,
+  planTabRequest: null,
   tool: "select",
   inspect: null,
   profilePostId: null,
@@ -89,4 +96,9 @@ export const useSession = create<SessionState>()((set) => ({
 /** Shortcut for code outside components. */
 export function say(kind: Message["kind"], text: string, details?: string[]): void {
   useSession.getState().say(kind, text, details);
+}
+
+/** The patch that brings plan tab `id` forward (a new seq, so that asking again works). */
+export function planTabPatch(id: string): Pick<SessionState, "planTabRequest"> {
+  return { planTabRequest: { id, seq: (useSession.getState().planTabRequest?.seq ?? 0) + 1 } };
 }

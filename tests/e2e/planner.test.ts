@@ -490,6 +490,44 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await shoot(page, "turned");
   });
 
+  it("chooses a building on the map, changes its roof height and deletes it, with undo", async () => {
+    await openTab(page, "posts");
+    const b = await mapBox(page);
+    // The building drawn in the case before, 10 m high: a click on it brings the Site tab forward.
+    await page.mouse.click(b.x + b.width * 0.12, b.y + b.height * 0.87);
+    await page.getByTestId("obstruction-editor").waitFor({ timeout: 5_000 });
+    expect(await page.getByTestId("tab-site").getAttribute("aria-selected")).toBe("true");
+    const height = page.getByTestId("obstruction-height");
+    expect(await height.inputValue()).toBe("10");
+    const count = async () => Number((await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1]);
+    const before = await count();
+    const g0 = await gen(page);
+    await height.fill("5000");
+    await height.press("Enter");
+    await expect
+      .poll(() => text(page, "obstruction-editor"))
+      .toMatch(/Roof height: 5000 m AGL is above 1000 m AGL/);
+    await height.fill("35");
+    await height.press("Enter");
+    await waitNewRun(page, g0);
+    await shoot(page, "building-chosen");
+    await page.getByTestId("obstruction-delete").click();
+    await expect.poll(count).toBe(before - 1);
+    expect(await page.getByTestId("obstruction-editor").count()).toBe(0);
+    await page.getByTestId("undo").click();
+    await expect.poll(count).toBe(before);
+    // Undo again: the height was one step of its own.
+    await page.getByTestId("undo").click();
+    await page.mouse.click(b.x + b.width * 0.12, b.y + b.height * 0.87);
+    await expect.poll(() => page.getByTestId("obstruction-height").inputValue()).toBe("10");
+    await page.getByRole("button", { name: "Done" }).click();
+    expect(await page.getByTestId("obstruction-editor").count()).toBe(0);
+    // A post clicked on the map brings its form forward under Posts.
+    await page.locator(".post-mark", { hasText: "West fence mast" }).click();
+    await expect.poll(() => page.getByTestId("tab-posts").getAttribute("aria-selected")).toBe("true");
+    await expect.poll(() => text(page, "post-editor")).toMatch(/West fence mast/i);
+  });
+
   it("imports a DEM and a buildings file", async () => {
     await openTab(page, "site");
     const dem = join(work, "ridge-copy.tif");

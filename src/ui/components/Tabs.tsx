@@ -1,5 +1,5 @@
 /** Accessible tabs (arrow keys move between tabs). */
-import { type ReactNode, useId, useState } from "react";
+import { type ReactNode, useEffect, useId, useState } from "react";
 
 export interface TabDef {
   id: string;
@@ -7,8 +7,19 @@ export interface TabDef {
   render: () => ReactNode;
 }
 
-export function Tabs(props: { tabs: TabDef[]; label: string; initial?: string; testId?: string }) {
+export function Tabs(props: {
+  tabs: TabDef[];
+  label: string;
+  initial?: string;
+  testId?: string;
+  /** Brings a tab forward when it changes (seq tells a repeated request from an old one). */
+  request?: { id: string; seq: number } | null;
+}) {
   const [active, setActive] = useState(props.initial ?? props.tabs[0].id);
+  const { request } = props;
+  useEffect(() => {
+    if (request) setActive(request.id);
+  }, [request]);
   const base = useId();
   const current = props.tabs.find((t) => t.id === active) ?? props.tabs[0];
   return (

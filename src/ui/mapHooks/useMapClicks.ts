@@ -1,12 +1,15 @@
-/** Clicks on the map: place a post (post tool) or inspect a point (inspect tool). Esc leaves a tool. */
+/**
+ * Clicks on the map: place a post (post tool), inspect a point (inspect tool), or choose the building
+ * or tree stand under the pointer for editing in the Site panel (no tool). Esc leaves a tool.
+ */
 import { useEffect } from "react";
 import type L from "../../map/leaflet";
 import { useCoverage } from "../coverageState";
 import { runPoint } from "../engine";
 import { addPost, updatePost } from "../planEdits";
-import { roofUnder } from "../roofs";
+import { obstructionUnder, roofUnder } from "../roofs";
 import { selectedSlice } from "../selection";
-import { say, useSession } from "../session";
+import { planTabPatch, say, useSession } from "../session";
 import { usePlanStore } from "../store";
 import { ROOF_MAST_M } from "./usePostsLayer";
 
@@ -52,6 +55,11 @@ export function useMapClicks(map: L.Map | null): void {
         useSession.getState().set({ selectedPostId: id, tool: "select" });
       } else if (t === "inspect") {
         inspectAt(e.latlng.lng, e.latlng.lat);
+      } else if (t === "select") {
+        const plan = usePlanStore.getState().plan;
+        if (!plan) return;
+        const hit = obstructionUnder(plan, e.latlng.lng, e.latlng.lat);
+        useSession.getState().set({ selectedObstruction: hit, ...(hit ? planTabPatch("site") : {}) });
       }
     };
     const onKey = (e: KeyboardEvent) => {

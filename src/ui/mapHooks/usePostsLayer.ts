@@ -13,7 +13,7 @@ import { useMapLayer } from "../../map/useLeafletMap";
 import { evaluateScheduledNow, runEvaluation } from "../engine";
 import { updatePost } from "../planEdits";
 import { roofUnder } from "../roofs";
-import { say, useSession } from "../session";
+import { planTabPatch, say, useSession } from "../session";
 import { usePlanStore } from "../store";
 
 /** Extra mast on a roof above the roof top when a post is snapped to a roof, m. */
@@ -83,7 +83,10 @@ export function usePostsLayer(map: L.Map | null): void {
   const layer = useMemo(
     () =>
       new PostsLayer({
-        onSelect: (id) => useSession.getState().set({ selectedPostId: id }),
+        onSelect: (id) => {
+          // The post's form is under Posts: bring that tab forward.
+          useSession.getState().set({ selectedPostId: id, ...planTabPatch("posts") });
+        },
         onDrag: (id, lonDeg, latDeg) => {
           previewRef.current = { postId: id, lonDeg, latDeg };
           const plan = usePlanStore.getState().plan;

@@ -15,6 +15,7 @@ export function useSiteLayers(map: L.Map | null): void {
   const approachRingDepthM = usePlanStore((s) => s.plan?.approachRingDepthM);
   const terrain = usePlanStore((s) => s.plan?.terrain);
   const showBuildings = useSession((s) => s.showBuildings);
+  const selected = useSession((s) => s.selectedObstruction);
   useEffect(() => {
     if (!protectedAreas || approachRingDepthM === undefined || !terrain) return;
     layer.setSite({
@@ -23,6 +24,8 @@ export function useSiteLayers(map: L.Map | null): void {
       buildings: terrain.buildings.features,
       treeStands: terrain.treeStands,
       showBuildings,
+      selectedBuilding: selected?.kind === "building" ? selected.index : null,
+      selectedTreeId: selected?.kind === "tree" ? selected.id : null,
     });
-  }, [protectedAreas, approachRingDepthM, terrain, showBuildings, layer]);
+  }, [protectedAreas, approachRingDepthM, terrain, showBuildings, selected, layer]);
 }

@@ -6,6 +6,7 @@ import { NumberField, TextField } from "../components/NumberField";
 import { removeProtectedArea } from "../planEdits";
 import { type Tool, useSession } from "../session";
 import { usePlanStore } from "../store";
+import { ObstructionEditor } from "./ObstructionEditor";
 
 const DRAW_TOOLS: { tool: Tool; label: string; hint: string }[] = [
   {
@@ -119,7 +120,9 @@ export function SitePanel() {
       </p>
       <p className="muted">
         Import a DEM, buildings (GeoJSON, KML, OSM) or posts (CSV) with Import… or drop files on the map.
+        Click a building or tree stand on the map to change its height or delete it.
       </p>
+      <ObstructionEditor />
     </div>
   );
 }
