@@ -97,8 +97,22 @@ export async function recentPlans(): Promise<RecentPlan[]> {
   return Array.isArray(list) ? list : [];
 }
 
+/** Writes to the recent list one after another (each reads the list the one before wrote). */
+let recentWrites: Promise<void> = Promise.resolve();
+
+/** Resolves once every recent-list write asked for so far is done (or failed). */
+export function recentSettled(): Promise<void> {
+  return recentWrites;
+}
+
 /** Remembers a plan in the recent list (same site name replaces its older entry). */
-export async function rememberRecent(plan: Plan): Promise<void> {
+export function rememberRecent(plan: Plan): Promise<void> {
+  const write = recentWrites.then(() => writeRecent(plan));
+  recentWrites = write.catch(() => undefined);
+  return write;
+}
+
+async function writeRecent(plan: Plan): Promise<void> {
   const key = `recent:${plan.site.name}`;
   const list = (await recentPlans()).filter((r) => r.key !== key);
   list.unshift({ key, name: plan.site.name, savedAtIso: new Date().toISOString() });

@@ -7,7 +7,7 @@ import { fileOpen, fileSave } from "browser-fs-access";
 import { strFromU8, strToU8, unzipSync, zipSync } from "fflate";
 import type { Plan } from "../io/planSchema";
 import { type DemAsset, useAssets } from "./assets";
-import { rememberRecent } from "./autosave";
+import { rememberRecent, storedDem } from "./autosave";
 import { planToText, readPlanText } from "./planText";
 import { say } from "./session";
 import { usePlanStore } from "./store";
@@ -65,14 +65,34 @@ export async function readPlanFile(name: string, bytes: ArrayBuffer): Promise<Op
   return { ok: true, plan: r.plan, dem };
 }
 
-/** Loads an opened file as the current plan (history cleared) and remembers it in the recent list. */
-export function loadOpened(opened: Extract<OpenedFile, { ok: true }>, sourceName: string): void {
+/**
+ * Puts `next` on screen in place of the current plan (history cleared). The current plan goes to the
+ * recent list first, so that New or Open never loses work that was not saved to a file.
+ */
+export function replacePlan(next: Plan): void {
+  const current = usePlanStore.getState().plan;
+  if (current && current !== next) void rememberRecent(current);
+  usePlanStore.getState().load(next);
+}
+
+/**
+ * Loads an opened file as the current plan and remembers it in the recent list. A plan that names a
+ * DEM the file does not hold takes the DEM of that name stored in this browser, if there is one.
+ */
+export async function loadOpened(
+  opened: Extract<OpenedFile, { ok: true }>,
+  sourceName: string,
+): Promise<void> {
   const g = opened.plan.terrain.ground;
-  if (opened.dem) useAssets.getState().setDem(opened.dem);
-  else if (g.type === "dem" && useAssets.getState().dem?.fileName !== g.file) {
-    say("warning", `${sourceName}: the DEM ${g.file} is not in this file; import it to use the terrain.`);
+  let dem = opened.dem;
+  if (!dem && g.type === "dem" && useAssets.getState().dem?.fileName !== g.file) {
+    const bytes = await storedDem(g.file).catch(() => null);
+    if (bytes) dem = { fileName: g.file, bytes };
+    else
+      say("warning", `${sourceName}: the DEM ${g.file} is not in this file; import it to use the terrain.`);
   }
-  usePlanStore.getState().load(opened.plan);
+  if (dem) useAssets.getState().setDem(dem);
+  replacePlan(opened.plan);
   void rememberRecent(opened.plan);
   say("info", `Opened ${sourceName}.`);
 }
@@ -99,7 +119,7 @@ export async function openPlanFile(file: File): Promise<boolean> {
     say("error", opened.message, opened.details);
     return false;
   }
-  loadOpened(opened, file.name);
+  await loadOpened(opened, file.name);
   return true;
 }
 

@@ -11,7 +11,18 @@ import { PLAN_VERSION, type Plan } from "../io/planSchema";
 /** Half side of the starting protected area, m. */
 const START_HALF_SIDE_M = 200;
 
-export function newPlanAround(lonDeg: number, latDeg: number, radarModels: RadarModel[]): Plan {
+/** "New site 2026-12-03 07:45": a name of its own, so that new plans do not replace each other in the recent list. */
+export function newSiteName(at: Date = new Date()): string {
+  const two = (n: number) => String(n).padStart(2, "0");
+  return `New site ${at.getFullYear()}-${two(at.getMonth() + 1)}-${two(at.getDate())} ${two(at.getHours())}:${two(at.getMinutes())}`;
+}
+
+export function newPlanAround(
+  lonDeg: number,
+  latDeg: number,
+  radarModels: RadarModel[],
+  name = newSiteName(),
+): Plan {
   const dLat = radToDeg(START_HALF_SIDE_M / EARTH_RADIUS_M);
   const dLon = dLat / Math.cos(degToRad(latDeg));
   const ring = [
@@ -23,7 +34,7 @@ export function newPlanAround(lonDeg: number, latDeg: number, radarModels: Radar
   ];
   return {
     version: PLAN_VERSION,
-    site: { name: "New site" },
+    site: { name },
     protectedAreas: [
       { id: "area-1", name: "Protected area", geometry: { type: "Polygon", coordinates: [ring] } },
     ],

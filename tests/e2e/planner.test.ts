@@ -704,6 +704,37 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await waitComputed(page);
   });
 
+  it("keeps the plan it replaces in the recent list: New, then Recent brings it back with its DEM", async () => {
+    await openTab(page, "site");
+    // An edit saved to no file: the site renamed.
+    const name = "Ridge waterworks, edited and not saved";
+    const field = page.getByLabel("Site name");
+    await field.fill(name);
+    await field.press("Enter");
+    await expect.poll(() => text(page, "site-name")).toBe(name);
+    const terrain = await text(page, "terrain-summary");
+    await openTab(page, "posts");
+    const postCount = await page.getByTestId("post-list").locator("li").count();
+    await page.getByRole("button", { name: "New", exact: true }).click();
+    await expect.poll(() => text(page, "site-name")).toMatch(/^New site \d{4}-\d\d-\d\d \d\d:\d\d$/);
+    const recent = page.getByTestId("recent-plans");
+    // Each entry reads "name (saved at)".
+    const entry = async () =>
+      (await recent.locator("option").allTextContents()).find((t) => t.startsWith(`${name} (`));
+    await expect.poll(entry).toBeTruthy();
+    const g0 = await gen(page);
+    await recent.selectOption({ label: (await entry()) as string });
+    await expect.poll(() => text(page, "site-name")).toBe(name);
+    expect(await page.getByTestId("post-list").locator("li").count()).toBe(postCount);
+    await openTab(page, "site");
+    expect(await text(page, "terrain-summary")).toBe(terrain);
+    await waitNewRun(page, g0);
+    expect((await page.getByTestId("message-warning").allTextContents()).join(" ")).not.toMatch(
+      /is not in this file/,
+    );
+    await openTab(page, "posts");
+  });
+
   it("uses a tile server only when the user sets one, with its attribution shown as text", async () => {
     await page.getByTestId("about").click();
     const template = `${h.baseUrl}test-tiles/{z}/{x}/{y}.png`;

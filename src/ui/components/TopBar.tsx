@@ -1,9 +1,9 @@
 /** The top bar: file actions, undo/redo, import, run status, about & safety. */
 import { useEffect, useState } from "react";
 import { useAssets } from "../assets";
-import { type RecentPlan, recentPlans, recentPlanText } from "../autosave";
+import { type RecentPlan, recentPlans, recentPlanText, recentSettled } from "../autosave";
 import { useCoverage } from "../coverageState";
-import { loadOpened, openPlanFromPicker, saveBundleToFile, savePlanToFile } from "../files";
+import { loadOpened, openPlanFromPicker, replacePlan, saveBundleToFile, savePlanToFile } from "../files";
 import { newPlanAround } from "../newPlan";
 import { readPlanText } from "../planText";
 import { say } from "../session";
@@ -36,7 +36,9 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
   const [recent, setRecent] = useState<RecentPlan[]>([]);
   // biome-ignore lint/correctness/useExhaustiveDependencies: reload the list when another plan is opened
   useEffect(() => {
-    recentPlans()
+    // After the writes the switch of plans asked for (the plan it replaced goes to the list).
+    recentSettled()
+      .then(recentPlans)
       .then(setRecent)
       .catch(() => setRecent([]));
   }, [plan?.site.name]);
@@ -46,7 +48,7 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
     if (!text) return say("warning", "That recent plan is no longer stored.");
     const r = readPlanText(text, "the recent plan");
     if (!r.ok) return say("error", r.message, r.details);
-    loadOpened({ ok: true, plan: r.plan, dem: null }, r.plan.site.name);
+    await loadOpened({ ok: true, plan: r.plan, dem: null }, r.plan.site.name);
   };
 
   return (
@@ -63,7 +65,7 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
           type="button"
           onClick={() => {
             const [lon, lat] = props.mapCentre();
-            usePlanStore.getState().load(newPlanAround(lon, lat, plan?.radarModels ?? []));
+            replacePlan(newPlanAround(lon, lat, plan?.radarModels ?? []));
             useAssets.getState().setDem(null);
             say("info", "New plan: draw the protected area and place posts.");
           }}
