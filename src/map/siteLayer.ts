@@ -28,10 +28,34 @@ function textTooltip(text: string): HTMLElement {
   return el;
 }
 
+const BUILDING_STYLE: L.PathOptions = {
+  color: "#3b2f2f",
+  weight: 1,
+  fillColor: "#8c7b70",
+  fillOpacity: 0.55,
+};
+const TREE_STYLE: L.PathOptions = {
+  color: "#24452a",
+  weight: 1,
+  fillColor: "#4f7a52",
+  fillOpacity: 0.45,
+  dashArray: "2 3",
+};
+
+function buildingLabel(b: BuildingFeature, i: number): string {
+  const h = b.properties.height ?? (b.properties["building:levels"] ?? Number.NaN) * DEFAULT_METRES_PER_LEVEL;
+  const name = typeof b.properties.name === "string" ? b.properties.name : `Building ${i + 1}`;
+  return `${name}: ${Number.isFinite(h) ? `${h} m` : "default height"}`;
+}
+
 export class SiteLayer extends L.FeatureGroup {
   private readonly areas = L.featureGroup();
   private readonly ring = L.featureGroup();
   private readonly obstructions = L.featureGroup();
+  /** What the layers were last built from: a part unchanged by reference is not built again. */
+  private last: SiteView | null = null;
+  private buildingLayers: L.GeoJSON[] = [];
+  private treeLayers = new Map<string, L.GeoJSON>();
 
   constructor() {
     super();
@@ -41,9 +65,36 @@ export class SiteLayer extends L.FeatureGroup {
   }
 
   setSite(v: SiteView): void {
+    const last = this.last;
+    this.last = v;
+    if (!last || last.protectedAreas !== v.protectedAreas || last.approachRingDepthM !== v.approachRingDepthM)
+      this.drawAreas(v);
+    if (
+      !last ||
+      last.buildings !== v.buildings ||
+      last.treeStands !== v.treeStands ||
+      last.showBuildings !== v.showBuildings
+    )
+      this.drawObstructions(v);
+    else {
+      // Only the choice changed: restyle the two footprints concerned (thousands may be drawn).
+      this.restyle(last, false);
+      this.restyle(v, true);
+    }
+  }
+
+  private restyle(v: SiteView, chosen: boolean): void {
+    const b = v.selectedBuilding;
+    if (b !== null && b !== undefined)
+      this.buildingLayers[b]?.setStyle(chosen ? { ...BUILDING_STYLE, ...SELECTED_OUTLINE } : BUILDING_STYLE);
+    const t = v.selectedTreeId;
+    if (t !== null && t !== undefined)
+      this.treeLayers.get(t)?.setStyle(chosen ? { ...TREE_STYLE, ...SELECTED_OUTLINE } : TREE_STYLE);
+  }
+
+  private drawAreas(v: SiteView): void {
     this.areas.clearLayers();
     this.ring.clearLayers();
-    this.obstructions.clearLayers();
     for (const a of v.protectedAreas) {
       const layer = L.geoJSON(a.geometry as Polygon, {
         style: { color: "#111", weight: 2.5, fill: false, interactive: false },
@@ -64,41 +115,27 @@ export class SiteLayer extends L.FeatureGroup {
         }
       }
     }
+  }
+
+  private drawObstructions(v: SiteView): void {
+    this.obstructions.clearLayers();
+    this.buildingLayers = [];
+    this.treeLayers = new Map();
     if (!v.showBuildings) return;
     v.buildings.forEach((b, i) => {
-      const h =
-        b.properties.height ?? (b.properties["building:levels"] ?? Number.NaN) * DEFAULT_METRES_PER_LEVEL;
       const layer = L.geoJSON(b.geometry as Polygon, {
-        style: {
-          color: "#3b2f2f",
-          weight: 1,
-          fillColor: "#8c7b70",
-          fillOpacity: 0.55,
-          ...(i === v.selectedBuilding ? SELECTED_OUTLINE : {}),
-        },
+        style: i === v.selectedBuilding ? { ...BUILDING_STYLE, ...SELECTED_OUTLINE } : BUILDING_STYLE,
       });
-      layer.bindTooltip(
-        textTooltip(
-          `${typeof b.properties.name === "string" ? b.properties.name : `Building ${i + 1}`}: ${Number.isFinite(h) ? `${h} m` : "default height"}`,
-        ),
-        {
-          sticky: true,
-        },
-      );
+      layer.bindTooltip(textTooltip(buildingLabel(b, i)), { sticky: true });
+      this.buildingLayers.push(layer);
       this.obstructions.addLayer(layer);
     });
     for (const t of v.treeStands) {
       const layer = L.geoJSON(t.geometry as Polygon, {
-        style: {
-          color: "#24452a",
-          weight: 1,
-          fillColor: "#4f7a52",
-          fillOpacity: 0.45,
-          dashArray: "2 3",
-          ...(t.id === v.selectedTreeId ? SELECTED_OUTLINE : {}),
-        },
+        style: t.id === v.selectedTreeId ? { ...TREE_STYLE, ...SELECTED_OUTLINE } : TREE_STYLE,
       });
       layer.bindTooltip(textTooltip(`${t.name ?? t.id}: canopy ${t.canopyHeightM} m`), { sticky: true });
+      this.treeLayers.set(t.id, layer);
       this.obstructions.addLayer(layer);
     }
   }

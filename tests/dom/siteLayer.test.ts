@@ -1,0 +1,74 @@
+// @vitest-environment jsdom
+import { describe, expect, it } from "vitest";
+import type { AreaGeometry, BuildingFeature } from "../../src/io/planSchema";
+import L from "../../src/map/leaflet";
+import { SiteLayer, type SiteView } from "../../src/map/siteLayer";
+
+function square(lon: number, lat: number, d: number): AreaGeometry {
+  return {
+    type: "Polygon",
+    coordinates: [
+      [
+        [lon, lat],
+        [lon + d, lat],
+        [lon + d, lat + d],
+        [lon, lat + d],
+        [lon, lat],
+      ],
+    ],
+  };
+}
+
+function mapOnPage(): L.Map {
+  const el = document.createElement("div");
+  Object.defineProperty(el, "clientWidth", { value: 800 });
+  Object.defineProperty(el, "clientHeight", { value: 600 });
+  document.body.appendChild(el);
+  return L.map(el, { center: [47.0, 8.0], zoom: 15, zoomAnimation: false, fadeAnimation: false });
+}
+
+/** The footprints' polygons in drawing order (buildings, then tree stands). */
+function footprints(layer: SiteLayer): L.Polygon[] {
+  const group = (layer as unknown as { obstructions: L.FeatureGroup }).obstructions;
+  const out: L.Polygon[] = [];
+  group.eachLayer((g) => (g as L.GeoJSON).eachLayer((p) => out.push(p as L.Polygon)));
+  return out;
+}
+
+describe("site layer", () => {
+  const buildings: BuildingFeature[] = [0, 1, 2].map((k) => ({
+    type: "Feature",
+    geometry: square(8 + k * 0.001, 47, 0.0002),
+    properties: { height: 10 + k },
+  }));
+  const base: SiteView = {
+    protectedAreas: [{ id: "a", name: "A", geometry: square(7.99, 46.99, 0.02) }],
+    approachRingDepthM: 300,
+    buildings,
+    treeStands: [{ id: "t1", geometry: square(8.01, 47, 0.001), canopyHeightM: 15 }],
+    showBuildings: true,
+  };
+
+  it("outlines the chosen building or tree stand, and a new choice restyles without drawing again", () => {
+    const map = mapOnPage();
+    const layer = new SiteLayer().addTo(map);
+    layer.setSite({ ...base, selectedBuilding: 1 });
+    const drawn = footprints(layer);
+    expect(drawn).toHaveLength(4);
+    expect(drawn.map((p) => p.options.weight)).toEqual([1, 3, 1, 1]);
+    const ring = (layer as unknown as { ring: L.FeatureGroup }).ring.getLayers()[0];
+    layer.setSite({ ...base, selectedBuilding: null, selectedTreeId: "t1" });
+    // The same polygon objects, restyled; the approach ring (turf buffer) was not made again.
+    expect(footprints(layer)).toEqual(drawn);
+    expect(drawn.map((p) => p.options.weight)).toEqual([1, 1, 1, 3]);
+    expect(drawn[3].options.color).toBe("#e07b00");
+    expect((layer as unknown as { ring: L.FeatureGroup }).ring.getLayers()[0]).toBe(ring);
+    // New buildings: drawn again, with the choice.
+    layer.setSite({ ...base, buildings: buildings.slice(1), selectedBuilding: 0 });
+    const again = footprints(layer);
+    expect(again).toHaveLength(3);
+    expect(again[0]).not.toBe(drawn[1]);
+    expect(again.map((p) => p.options.weight)).toEqual([3, 1, 1]);
+    map.remove();
+  });
+});
