@@ -8,6 +8,7 @@ import { strFromU8, strToU8, unzipSync, zipSync } from "fflate";
 import type { Plan } from "../io/planSchema";
 import { type DemAsset, useAssets } from "./assets";
 import { rememberRecent, storedDem } from "./autosave";
+import { loadDemo } from "./demo";
 import { planToText, readPlanText } from "./planText";
 import { say } from "./session";
 import { usePlanStore } from "./store";
@@ -134,4 +135,17 @@ export async function savePlanToFile(plan: Plan): Promise<void> {
 export async function saveBundleToFile(plan: Plan, dem: DemAsset | null): Promise<void> {
   const blob = new Blob([makeBundle(plan, dem) as Uint8Array<ArrayBuffer>], { type: "application/zip" });
   await fileSave(blob, { fileName: planFileName(plan, ".zip"), extensions: [".zip"] }).catch(() => undefined);
+}
+
+/** Opens an embedded demo site in place of the current plan (which goes to the recent list). */
+export async function openDemo(id: string): Promise<void> {
+  const demo = await loadDemo(id);
+  if (demo.missing) {
+    say("error", demo.problem ?? `The demo site ${id} could not be opened.`);
+    return;
+  }
+  useAssets.getState().setDem(demo.dem);
+  replacePlan(demo.plan);
+  if (demo.problem) say("warning", demo.problem);
+  else say("info", `Opened the demo site ${demo.plan.site.name}.`);
 }

@@ -704,6 +704,26 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await waitComputed(page);
   });
 
+  it("opens the second demo site from the list and comes back to the plan it replaced", async () => {
+    const name = await text(page, "site-name");
+    const recent = page.getByTestId("recent-plans");
+    const g0 = await gen(page);
+    await recent.selectOption({ label: "Container terminal (invented demo site)" });
+    await expect.poll(() => text(page, "site-name")).toBe("Container terminal (invented demo site)");
+    await waitNewRun(page, g0);
+    // Flat ground, said plainly; stacked containers leave gaps between them at 10 m.
+    await expect.poll(() => text(page, "run-notes")).toMatch(/No DEM: the ground is flat at 62 m/);
+    expect(await summaryFigures(page)).toMatch(/Protected area covered/);
+    await shoot(page, "container-terminal");
+    const entry = async () =>
+      (await recent.locator("option").allTextContents()).find((t) => t.startsWith(`${name} (`));
+    await expect.poll(entry).toBeTruthy();
+    const g1 = await gen(page);
+    await recent.selectOption({ label: (await entry()) as string });
+    await expect.poll(() => text(page, "site-name")).toBe(name);
+    await waitNewRun(page, g1);
+  });
+
   it("keeps the plan it replaces in the recent list: New, then Recent brings it back with its DEM", async () => {
     await openTab(page, "site");
     // An edit saved to no file: the site renamed.

@@ -3,7 +3,15 @@ import { useEffect, useState } from "react";
 import { useAssets } from "../assets";
 import { type RecentPlan, recentPlans, recentPlanText, recentSettled } from "../autosave";
 import { useCoverage } from "../coverageState";
-import { loadOpened, openPlanFromPicker, replacePlan, saveBundleToFile, savePlanToFile } from "../files";
+import { demoSites } from "../demo";
+import {
+  loadOpened,
+  openDemo,
+  openPlanFromPicker,
+  replacePlan,
+  saveBundleToFile,
+  savePlanToFile,
+} from "../files";
 import { newPlanAround } from "../newPlan";
 import { readPlanText } from "../planText";
 import { say } from "../session";
@@ -24,6 +32,10 @@ function BarButton(p: {
     </button>
   );
 }
+
+/** Values of the recent-plans list that open a demo site (recent entries start "recent:"). */
+const DEMO_PREFIX = "demo:";
+const DEMOS = demoSites();
 
 export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, number] }) {
   const plan = usePlanStore((s) => s.plan);
@@ -88,17 +100,33 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
           testId="save-bundle"
         />
         <select
-          aria-label="Recent plans"
+          aria-label="Recent plans and demo sites"
+          className="recent-select"
           value=""
-          onChange={(e) => e.target.value && void openRecent(e.target.value)}
+          onChange={(e) => {
+            const v = e.target.value;
+            if (v.startsWith(DEMO_PREFIX)) void openDemo(v.slice(DEMO_PREFIX.length));
+            else if (v) void openRecent(v);
+          }}
           data-testid="recent-plans"
         >
           <option value="">Recent…</option>
-          {recent.map((r) => (
-            <option key={r.key} value={r.key}>
-              {r.name} ({r.savedAtIso.slice(0, 16).replace("T", " ")})
-            </option>
-          ))}
+          {recent.length > 0 && (
+            <optgroup label="Recent plans">
+              {recent.map((r) => (
+                <option key={r.key} value={r.key}>
+                  {r.name} ({r.savedAtIso.slice(0, 16).replace("T", " ")})
+                </option>
+              ))}
+            </optgroup>
+          )}
+          <optgroup label="Demo sites">
+            {DEMOS.map((d) => (
+              <option key={d.id} value={DEMO_PREFIX + d.id}>
+                {d.name}
+              </option>
+            ))}
+          </optgroup>
         </select>
         <ImportButton />
         <span className="sep" />
