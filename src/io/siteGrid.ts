@@ -11,7 +11,7 @@
  *   buffered by d is its bounding box grown by d on every side), joined with every post, grown by
  *   a margin; snapped outward to whole cells so that the origin is a multiple of the cell size.
  * - Cells: square; with cellSizeM "auto" the smallest of AUTO_CELL_SIZES_M that keeps the count
- *   at or below MAX_AUTO_CELLS.
+ *   at or below MAX_AUTO_CELLS and the run's memory estimate inside the budget.
  * - Memory: estimateRunMemoryBytes gives what a run stores (formula below); checkRunMemory refuses
  *   a run above RUN_MEMORY_BUDGET_BYTES with a message that says what to change.
  */
@@ -22,7 +22,9 @@ import type { Plan } from "./planSchema.ts";
 /**
  * Cap on the cell count of an automatic grid: 4 M cells (e.g. 2000 × 2000, 10 km × 10 km at 5 m).
  * The engine's interactive target is a full 10-radar, 3-height evaluation of 4 M cells in 1.5 s
- * on two cores, and such a run (about 1.7 GiB by estimateRunMemoryBytes) stays inside RUN_MEMORY_BUDGET_BYTES.
+ * on two cores; such a run with one target class (about 1.7 GiB by estimateRunMemoryBytes) stays
+ * inside RUN_MEMORY_BUDGET_BYTES. A run that would not (more classes, radars or heights) takes the
+ * next larger cell size instead (autoCellSizeM).
  */
 export const MAX_AUTO_CELLS = 4_000_000;
 
@@ -59,13 +61,15 @@ export const MAX_RADARS_PER_RUN = 254;
 export const GRID_BYTES_PER_CELL = 4 + 4 + 1 + 1;
 /** Per radar: horizon slope f32 + obstruction distance f32 + lowest visible height f32. */
 export const RADAR_BYTES_PER_CELL = 4 + 4 + 4;
-/** Per radar and height: Pd f32 + SNR dB f32 + not-covered reason u8. */
-export const RADAR_HEIGHT_BYTES_PER_CELL = 4 + 4 + 1;
+/** Per radar and height: SNR dB f32 (for a 0 dBsm target, shared by the classes). */
+export const RADAR_HEIGHT_BYTES_PER_CELL = 4;
+/** Per radar and slice (a class judged at a height): Pd f32 + not-covered reason u8. */
+export const RADAR_SLICE_BYTES_PER_CELL = 4 + 1;
 /**
- * Per height, fused: combined Pd f32 + overlap u8 + best radar u8 + gap u8, twice (the page's copy and
+ * Per slice, fused: combined Pd f32 + overlap u8 + best radar u8 + gap u8, twice (the page's copy and
  * the one the worker keeps for the next release, fusionMemo.ts), plus the cell state u8, rounded up.
  */
-export const FUSED_HEIGHT_BYTES_PER_CELL = 2 * (4 + 1 + 1 + 1) + 1 + 1;
+export const FUSED_SLICE_BYTES_PER_CELL = 2 * (4 + 1 + 1 + 1) + 1 + 1;
 
 /** Thrown by siteGridFrame for a site the grid cannot hold; `name` is stable for the worker boundary. */
 export class SiteGridError extends Error {
@@ -139,10 +143,19 @@ function positionsOfPlanAreas(plan: Plan): number[][] {
   return out;
 }
 
-/** The cell size an automatic grid takes for an extent of widthM × heightM, m. */
-export function autoCellSizeM(widthM: number, heightM: number): number {
+/**
+ * The cell size an automatic grid takes for an extent of widthM × heightM, m: the smallest of
+ * AUTO_CELL_SIZES_M with at most MAX_AUTO_CELLS cells and, at runBytesPerCell, a run inside the budget.
+ */
+export function autoCellSizeM(
+  widthM: number,
+  heightM: number,
+  runBytesPerCell = 0,
+  budgetBytes: number = RUN_MEMORY_BUDGET_BYTES,
+): number {
   for (const s of AUTO_CELL_SIZES_M) {
-    if (Math.ceil(widthM / s) * Math.ceil(heightM / s) <= MAX_AUTO_CELLS) return s;
+    const cells = Math.ceil(widthM / s) * Math.ceil(heightM / s);
+    if (cells <= MAX_AUTO_CELLS && cells * runBytesPerCell <= budgetBytes) return s;
   }
   return AUTO_CELL_SIZES_M[AUTO_CELL_SIZES_M.length - 1];
 }
@@ -250,7 +263,7 @@ export function siteGridFrame(plan: Plan): SiteGrid {
   }
   const autoCellSize = plan.analysis.cellSizeM === "auto";
   const cellSizeM = autoCellSize
-    ? autoCellSizeM(maxX - minX, maxY - minY)
+    ? autoCellSizeM(maxX - minX, maxY - minY, runBytesPerCellOf(plan))
     : (plan.analysis.cellSizeM as number);
   const originX = Math.floor(minX / cellSizeM) * cellSizeM;
   const originY = Math.ceil(maxY / cellSizeM) * cellSizeM;
@@ -260,39 +273,62 @@ export function siteGridFrame(plan: Plan): SiteGrid {
   return { frame, toGrid, toLonLat, zone, epsg: utmEpsg(zone), cellCount: width * height, autoCellSize };
 }
 
-/** The size of a run: grid cells, radars taking part, target heights. */
+/** The size of a run: grid cells, radars taking part, target heights, slices (classes judged per height). */
 export interface RunSize {
   cells: number;
   radars: number;
   heights: number;
+  /** (height, target class) pairs judged: heights × classes when every class is judged at every height. */
+  slices: number;
 }
 
 /**
  * Memory a run stores, bytes:
  *   cells × ( GRID_BYTES_PER_CELL
- *           + radars × (RADAR_BYTES_PER_CELL + heights × RADAR_HEIGHT_BYTES_PER_CELL)
- *           + heights × FUSED_HEIGHT_BYTES_PER_CELL )
- * = cells × (10 + radars × (12 + 9 · heights) + 16 · heights).
+ *           + radars × (RADAR_BYTES_PER_CELL + heights × RADAR_HEIGHT_BYTES_PER_CELL
+ *                       + slices × RADAR_SLICE_BYTES_PER_CELL)
+ *           + slices × FUSED_SLICE_BYTES_PER_CELL )
+ * = cells × (10 + radars × (12 + 4 · heights + 5 · slices) + 16 · slices).
  * Negative or non-finite counts give NaN.
  */
 export function estimateRunMemoryBytes(size: RunSize): number {
-  const { cells, radars, heights } = size;
-  if (!(cells >= 0 && radars >= 0 && heights >= 0) || !Number.isFinite(cells + radars + heights))
+  const { cells, radars, heights, slices } = size;
+  if (
+    !(cells >= 0 && radars >= 0 && heights >= 0 && slices >= 0) ||
+    !Number.isFinite(cells + radars + heights + slices)
+  )
     return Number.NaN;
+  return cells * bytesPerCell(radars, heights, slices);
+}
+
+function bytesPerCell(radars: number, heights: number, slices: number): number {
   return (
-    cells *
-    (GRID_BYTES_PER_CELL +
-      radars * (RADAR_BYTES_PER_CELL + heights * RADAR_HEIGHT_BYTES_PER_CELL) +
-      heights * FUSED_HEIGHT_BYTES_PER_CELL)
+    GRID_BYTES_PER_CELL +
+    radars *
+      (RADAR_BYTES_PER_CELL + heights * RADAR_HEIGHT_BYTES_PER_CELL + slices * RADAR_SLICE_BYTES_PER_CELL) +
+    slices * FUSED_SLICE_BYTES_PER_CELL
   );
 }
 
-/** The run size of a plan on its grid: enabled posts and analysis heights. */
+/** Bytes per cell of a run of the plan (estimateRunMemoryBytes of one cell). */
+function runBytesPerCellOf(plan: Plan): number {
+  const radars = plan.posts.filter((p) => p.enabled).length;
+  return bytesPerCell(radars, plan.analysis.targetHeightsM.length, slicesOf(plan));
+}
+
+/** Slices of a plan: each class at each of its heights that is an analysis height. */
+function slicesOf(plan: Plan): number {
+  const heights = new Set(plan.analysis.targetHeightsM);
+  return plan.targetClasses.reduce((n, t) => n + t.heightsAglM.filter((h) => heights.has(h)).length, 0);
+}
+
+/** The run size of a plan on its grid: enabled posts, analysis heights, judged slices. */
 export function runSizeOf(plan: Plan, grid: Pick<SiteGrid, "cellCount">): RunSize {
   return {
     cells: grid.cellCount,
     radars: plan.posts.filter((p) => p.enabled).length,
     heights: plan.analysis.targetHeightsM.length,
+    slices: slicesOf(plan),
   };
 }
 
@@ -319,7 +355,7 @@ export function checkRunMemory(size: RunSize, budgetBytes: number = RUN_MEMORY_B
     return {
       ok: false,
       bytes,
-      message: `this run needs about ${gib(bytes)} (${size.cells.toLocaleString("en-US")} cells, ${size.radars} radars, ${size.heights} heights), above the ${gib(budgetBytes)} budget; use a larger analysis.cellSizeM, fewer target heights or fewer enabled posts`,
+      message: `this run needs about ${gib(bytes)} (${size.cells.toLocaleString("en-US")} cells, ${size.radars} radars, ${size.heights} heights, ${size.slices} maps of a target class at a height), above the ${gib(budgetBytes)} budget; use a larger analysis.cellSizeM, fewer target heights or classes, or fewer enabled posts`,
     };
   }
   return { ok: true, bytes };

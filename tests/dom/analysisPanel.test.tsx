@@ -13,12 +13,10 @@ import { samplePlan } from "./samplePlan";
 describe("analysis panel", () => {
   it("offers the smallest cell size that fits the memory budget and applies it", async () => {
     const plan = samplePlan();
-    // Half-metre cells over the sample site with 40 heights do not fit in 2 GiB.
-    plan.analysis = {
-      ...plan.analysis,
-      cellSizeM: 0.5,
-      targetHeightsM: Array.from({ length: 40 }, (_, i) => 5 * (i + 1)),
-    };
+    // Half-metre cells over the sample site with its class judged at 40 heights do not fit in 2 GiB.
+    const heights = Array.from({ length: 40 }, (_, i) => 5 * (i + 1));
+    plan.analysis = { ...plan.analysis, cellSizeM: 0.5, targetHeightsM: heights };
+    plan.targetClasses = plan.targetClasses.map((t) => ({ ...t, heightsAglM: heights }));
     usePlanStore.getState().load(plan);
     const fit = cellSizeToFitM(plan);
     expect(fit).toBeGreaterThan(0.5);

@@ -2,6 +2,7 @@ import fc from "fast-check";
 import { describe, expect, it } from "vitest";
 import {
   AUTO_CELL_SIZES_M,
+  autoCellSizeM,
   cellSizeToFitM,
   checkPlanForRun,
   checkRunMemory,
@@ -122,6 +123,22 @@ describe("site grid", () => {
     const fixed = siteGridFrame(plan((p) => (p.analysis.cellSizeM = 2.5)));
     expect(fixed.frame.cellSizeM).toBe(2.5);
     expect(fixed.autoCellSize).toBe(false);
+    // The memory budget too: 10 km × 10 km at 5 m is 4 M cells; with one class and 10 radars
+    // (448 bytes a cell, 1.67 GiB) that fits, with two classes (646 bytes, 2.41 GiB) it takes 10 m.
+    expect(autoCellSizeM(10_000, 10_000, 448)).toBe(5);
+    expect(autoCellSizeM(10_000, 10_000, 646)).toBe(10);
+    // On a plan: enough enabled posts push an automatic grid to the next size, and it then fits.
+    const many = plan((p) => {
+      p.approachRingDepthM = 4_500;
+      p.posts = Array.from({ length: 12 }, (_, k) => ({ ...p.posts[0], id: `p${k}`, enabled: true }));
+    });
+    const at5 = { ...many, analysis: { ...many.analysis, cellSizeM: 5 } };
+    // At 5 m the count is under the cap but the run is over the budget.
+    expect(siteGridFrame(at5).cellCount).toBeLessThanOrEqual(MAX_AUTO_CELLS);
+    expect(checkRunMemory(runSizeOf(at5, siteGridFrame(at5))).ok).toBe(false);
+    const g = siteGridFrame(many);
+    expect(g.frame.cellSizeM).toBe(10);
+    expect(checkRunMemory(runSizeOf(many, g)).ok).toBe(true);
   });
 
   it("[SG4] southern hemisphere and antimeridian-adjacent sites get their own zone; bad sites are refused", () => {
@@ -178,43 +195,63 @@ describe("site grid", () => {
   });
 
   it("[SG6] the memory estimate follows its formula, and a run above the budget is refused with a clear message", () => {
-    // 10 + radars × (12 + 9·heights) + 16·heights bytes per cell.
-    expect(estimateRunMemoryBytes({ cells: 1, radars: 0, heights: 0 })).toBe(10);
-    expect(estimateRunMemoryBytes({ cells: 1, radars: 1, heights: 1 })).toBe(10 + 21 + 16);
-    expect(estimateRunMemoryBytes({ cells: 1000, radars: 10, heights: 3 })).toBe(1000 * (10 + 10 * 39 + 48));
-    expect(estimateRunMemoryBytes({ cells: -1, radars: 1, heights: 1 })).toBeNaN();
-    expect(estimateRunMemoryBytes({ cells: Number.NaN, radars: 1, heights: 1 })).toBeNaN();
-    // The design's interactive case fits: 4 M cells, 10 radars, 3 heights.
-    expect(checkRunMemory({ cells: MAX_AUTO_CELLS, radars: 10, heights: 3 }).ok).toBe(true);
-    const huge = checkRunMemory({ cells: 40_000_000, radars: 10, heights: 3 });
+    // 10 + radars × (12 + 4·heights + 5·slices) + 16·slices bytes per cell.
+    const one = (cells: number, radars: number, heights: number) => ({
+      cells,
+      radars,
+      heights,
+      slices: heights,
+    });
+    expect(estimateRunMemoryBytes(one(1, 0, 0))).toBe(10);
+    expect(estimateRunMemoryBytes(one(1, 1, 1))).toBe(10 + 21 + 16);
+    expect(estimateRunMemoryBytes(one(1000, 10, 3))).toBe(1000 * (10 + 10 * 39 + 48));
+    // Two classes at each of three heights: six maps, each with its Pd and reason per radar.
+    expect(estimateRunMemoryBytes({ cells: 1000, radars: 10, heights: 3, slices: 6 })).toBe(
+      1000 * (10 + 10 * (12 + 12 + 30) + 96),
+    );
+    expect(estimateRunMemoryBytes(one(-1, 1, 1))).toBeNaN();
+    expect(estimateRunMemoryBytes(one(Number.NaN, 1, 1))).toBeNaN();
+    expect(estimateRunMemoryBytes({ cells: 1, radars: 1, heights: 1, slices: -1 })).toBeNaN();
+    // The design's interactive case fits: 4 M cells, 10 radars, 3 heights, one class.
+    expect(checkRunMemory(one(MAX_AUTO_CELLS, 10, 3)).ok).toBe(true);
+    const huge = checkRunMemory({ cells: 40_000_000, radars: 10, heights: 3, slices: 6 });
     expect(huge.ok).toBe(false);
     if (!huge.ok) {
       expect(huge.message).toBe(
-        "this run needs about 16.69 GiB (40,000,000 cells, 10 radars, 3 heights), above the 2.00 GiB budget; use a larger analysis.cellSizeM, fewer target heights or fewer enabled posts",
+        "this run needs about 24.07 GiB (40,000,000 cells, 10 radars, 3 heights, 6 maps of a target class at a height), above the 2.00 GiB budget; use a larger analysis.cellSizeM, fewer target heights or classes, or fewer enabled posts",
       );
     }
-    expect(checkRunMemory({ cells: 100, radars: 300, heights: 1 }).ok).toBe(false);
-    expect(checkRunMemory({ cells: 100, radars: 1, heights: 1 }, 100).ok).toBe(false);
+    expect(checkRunMemory(one(100, 300, 1)).ok).toBe(false);
+    expect(checkRunMemory(one(100, 1, 1), 100).ok).toBe(false);
     // Monotone in every count.
     fc.assert(
-      fc.property(fc.nat(1e7), fc.nat(50), fc.nat(10), (cells, radars, heights) => {
-        const b = estimateRunMemoryBytes({ cells, radars, heights });
-        expect(estimateRunMemoryBytes({ cells: cells + 1, radars, heights })).toBeGreaterThan(b);
-        expect(estimateRunMemoryBytes({ cells, radars: radars + 1, heights })).toBeGreaterThanOrEqual(b);
-        expect(estimateRunMemoryBytes({ cells, radars, heights: heights + 1 })).toBeGreaterThanOrEqual(b);
+      fc.property(fc.nat(1e7), fc.nat(50), fc.nat(10), fc.nat(10), (cells, radars, heights, slices) => {
+        const b = estimateRunMemoryBytes({ cells, radars, heights, slices });
+        expect(estimateRunMemoryBytes({ cells: cells + 1, radars, heights, slices })).toBeGreaterThan(b);
+        expect(estimateRunMemoryBytes({ cells, radars: radars + 1, heights, slices })).toBeGreaterThanOrEqual(
+          b,
+        );
+        expect(
+          estimateRunMemoryBytes({ cells, radars, heights: heights + 1, slices }),
+        ).toBeGreaterThanOrEqual(b);
+        expect(estimateRunMemoryBytes({ cells, radars, heights, slices: slices + 1 })).toBeGreaterThanOrEqual(
+          b,
+        );
       }),
     );
     const p = plan();
     const size = runSizeOf(p, siteGridFrame(p));
     expect(size.radars).toBe(1); // the second post is disabled
     expect(size.heights).toBe(3);
+    // Small drone at 10 and 50 m, fixed wing at 50 and 120 m.
+    expect(size.slices).toBe(4);
     expect(RUN_MEMORY_BUDGET_BYTES).toBe(2 * 1024 ** 3);
   });
 
   it("[SG6] checkPlanForRun turns grid and memory refusals into named errors", () => {
     const ok = checkPlanForRun(plan());
     expect(ok.ok && ok.memoryBytes).toBe(
-      estimateRunMemoryBytes({ cells: ok.ok ? ok.grid.cellCount : 0, radars: 1, heights: 3 }),
+      estimateRunMemoryBytes({ cells: ok.ok ? ok.grid.cellCount : 0, radars: 1, heights: 3, slices: 4 }),
     );
     const fine = checkPlanForRun(
       plan((p) => (p.analysis.cellSizeM = 0.5)),
