@@ -30,6 +30,8 @@ export function NumberField(p: NumberFieldProps) {
     setError(null);
   }, [p.value]);
   const commit = () => {
+    // Untouched (e.g. focus passing through): no change, even where the shown value is rounded.
+    if (text === shown(p.value)) return setError(null);
     const v = Number(text.trim().replace(",", "."));
     if (text.trim() === "" || !Number.isFinite(v)) return setError(`${p.label}: "${text}" is not a number`);
     if (p.min !== undefined && v < p.min)

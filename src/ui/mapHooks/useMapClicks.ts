@@ -7,11 +7,11 @@ import type L from "../../map/leaflet";
 import { useCoverage } from "../coverageState";
 import { runPoint } from "../engine";
 import { addPost, updatePost } from "../planEdits";
+import { ROOF_MAST_M } from "../postMoves";
 import { obstructionUnder, roofUnder } from "../roofs";
 import { selectedSlice } from "../selection";
 import { planTabPatch, say, useSession } from "../session";
 import { usePlanStore } from "../store";
-import { ROOF_MAST_M } from "./usePostsLayer";
 
 export function inspectAt(lonDeg: number, latDeg: number): void {
   const s = useSession.getState();

@@ -12,12 +12,9 @@ import { PostsLayer, type PostView } from "../../map/postsLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
 import { evaluateScheduledNow, runEvaluation } from "../engine";
 import { updatePost } from "../planEdits";
-import { roofUnder } from "../roofs";
-import { planTabPatch, say, useSession } from "../session";
+import { movePostTo } from "../postMoves";
+import { planTabPatch, useSession } from "../session";
 import { usePlanStore } from "../store";
-
-/** Extra mast on a roof above the roof top when a post is snapped to a roof, m. */
-export const ROOF_MAST_M = 3;
 
 function postViews(
   plan: Plan,
@@ -94,39 +91,7 @@ export function usePostsLayer(map: L.Map | null): void {
         },
         onDragEnd: (id, lonDeg, latDeg) => {
           previewRef.current = null;
-          const plan = usePlanStore.getState().plan;
-          if (!plan) return;
-          const roof = roofUnder(plan, lonDeg, latDeg);
-          const post = plan.posts.find((p) => p.id === id);
-          if (roof && post && post.mounting !== "roof") {
-            const mast = roof.heightM + ROOF_MAST_M;
-            usePlanStore
-              .getState()
-              .change(
-                (p) =>
-                  updatePost(p, id, { position: { lonDeg, latDeg }, mounting: "roof", mastHeightM: mast }),
-                "move post onto a roof",
-              );
-            say(
-              "info",
-              `${post.name} is on a roof ${roof.heightM} m high: mounted at ${mast} m above ground (roof + ${ROOF_MAST_M} m mast). Change it under Posts.`,
-            );
-          } else if (!roof && post?.mounting === "roof") {
-            usePlanStore
-              .getState()
-              .change(
-                (p) => updatePost(p, id, { position: { lonDeg, latDeg }, mounting: "ground" }),
-                "move post off a roof",
-              );
-            say(
-              "info",
-              `${post.name} is no longer on a building: now a ground mast of ${post.mastHeightM} m. Check the mast height under Posts.`,
-            );
-          } else {
-            usePlanStore
-              .getState()
-              .change((p) => updatePost(p, id, { position: { lonDeg, latDeg } }), "move post");
-          }
+          movePostTo(id, lonDeg, latDeg);
           evaluateScheduledNow();
         },
         onBoresight: (id, azDeg, done) => {

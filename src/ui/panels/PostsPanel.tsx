@@ -1,10 +1,15 @@
 /** Posts: the list (select, enable), and the selected post's radar, mast, boresight, tilt and sector. */
 import type { Post } from "../../io/planSchema";
+import { UTM_MAX_LAT_DEG, UTM_MIN_LAT_DEG } from "../../io/siteGrid";
 import { CheckField, NumberField, SelectField, TextField } from "../components/NumberField";
 import { formatLatLon } from "../numberText";
 import { removePost, updatePost } from "../planEdits";
+import { movePostTo } from "../postMoves";
 import { useSession } from "../session";
 import { usePlanStore } from "../store";
+
+/** Decimal places of a typed position: 1e-6° is about 0.1 m on the ground. */
+const COORD_DIGITS = 6;
 
 function PostEditor({ post }: { post: Post }) {
   const plan = usePlanStore((s) => s.plan);
@@ -103,9 +108,29 @@ function PostEditor({ post }: { post: Post }) {
           />
         </>
       )}
+      <NumberField
+        label="Latitude (WGS 84, north positive)"
+        unit="°"
+        min={UTM_MIN_LAT_DEG}
+        max={UTM_MAX_LAT_DEG}
+        digits={COORD_DIGITS}
+        value={post.position.latDeg}
+        onCommit={(latDeg) => movePostTo(post.id, post.position.lonDeg, latDeg)}
+        testId="post-lat"
+      />
+      <NumberField
+        label="Longitude (WGS 84, east positive)"
+        unit="°"
+        min={-180}
+        max={180}
+        digits={COORD_DIGITS}
+        value={post.position.lonDeg}
+        onCommit={(lonDeg) => movePostTo(post.id, lonDeg, post.position.latDeg)}
+        testId="post-lon"
+      />
       <p className="muted">
-        {formatLatLon(post.position.latDeg, post.position.lonDeg)} — drag the post on the map to move it, the
-        orange handle to turn it.
+        {formatLatLon(post.position.latDeg, post.position.lonDeg)} — type surveyed coordinates above, or drag
+        the post on the map to move it and the orange handle to turn it.
       </p>
       <button
         type="button"
