@@ -101,6 +101,12 @@ export function addTreeStand(plan: Plan, geometry: AreaGeometry, canopyHeightM: 
   return { ...plan, terrain: { ...plan.terrain, treeStands: [...plan.terrain.treeStands, t] } };
 }
 
+/** Removes a target class; the last one stays (a plan judges at least one). */
+export function removeTargetClass(plan: Plan, id: string): Plan {
+  if (plan.targetClasses.length <= 1 || !plan.targetClasses.some((t) => t.id === id)) return plan;
+  return { ...plan, targetClasses: plan.targetClasses.filter((t) => t.id !== id) };
+}
+
 export function updateTargetClass(plan: Plan, id: string, patch: Partial<TargetClass>): Plan {
   return { ...plan, targetClasses: plan.targetClasses.map((t) => (t.id === id ? { ...t, ...patch } : t)) };
 }

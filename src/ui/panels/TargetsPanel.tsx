@@ -1,7 +1,7 @@
 /** Target classes (RCS, Swerling case, speed, judged heights) and the detection requirement. */
 import type { TargetClass } from "../../io/planSchema";
 import { CheckField, NumberField, SelectField, TextField } from "../components/NumberField";
-import { updateTargetClass } from "../planEdits";
+import { removeTargetClass, updateTargetClass } from "../planEdits";
 import { freshId, usePlanStore } from "../store";
 
 const SWERLING = [0, 1, 2, 3, 4].map((k) => ({
@@ -9,7 +9,7 @@ const SWERLING = [0, 1, 2, 3, 4].map((k) => ({
   label: `Swerling ${k}${k === 0 ? " (steady)" : ""}`,
 }));
 
-function ClassEditor({ t, heights }: { t: TargetClass; heights: number[] }) {
+function ClassEditor({ t, heights, only }: { t: TargetClass; heights: number[]; only: boolean }) {
   const change = usePlanStore((s) => s.change);
   const edit = (patch: Partial<TargetClass>, label: string) =>
     change((p) => updateTargetClass(p, t.id, patch), label);
@@ -58,6 +58,16 @@ function ClassEditor({ t, heights }: { t: TargetClass; heights: number[] }) {
           ))}
         </div>
       </div>
+      <button
+        type="button"
+        disabled={only}
+        title={only ? "A plan judges at least one target class" : undefined}
+        aria-label={`Delete ${t.name}`}
+        data-testid={`delete-class-${t.id}`}
+        onClick={() => change((p) => removeTargetClass(p, t.id), "delete target class")}
+      >
+        Delete class
+      </button>
     </fieldset>
   );
 }
@@ -102,7 +112,12 @@ export function TargetsPanel() {
       />
       <h3>Target classes</h3>
       {plan.targetClasses.map((t) => (
-        <ClassEditor key={t.id} t={t} heights={plan.analysis.targetHeightsM} />
+        <ClassEditor
+          key={t.id}
+          t={t}
+          heights={plan.analysis.targetHeightsM}
+          only={plan.targetClasses.length <= 1}
+        />
       ))}
       <button
         type="button"
