@@ -40,12 +40,23 @@ export const usePlanStore = create<PlanStore>()(
       },
     }),
     {
-      partialize: (s) => ({ plan: s.plan }),
+      // The label travels with its plan: undo brings back the label of the change that made the plan
+      // it returns to, so "Undo …" always names the change the next undo takes back.
+      partialize: (s) => ({ plan: s.plan, lastChangeLabel: s.lastChangeLabel }),
       equality: (a, b) => a.plan === b.plan,
       limit: UNDO_LIMIT,
     },
   ),
 );
+
+/** What the next undo and redo would take back or bring again (null when there is nothing). */
+export function historyLabels(h: ReturnType<typeof usePlanStore.temporal.getState>, current: string) {
+  const next = h.futureStates[h.futureStates.length - 1];
+  return {
+    undo: h.pastStates.length > 0 ? current : null,
+    redo: next ? (next.lastChangeLabel ?? "edit") : null,
+  };
+}
 
 /** Undo the last plan change; false when there is nothing to undo. */
 export function undo(): boolean {

@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { parsePlan } from "../../src/io/planValidation";
 import { addPost, setAnalysisHeights, updatePost } from "../../src/ui/planEdits";
 import { planToText, readPlanText } from "../../src/ui/planText";
-import { redo, undo, usePlanStore } from "../../src/ui/store";
+import { historyLabels, redo, undo, usePlanStore } from "../../src/ui/store";
 import { samplePlan } from "./samplePlan";
 
 describe("plan store with undo/redo", () => {
@@ -29,6 +29,22 @@ describe("plan store with undo/redo", () => {
     expect(redo()).toBe(true);
     expect(redo()).toBe(false);
     expect(usePlanStore.getState().plan?.posts).toHaveLength(2);
+  });
+
+  it("names the change the next undo takes back and the next redo brings again", () => {
+    const s = usePlanStore.getState();
+    const labels = () =>
+      historyLabels(usePlanStore.temporal.getState(), usePlanStore.getState().lastChangeLabel);
+    expect(labels()).toEqual({ undo: null, redo: null });
+    s.change((p) => updatePost(p, "post-1", { mastHeightM: 20 }), "mast height");
+    s.change((p) => addPost(p, 15.301, 47.101).plan, "add post");
+    expect(labels()).toEqual({ undo: "add post", redo: null });
+    undo();
+    expect(labels()).toEqual({ undo: "mast height", redo: "add post" });
+    undo();
+    expect(labels()).toEqual({ undo: null, redo: "mast height" });
+    redo();
+    expect(labels()).toEqual({ undo: "mast height", redo: "add post" });
   });
 
   it("records no step for a change that changes nothing", () => {

@@ -15,7 +15,7 @@ import {
 import { newPlanAround } from "../newPlan";
 import { readPlanText } from "../planText";
 import { say } from "../session";
-import { redo, undo, useHistory, usePlanStore } from "../store";
+import { historyLabels, redo, undo, useHistory, usePlanStore } from "../store";
 import { ImportButton } from "./ImportButton";
 
 /** A top-bar action that is greyed out while it cannot apply. */
@@ -39,8 +39,11 @@ const DEMOS = demoSites();
 
 export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, number] }) {
   const plan = usePlanStore((s) => s.plan);
-  const canUndo = useHistory((s) => s.pastStates.length > 0);
-  const canRedo = useHistory((s) => s.futureStates.length > 0);
+  const lastChange = usePlanStore((s) => s.lastChangeLabel);
+  const undoLabel = useHistory((h) => historyLabels(h, lastChange).undo);
+  const redoLabel = useHistory((h) => historyLabels(h, lastChange).redo);
+  const canUndo = undoLabel !== null;
+  const canRedo = redoLabel !== null;
   const running = useCoverage((s) => s.running);
   const progress = useCoverage((s) => s.progress);
   const elapsed = useCoverage((s) => s.view?.elapsedMs);
@@ -134,14 +137,14 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
           label="Undo"
           enabled={canUndo}
           onClick={() => undo()}
-          title="Undo (Ctrl+Z)"
+          title={undoLabel ? `Undo ${undoLabel} (Ctrl+Z)` : "Nothing to undo"}
           testId="undo"
         />
         <BarButton
           label="Redo"
           enabled={canRedo}
           onClick={() => redo()}
-          title="Redo (Ctrl+Shift+Z)"
+          title={redoLabel ? `Redo ${redoLabel} (Ctrl+Shift+Z)` : "Nothing to redo"}
           testId="redo"
         />
       </nav>
