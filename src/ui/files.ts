@@ -66,13 +66,20 @@ export async function readPlanFile(name: string, bytes: ArrayBuffer): Promise<Op
   return { ok: true, plan: r.plan, dem };
 }
 
+/** Adds a plan to the recent list; a failure of the browser's storage is said, not thrown. */
+function keepRecent(plan: Plan): void {
+  rememberRecent(plan).catch((e) =>
+    say("warning", `"${plan.site.name}" could not be kept in the recent plans: ${String(e)}`),
+  );
+}
+
 /**
  * Puts `next` on screen in place of the current plan (history cleared). The current plan goes to the
  * recent list first, so that New or Open never loses work that was not saved to a file.
  */
 export function replacePlan(next: Plan): void {
   const current = usePlanStore.getState().plan;
-  if (current && current !== next) void rememberRecent(current);
+  if (current && current !== next) keepRecent(current);
   usePlanStore.getState().load(next);
 }
 
@@ -94,7 +101,7 @@ export async function loadOpened(
   }
   if (dem) useAssets.getState().setDem(dem);
   replacePlan(opened.plan);
-  void rememberRecent(opened.plan);
+  keepRecent(opened.plan);
   say("info", `Opened ${sourceName}.`);
 }
 
@@ -129,7 +136,7 @@ export async function savePlanToFile(plan: Plan): Promise<void> {
   await fileSave(blob, { fileName: planFileName(plan, ".json"), extensions: [".json"] }).catch(
     () => undefined,
   );
-  void rememberRecent(plan);
+  keepRecent(plan);
 }
 
 export async function saveBundleToFile(plan: Plan, dem: DemAsset | null): Promise<void> {
