@@ -7,14 +7,14 @@ import { EARTH_RADIUS_M } from "../coverage/constants";
 import type { RadarModel } from "../coverage/radarModel";
 import { degToRad, radToDeg } from "../coverage/units";
 import { PLAN_VERSION, type Plan } from "../io/planSchema";
+import { formatLocalMinute } from "./numberText";
 
 /** Half side of the starting protected area, m. */
 const START_HALF_SIDE_M = 200;
 
 /** "New site 2026-12-03 07:45": a name of its own, so that new plans do not replace each other in the recent list. */
 export function newSiteName(at: Date = new Date()): string {
-  const two = (n: number) => String(n).padStart(2, "0");
-  return `New site ${at.getFullYear()}-${two(at.getMonth() + 1)}-${two(at.getDate())} ${two(at.getHours())}:${two(at.getMinutes())}`;
+  return `New site ${formatLocalMinute(at)}`;
 }
 
 export function newPlanAround(

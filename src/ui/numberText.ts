@@ -1,6 +1,6 @@
 /**
- * Numbers as the panels show them: latitude and longitude with their hemisphere letters, and dB
- * figures without a negative zero.
+ * Numbers as the panels show them: latitude and longitude with their hemisphere letters, dB figures
+ * without a negative zero, and times to the minute in the user's own time zone.
  */
 
 /** Decimal places of a shown coordinate: 1e-6° is about 0.1 m on the ground. */
@@ -23,4 +23,10 @@ export function formatDb(v: number): string {
     return Number(t) === 0 ? "0.0" : t;
   }
   return v === Number.NEGATIVE_INFINITY ? "−∞" : "—";
+}
+
+/** "2026-12-03 07:45" in the browser's time zone (the zone the user reads the clock in). */
+export function formatLocalMinute(at: Date): string {
+  const two = (n: number) => String(n).padStart(2, "0");
+  return `${at.getFullYear()}-${two(at.getMonth() + 1)}-${two(at.getDate())} ${two(at.getHours())}:${two(at.getMinutes())}`;
 }

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatDb, formatLatLon } from "../../src/ui/numberText";
+import { formatDb, formatLatLon, formatLocalMinute } from "../../src/ui/numberText";
 
 describe("shown numbers", () => {
   it("writes hemispheres as letters, never a minus sign before N or E", () => {
@@ -14,5 +14,9 @@ describe("shown numbers", () => {
     expect(formatDb(29.04)).toBe("29.0");
     expect(formatDb(Number.NEGATIVE_INFINITY)).toBe("−∞");
     expect(formatDb(Number.NaN)).toBe("—");
+  });
+  it("writes a time to the minute in the local zone", () => {
+    // Built from local fields, so the test holds in every time zone.
+    expect(formatLocalMinute(new Date(2026, 11, 3, 7, 5, 59))).toBe("2026-12-03 07:05");
   });
 });

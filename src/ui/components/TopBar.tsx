@@ -13,6 +13,7 @@ import {
   savePlanToFile,
 } from "../files";
 import { newPlanAround } from "../newPlan";
+import { formatLocalMinute } from "../numberText";
 import { readPlanText } from "../planText";
 import { say } from "../session";
 import { historyLabels, redo, undo, useHistory, usePlanStore } from "../store";
@@ -118,7 +119,7 @@ export function TopBar(props: { onAbout: () => void; mapCentre: () => [number, n
             <optgroup label="Recent plans">
               {recent.map((r) => (
                 <option key={r.key} value={r.key}>
-                  {r.name} ({r.savedAtIso.slice(0, 16).replace("T", " ")})
+                  {r.name} ({formatLocalMinute(new Date(r.savedAtIso))})
                 </option>
               ))}
             </optgroup>
