@@ -5,7 +5,7 @@
 import type { GridFrame } from "../coverage/grid";
 import { TABLE_SIZE } from "./colourTable";
 import { formatAreaM2, type GapOutlineSource, ringToLatLng } from "./gapOutlines";
-import { type ScreenBox, unoverlappedLabels } from "./labelDeclutter";
+import { placeLabels, type ScreenBox } from "./labelDeclutter";
 import L from "./leaflet";
 import type { Forward } from "./pixelToGrid";
 import { RasterLayer } from "./rasterLayer";
@@ -64,18 +64,24 @@ export class GapLayer extends L.LayerGroup {
   }
 
   /**
-   * Hides the area labels that would overlap a post's name or a larger gap's label (they overlap or
-   * not whatever the pan; a zoom or new labels decide again).
+   * Moves an area label that would overlap a post's name or a larger gap's label to a free place just
+   * beside it, or hides it when there is none (they overlap or not whatever the pan; a zoom or new
+   * labels decide again).
    */
   hideOverlappingLabels(): void {
     const container = this.onMap?.getContainer();
     if (!container || this.labels.length === 0) return;
-    for (const el of this.labels) el.style.visibility = "";
+    for (const el of this.labels) {
+      el.style.visibility = "";
+      el.style.transform = "";
+    }
     const box = (el: Element): ScreenBox => el.getBoundingClientRect();
     const fixed = Array.from(container.querySelectorAll(LABELS_KEPT_SELECTOR), box);
-    const shown = unoverlappedLabels(this.labels.map(box), fixed);
+    const places = placeLabels(this.labels.map(box), fixed);
     this.labels.forEach((el, k) => {
-      el.style.visibility = shown[k] ? "" : "hidden";
+      const s = places[k];
+      if (!s) el.style.visibility = "hidden";
+      else if (s.dx !== 0 || s.dy !== 0) el.style.transform = `translate(${s.dx}px, ${s.dy}px)`;
     });
   }
 

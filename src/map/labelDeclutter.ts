@@ -1,6 +1,7 @@
 /**
- * Map labels that would overlap: the ones that come later in order of importance are hidden, so that
- * every shown label reads. Screen rectangles in CSS pixels (getBoundingClientRect).
+ * Map labels that would overlap: each label, most important first, takes the first of a few nearby
+ * places where it overlaps nothing placed before it; a label with no such place is hidden, so that every
+ * shown label reads. Screen rectangles in CSS pixels (getBoundingClientRect).
  */
 
 export interface ScreenBox {
@@ -8,6 +9,12 @@ export interface ScreenBox {
   top: number;
   right: number;
   bottom: number;
+}
+
+/** A label's shift from where its anchor puts it, px. */
+export interface LabelShift {
+  dx: number;
+  dy: number;
 }
 
 /** Clear space kept around a label, px. */
@@ -22,20 +29,45 @@ function overlaps(a: ScreenBox, b: ScreenBox, margin: number): boolean {
   );
 }
 
+function shifted(b: ScreenBox, s: LabelShift): ScreenBox {
+  return { left: b.left + s.dx, right: b.right + s.dx, top: b.top + s.dy, bottom: b.bottom + s.dy };
+}
+
+/** Places tried for a label: where it is, then just above, below, left and right of that. */
+function candidates(b: ScreenBox, margin: number): LabelShift[] {
+  const h = b.bottom - b.top + margin;
+  const w = b.right - b.left + margin;
+  return [
+    { dx: 0, dy: 0 },
+    { dx: 0, dy: -h },
+    { dx: 0, dy: h },
+    { dx: -w, dy: 0 },
+    { dx: w, dy: 0 },
+  ];
+}
+
 /**
- * Which of `boxes` (most important first) to show: a box is kept unless it overlaps one of `fixed`
- * (labels that always stay, e.g. post names) or a box kept before it. Empty boxes (not laid out) are kept.
+ * Where to show each of `boxes` (most important first): the first nearby place where it overlaps none
+ * of `fixed` (labels that always stay, e.g. post names) and no label placed before it, or null to hide
+ * it. Empty boxes (not laid out) stay where they are and hide nothing.
  */
-export function unoverlappedLabels(
+export function placeLabels(
   boxes: readonly ScreenBox[],
   fixed: readonly ScreenBox[],
   margin = LABEL_MARGIN_PX,
-): boolean[] {
-  const kept: ScreenBox[] = [];
+): (LabelShift | null)[] {
+  const placed: ScreenBox[] = [];
+  const free = (b: ScreenBox) =>
+    !fixed.some((f) => overlaps(b, f, margin)) && !placed.some((k) => overlaps(b, k, margin));
   return boxes.map((b) => {
-    if (b.right <= b.left || b.bottom <= b.top) return true;
-    const clash = fixed.some((f) => overlaps(b, f, margin)) || kept.some((k) => overlaps(b, k, margin));
-    if (!clash) kept.push(b);
-    return !clash;
+    if (b.right <= b.left || b.bottom <= b.top) return { dx: 0, dy: 0 };
+    for (const s of candidates(b, margin)) {
+      const at = shifted(b, s);
+      if (free(at)) {
+        placed.push(at);
+        return s;
+      }
+    }
+    return null;
   });
 }
