@@ -19,20 +19,20 @@
  * radar's SNR is summed in dB (C·g_t·g_r and F⁴ tabulated in dB, the gas loss linear in R, 40·log R
  * from the bits of R²); a staring radar's is formed linearly, its gains being floored products of
  * azimuth and elevation factors, and converted once. Table errors
- * are stated beside each table and checked against the exact scalar path (coveragePoint) in tests.
+ * are stated beside each table and checked against the exact scalar path (coveragePoint.ts) in tests.
  * Rules CV1–CV9 in docs/model-spec.md ("Coverage").
  */
-import { makeRelativeGain, receiveAntenna, relativeGainDb, scanGeometry } from "./antennaPattern.ts";
+import { receiveAntenna, relativeGainDb, scanGeometry } from "./antennaPattern.ts";
 import { twoWayGasLossDb } from "./atmosphere.ts";
-import { pdExact, type SwerlingCase } from "./detection.ts";
+import type { SwerlingCase } from "./detection.ts";
 import type { GridFrame } from "./grid.ts";
-import { cachedPdDbTable, type PdDbTable, pdFromSnrDb } from "./pdDbTable.ts";
+import { cachedPdDbTable, type PdDbTable } from "./pdDbTable.ts";
 import { knifeEdgeLossDb } from "./propagation.ts";
 import { hashValue } from "./radarCache.ts";
-import { type RadarEquationParams, radarEquationParams, snrAtRange, snrConstant } from "./radarEquation.ts";
+import { radarEquationParams, snrConstant } from "./radarEquation.ts";
 import type { AntennaSpec, RadarModel, ScanMode } from "./radarModel.ts";
 import { curvatureFactorPerM, type HorizonResult } from "./terrainMask.ts";
-import { dbsmToM2, dbToLinear, linearToDb, radToDeg, wrapDeg360 } from "./units.ts";
+import { dbsmToM2, dbToLinear, linearToDb, radToDeg } from "./units.ts";
 import { instrumentedRangeM, wavelengthM } from "./waveform.ts";
 
 /** Why a cell has the Pd it has, per radar, target class and height (one byte per cell). */
@@ -1078,149 +1078,4 @@ export function positiveBounds(a: Float32Array, width: number, within: RadarExte
   return rowMin > rowMax
     ? { rowMin: 0, rowMax: -1, colMin: 0, colMax: -1 }
     : { rowMin, rowMax, colMin, colMax };
-}
-
-// ---------------------------------------------------------------------------------------------
-// The exact scalar path (one point): for evaluatePoint and as the yardstick of the tables.
-
-/** Geometry of one target position seen from a radar. */
-export interface PointGeometry {
-  /** Horizontal distance, m. */
-  distanceM: number;
-  /** Target height above the antenna after Earth curvature, m. */
-  heightAboveAntennaM: number;
-  /** Slant range, m. */
-  slantRangeM: number;
-  /** Bearing from the radar, degrees clockwise from north. */
-  azimuthDeg: number;
-  /** Elevation seen from the antenna, degrees (curvature included). */
-  elevationDeg: number;
-}
-
-/** Exact (no table) coverage of one radar at one target position and class. */
-export interface PointCoverage {
-  geometry: PointGeometry;
-  /** Radar-equation parameters towards the target (gains, gas loss, F⁴), for the link budget. */
-  params: RadarEquationParams;
-  /** One-way gains towards the target, dBi (−Infinity where not instrumented). */
-  txGainDbi: number;
-  rxGainDbi: number;
-  /** Height of the dominant obstruction above the sight line, m (−Infinity: nothing obstructs). */
-  obstructionClearanceM: number;
-  /** Fresnel–Kirchhoff v of that obstruction (−Infinity when none). */
-  fresnelV: number;
-  /** One-way knife-edge loss J(v), dB (ITU-R P.526-15 eq. 31). */
-  diffractionLossOneWayDb: number;
-  /** Two-way gas loss, dB. */
-  gasLossDb: number;
-  /** SNR for the class's RCS, dB. */
-  snrDb: number;
-  /** Exact Pd (detection.ts pdExact) and the table Pd. */
-  pdExact: number;
-  pdTable: number;
-  visible: boolean;
-  reason: Reason;
-}
-
-/**
- * Exact coverage of one radar at one cell and height for one class: same physics as the hot loop with
- * trigonometry, J(v) and pdExact evaluated directly (the yardstick of the tables, rule CV2).
- * @param cell the cell's horizon slope (m/m, −Infinity none, NaN nodata), obstacle distance (m),
- *   horizontal distance (m), east/north offsets from the radar (m), ground (m ASL), obstruction top (m AGL)
- *   and the cell size (m; the shortest edge-to-target distance). Out-of-field cells get Pd 0.
- */
-export function coveragePoint(
-  input: {
-    radar: PlacedRadar;
-    target: TargetSpec;
-    requirement: DetectionRequirement;
-    effectiveEarthFactor: number;
-    heightAglM: number;
-  },
-  cell: {
-    horizonSlope: number;
-    obstacleDistanceM: number;
-    distanceM: number;
-    eastM: number;
-    northM: number;
-    groundM: number;
-    obstructionTopAglM: number;
-    cellSizeM: number;
-  },
-): PointCoverage {
-  const { radar, target, requirement, heightAglM } = input;
-  const model = radar.model;
-  const curv = curvatureFactorPerM(input.effectiveEarthFactor);
-  const d = cell.distanceM;
-  const dh = cell.groundM + heightAglM - radar.antennaHeightAslM - d * d * curv;
-  const R = Math.hypot(d, dh);
-  const azimuthDeg = d > 0 ? wrapDeg360(radToDeg(Math.atan2(cell.eastM, cell.northM))) : radar.boresightAzDeg;
-  const elevationDeg = radToDeg(Math.atan2(dh, d));
-  const geometry: PointGeometry = {
-    distanceM: d,
-    heightAboveAntennaM: dh,
-    slantRangeM: R,
-    azimuthDeg,
-    elevationDeg,
-  };
-  const pointing = { scan: radar.scan, boresightAzDeg: radar.boresightAzDeg, tiltDeg: radar.tiltDeg };
-  const gTx = makeRelativeGain({ ...pointing, antenna: model.txAntenna })(azimuthDeg, elevationDeg);
-  const gRx = makeRelativeGain({ ...pointing, antenna: receiveAntenna(model) })(azimuthDeg, elevationDeg);
-  const txGainDbi = model.txAntenna.peakGainDbi + linearToDb(gTx);
-  const rxGainDbi = receiveAntenna(model).peakGainDbi + linearToDb(gRx);
-  const geo = scanGeometry(pointing, azimuthDeg, elevationDeg);
-  let clearance = Number.NEGATIVE_INFINITY;
-  let v = Number.NEGATIVE_INFINITY;
-  if (cell.horizonSlope !== Number.NEGATIVE_INFINITY && Number.isFinite(cell.horizonSlope)) {
-    const s = cell.obstacleDistanceM;
-    clearance = s * (cell.horizonSlope - dh / d);
-    const rest = d - s > 0 ? d - s : 0.5 * cell.cellSizeM;
-    v = clearance * Math.sqrt((2 / wavelengthM(model.frequencyHz)) * (1 / s + 1 / rest));
-  }
-  const jDb = v === Number.NEGATIVE_INFINITY ? 0 : knifeEdgeLossDb(v);
-  const { minM, maxM } = radarRangeWindowM(model);
-  const gasLossRaw = twoWayGasLossDb({ frequencyHz: model.frequencyHz, rangeM: R });
-  // Below 1 GHz P.676 is not evaluated (NaN) and the loss is negligible: 0, as in buildRadarKernel.
-  const gasLossDb = Number.isFinite(gasLossRaw) ? gasLossRaw : 0;
-  const params = radarEquationParams(model, {
-    rcsM2: dbsmToM2(target.rcsDbsm),
-    txGainDbi,
-    rxGainDbi,
-    atmosphericLossDb: gasLossDb,
-    propagationFactorDb: -2 * jDb,
-  });
-  const snrLinear = snrAtRange(params, R);
-  const snrDb = linearToDb(snrLinear);
-  const visible = !(clearance > 0);
-  let reason: Reason;
-  if (Number.isNaN(cell.groundM) || Number.isNaN(cell.horizonSlope)) reason = Reason.nodata;
-  else if (cell.obstructionTopAglM > heightAglM) reason = Reason.insideObstruction;
-  else if (R < minM || R === 0) reason = Reason.blindZone;
-  else if (R > maxM) reason = Reason.outOfRange;
-  else if (!geo.instrumented) reason = Reason.outOfSector;
-  else reason = Reason.tooWeak;
-  let pdE = 0;
-  let pdT = 0;
-  if (reason === Reason.tooWeak) {
-    pdE = pdExact({ snrLinear, pfa: requirement.pfa, looks: requirement.looks, swerling: target.swerling });
-    pdT = pdFromSnrDb(cachedPdDbTable(requirement.pfa, requirement.looks, target.swerling), snrDb);
-    if (pdT >= requirement.requiredPd) reason = Reason.covered;
-    else if (!geo.inSector) reason = Reason.outOfSector;
-    else if (!visible) reason = Reason.masked;
-  }
-  return {
-    geometry,
-    params,
-    txGainDbi,
-    rxGainDbi,
-    obstructionClearanceM: clearance,
-    fresnelV: v,
-    diffractionLossOneWayDb: jDb,
-    gasLossDb,
-    snrDb,
-    pdExact: pdE,
-    pdTable: pdT,
-    visible,
-    reason,
-  };
 }

@@ -8,11 +8,9 @@
  * horizon sweep → radar stage (coverage.ts); then per class and height: fusion → metrics.
  */
 import {
-  coveragePoint,
   type DetectionRequirement,
   kernelFor,
   type PlacedRadar,
-  type PointCoverage,
   type RadarCoverage,
   type RadarExtent,
   REASON_TEXT,
@@ -20,6 +18,7 @@ import {
   radarCoverageFromHorizon,
   type TargetSpec,
 } from "./coverage.ts";
+import { coveragePoint, type PointCoverage } from "./coveragePoint.ts";
 import {
   CellState,
   cellStatesAtHeight,

@@ -1,10 +1,6 @@
 import { describe, expect, it } from "vitest";
-import {
-  coveragePoint,
-  pseudoAngleBin,
-  Reason,
-  radarCoverageFromHorizon,
-} from "../../src/coverage/coverage.ts";
+import { pseudoAngleBin, Reason, radarCoverageFromHorizon } from "../../src/coverage/coverage.ts";
+import { coveragePoint } from "../../src/coverage/coveragePoint.ts";
 import { computeRadarCoverage } from "../../src/coverage/evaluate.ts";
 import { cachedPdDbTable, pdFromSnrDb } from "../../src/coverage/pdDbTable.ts";
 import {
