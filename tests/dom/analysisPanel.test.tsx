@@ -25,6 +25,10 @@ describe("analysis panel", () => {
     const root = createRoot(host);
     await act(async () => root.render(<AnalysisPanel />));
     expect(host.textContent).toMatch(/above the 2\.00 GiB budget/);
+    // One class judged at all 40 heights: 40 maps, the figure the memory depends on.
+    expect(host.querySelector('[data-testid="run-slices"]')?.textContent).toBe(
+      String(40 * plan.targetClasses.length),
+    );
     const button = host.querySelector('[data-testid="cell-size-to-fit"]') as HTMLButtonElement;
     expect(button.textContent).toBe(`Use ${fit} m cells (the smallest that fit)`);
     await act(async () => button.click());

@@ -156,6 +156,8 @@ export function AnalysisPanel() {
           <dd>
             {estimate.size.radars} × {estimate.size.heights}
           </dd>
+          <dt>Maps (class at a height)</dt>
+          <dd data-testid="run-slices">{estimate.size.slices}</dd>
           <dt>Memory needed</dt>
           <dd>{(estimate.bytes / BYTES_PER_MIB).toFixed(0)} MiB</dd>
           <dt>Frame</dt>
