@@ -1,5 +1,6 @@
 /** Posts: the list (select, enable), and the selected post's radar, mast, boresight, tilt and sector. */
 import type { Post } from "../../io/planSchema";
+import { radarModelOfPost } from "../../io/planValidation";
 import { UTM_MAX_LAT_DEG, UTM_MIN_LAT_DEG } from "../../io/siteGrid";
 import { CheckField, NumberField, SelectField, TextField } from "../components/NumberField";
 import { formatLatLon } from "../numberText";
@@ -7,6 +8,7 @@ import { removePost, updatePost } from "../planEdits";
 import { movePostTo } from "../postMoves";
 import { useSession } from "../session";
 import { usePlanStore } from "../store";
+import { PostExposure } from "./PostExposure";
 
 /** Decimal places of a typed position: 1e-6° is about 0.1 m on the ground. */
 const COORD_DIGITS = 6;
@@ -21,6 +23,7 @@ function PostEditor({ post }: { post: Post }) {
     if (post.scanSector) edit({ scanSector: { ...post.scanSector, ...patch } }, "sector");
   };
   const models = plan.radarModels.map((m) => ({ value: m.id, label: m.name }));
+  const model = radarModelOfPost(plan, post);
   const inline = post.radarModel
     ? [{ value: "__inline", label: `${post.radarModel.name} (this post only)` }]
     : [];
@@ -132,6 +135,7 @@ function PostEditor({ post }: { post: Post }) {
         {formatLatLon(post.position.latDeg, post.position.lonDeg)} — type surveyed coordinates above, or drag
         the post on the map to move it and the orange handle to turn it.
       </p>
+      {model && <PostExposure model={model} antennaAglM={post.mastHeightM} />}
       <button
         type="button"
         className="danger"
