@@ -417,8 +417,12 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     }
     await page.getByTestId("show-exposure").check();
     await page.waitForTimeout(300);
+    // The legend explains the discs and the sector outlines it now shows.
+    expect(await text(page, "legend")).toMatch(/RF-exposure distance, general public, antenna stopped/);
+    expect(await text(page, "legend")).toMatch(/Radar sector and maximum instrumented range/);
     await shoot(page, "exposure");
     await page.getByTestId("show-exposure").uncheck();
+    await expect.poll(() => text(page, "legend")).not.toMatch(/RF-exposure distance/);
     await page.getByTestId("about").click();
     await expect.poll(() => text(page, "safety-cautions")).toMatch(/spectrum authorisation/);
     await expect.poll(() => text(page, "safety-cautions")).toMatch(/work at height/);

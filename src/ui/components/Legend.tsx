@@ -8,6 +8,8 @@ export function Legend(props: {
   maxOverlap: number;
   maxHeightM: number;
   showGaps: boolean;
+  showSectors?: boolean;
+  showExposure?: boolean;
 }) {
   const s = layerScale(props.kind, props.maxOverlap, props.maxHeightM);
   const discrete = props.kind === "overlap";
@@ -51,6 +53,17 @@ export function Legend(props: {
         <span className="swatch outline-solid" /> Protected area <span className="swatch outline-dashed" />{" "}
         Approach ring
       </div>
+      {props.showSectors && (
+        <div className="legend-gap">
+          <span className="swatch sector-dashed" /> Radar sector and maximum instrumented range
+        </div>
+      )}
+      {props.showExposure && (
+        <div className="legend-gap">
+          <span className="swatch exposure-disc" /> RF-exposure distance, general public, antenna stopped
+          (ICNIRP 2020; "RF n m")
+        </div>
+      )}
     </figure>
   );
 }

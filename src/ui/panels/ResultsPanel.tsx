@@ -105,6 +105,8 @@ export function ResultsPanel() {
         maxOverlap={view?.radarPostIds.length ?? 1}
         maxHeightM={Math.max(...(view?.heightsM ?? [1]), 1) * 2}
         showGaps={s.showGaps}
+        showSectors={s.showSectors}
+        showExposure={s.showExposure}
       />
       {view?.notes.length ? (
         <ul className="notes" data-testid="run-notes">
