@@ -92,3 +92,15 @@ export function polygonProblems(rings: unknown, base: (string | number)[]): Poly
   }
   return problems;
 }
+
+/** The first problem of a protected area's geometry (Polygon or MultiPolygon), or null when it is valid. */
+export function areaGeometryProblem(
+  g: { type: "Polygon"; coordinates: unknown } | { type: "MultiPolygon"; coordinates: unknown },
+): string | null {
+  const parts = g.type === "Polygon" ? [g.coordinates] : Array.isArray(g.coordinates) ? g.coordinates : [];
+  for (const rings of parts) {
+    const [first] = polygonProblems(rings, []);
+    if (first) return first.message;
+  }
+  return null;
+}

@@ -6,6 +6,7 @@ import buffer from "@turf/buffer";
 import type { Feature, MultiPolygon, Polygon } from "geojson";
 import { DEFAULT_METRES_PER_LEVEL } from "../coverage/constants";
 import type { BuildingFeature, ProtectedArea, TreeStand } from "../io/planSchema";
+import { areaGeometryProblem } from "../io/polygonRules";
 import L from "./leaflet";
 
 export interface SiteView {
@@ -18,6 +19,9 @@ export interface SiteView {
   selectedBuilding?: number | null;
   selectedTreeId?: string | null;
 }
+
+/** A protected area that cannot be evaluated (its outline crosses itself): red, finely dashed. */
+const BAD_AREA_STYLE: L.PathOptions = { color: "#b00020", weight: 2.5, dashArray: "3 4" };
 
 /** Outline of the chosen obstruction (the accent of the tool bar). */
 const SELECTED_OUTLINE = { color: "#e07b00", weight: 3 };
@@ -96,11 +100,15 @@ export class SiteLayer extends L.FeatureGroup {
     this.areas.clearLayers();
     this.ring.clearLayers();
     for (const a of v.protectedAreas) {
+      // An outline that crosses itself (kept, not evaluated): drawn as a warning, with no ring around it.
+      const bad = areaGeometryProblem(a.geometry) !== null;
       const layer = L.geoJSON(a.geometry as Polygon, {
-        style: { color: "#111", weight: 2.5, fill: false, interactive: false },
+        style: bad
+          ? { ...BAD_AREA_STYLE, fill: false, interactive: false }
+          : { color: "#111", weight: 2.5, fill: false, interactive: false },
       });
       this.areas.addLayer(layer);
-      if (v.approachRingDepthM > 0) {
+      if (v.approachRingDepthM > 0 && !bad) {
         const outer = buffer(
           { type: "Feature", properties: {}, geometry: a.geometry } as Feature<Polygon | MultiPolygon>,
           v.approachRingDepthM,

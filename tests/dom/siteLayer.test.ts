@@ -1,6 +1,7 @@
 // @vitest-environment jsdom
 import { describe, expect, it } from "vitest";
 import type { AreaGeometry, BuildingFeature } from "../../src/io/planSchema";
+import { areaGeometryProblem } from "../../src/io/polygonRules";
 import L from "../../src/map/leaflet";
 import { SiteLayer, type SiteView } from "../../src/map/siteLayer";
 
@@ -69,6 +70,36 @@ describe("site layer", () => {
     expect(again).toHaveLength(3);
     expect(again[0]).not.toBe(drawn[1]);
     expect(again.map((p) => p.options.weight)).toEqual([3, 1, 1]);
+    map.remove();
+  });
+
+  it("draws an area whose outline crosses itself as a warning, with no approach ring around it", () => {
+    const map = mapOnPage();
+    const layer = new SiteLayer().addTo(map);
+    const bowTie: AreaGeometry = {
+      type: "Polygon",
+      coordinates: [
+        [
+          [8, 47],
+          [8.01, 47.01],
+          [8.01, 47],
+          [8, 47.01],
+          [8, 47],
+        ],
+      ],
+    };
+    expect(areaGeometryProblem(bowTie)).toMatch(/crosses itself/);
+    expect(areaGeometryProblem(base.protectedAreas[0].geometry)).toBeNull();
+    layer.setSite({
+      ...base,
+      protectedAreas: [...base.protectedAreas, { id: "b", name: "B", geometry: bowTie }],
+    });
+    const outlines: L.Path[] = [];
+    (layer as unknown as { areas: L.FeatureGroup }).areas.eachLayer((g) =>
+      (g as L.GeoJSON).eachLayer((p) => outlines.push(p as L.Path)),
+    );
+    expect(outlines.map((p) => p.options.color)).toEqual(["#111", "#b00020"]);
+    expect((layer as unknown as { ring: L.FeatureGroup }).ring.getLayers()).toHaveLength(1);
     map.remove();
   });
 });

@@ -1,7 +1,7 @@
 /** Site: name, approach ring depth, protected areas, drawing tools for areas, holes, buildings, trees. */
 import { useMemo, useState } from "react";
 import type { ProtectedArea } from "../../io/planSchema";
-import { polygonProblems } from "../../io/polygonRules";
+import { areaGeometryProblem } from "../../io/polygonRules";
 import { NumberField, TextField } from "../components/NumberField";
 import { removeProtectedArea } from "../planEdits";
 import { type Tool, useSession } from "../session";
@@ -129,15 +129,7 @@ export function SitePanel() {
 
 /** What keeps an area from being evaluated (a ring that crosses itself, …), shown beside it. */
 function AreaProblem({ area }: { area: ProtectedArea }) {
-  const problem = useMemo(() => {
-    const g = area.geometry;
-    const parts = g.type === "Polygon" ? [g.coordinates] : g.coordinates;
-    for (const rings of parts) {
-      const [first] = polygonProblems(rings, []);
-      if (first) return first.message;
-    }
-    return null;
-  }, [area.geometry]);
+  const problem = useMemo(() => areaGeometryProblem(area.geometry), [area.geometry]);
   if (!problem) return null;
   return (
     <span className="field-error" role="alert" data-testid="area-problem">
