@@ -32,8 +32,8 @@ function hatchTable(): Uint8ClampedArray {
   return t;
 }
 
-/** Post names and marks: a gap's area label gives way to them. */
-const LABELS_KEPT_SELECTOR = ".post-mark, .post-label";
+/** Post names and marks, and RF-exposure labels: a gap's area label gives way to them. */
+const LABELS_KEPT_SELECTOR = ".post-mark, .post-label, .exposure-label span";
 
 export class GapLayer extends L.LayerGroup {
   private readonly hatch = new RasterLayer({ pane: "picket-gaps" });
@@ -76,7 +76,9 @@ export class GapLayer extends L.LayerGroup {
       el.style.transform = "";
     }
     const box = (el: Element): ScreenBox => el.getBoundingClientRect();
-    const fixed = Array.from(container.querySelectorAll(LABELS_KEPT_SELECTOR), box);
+    const fixed = Array.from(container.querySelectorAll<HTMLElement>(LABELS_KEPT_SELECTOR))
+      .filter((el) => el.style.visibility !== "hidden")
+      .map(box);
     const places = placeLabels(this.labels.map(box), fixed);
     this.labels.forEach((el, k) => {
       const s = places[k];

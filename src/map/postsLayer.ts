@@ -3,6 +3,7 @@
  * scan sector and maximum instrumented range as outlines, and the RF-exposure distance as a circle.
  * The layer reports drags through callbacks; the plan is changed by the caller.
  */
+import { placeLabels, type ScreenBox } from "./labelDeclutter";
 import L from "./leaflet";
 import { arcLatLngs, azimuthAndDistance, destinationLatLng } from "./localGeo";
 
@@ -118,8 +119,29 @@ export class PostsLayer extends L.LayerGroup {
     return azimuthAndDistance(p.lonDeg, p.latDeg, other.lng, other.lat).distanceM;
   }
 
+  /** The RF-exposure labels of the last rebuild. */
+  private exposureLabels: HTMLElement[] = [];
+
+  /**
+   * Moves an RF-exposure label that would overlap a post's mark or name (its own or a neighbour's) to
+   * a free place beside itself; hidden only where none is free. Its disc stays where it is.
+   */
+  private placeExposureLabels(): void {
+    const container = this.mapRef?.getContainer();
+    if (!container || this.exposureLabels.length === 0) return;
+    const box = (el: Element): ScreenBox => el.getBoundingClientRect();
+    const fixed = Array.from(container.querySelectorAll(".post-mark, .post-label"), box);
+    const places = placeLabels(this.exposureLabels.map(box), fixed);
+    this.exposureLabels.forEach((el, k) => {
+      const s = places[k];
+      el.style.visibility = s ? "" : "hidden";
+      if (s && (s.dx !== 0 || s.dy !== 0)) el.style.transform = `translate(${s.dx}px, ${s.dy}px)`;
+    });
+  }
+
   private rebuildOutlines(): void {
     this.outlines.clearLayers();
+    this.exposureLabels = [];
     for (const p of this.posts) {
       if (!p.enabled) continue;
       if (this.display.showSectors && p.maxRangeM > 0) {
@@ -139,6 +161,7 @@ export class PostsLayer extends L.LayerGroup {
       if (this.display.showExposure && p.exposureDistanceM > 0) {
         const label = document.createElement("span");
         label.textContent = `RF ${p.exposureDistanceM < 10 ? p.exposureDistanceM.toFixed(1) : Math.round(p.exposureDistanceM)} m`;
+        this.exposureLabels.push(label);
         this.outlines.addLayer(
           L.marker([p.latDeg, p.lonDeg], {
             interactive: false,
@@ -237,6 +260,7 @@ export class PostsLayer extends L.LayerGroup {
       this.pointer.addLayer(line);
       this.pointer.addLayer(handle);
     }
+    this.placeExposureLabels();
   }
 
   private newMarker(p: PostView, selected: boolean, withLabel: boolean): L.Marker {

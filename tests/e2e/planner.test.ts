@@ -420,6 +420,19 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     // The legend explains the discs and the sector outlines it now shows.
     expect(await text(page, "legend")).toMatch(/RF-exposure distance, general public, antenna stopped/);
     expect(await text(page, "legend")).toMatch(/Radar sector and maximum instrumented range/);
+    // RF labels give way to post names as gap labels do.
+    const rfClashes = await page.evaluate(() => {
+      const rect = (e: Element) => e.getBoundingClientRect();
+      const hit = (a: DOMRect, b: DOMRect) =>
+        a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+      const names = Array.from(document.querySelectorAll(".post-label"), rect);
+      const shown = Array.from(document.querySelectorAll(".exposure-label span"))
+        .filter((e) => (e as HTMLElement).style.visibility !== "hidden")
+        .map(rect);
+      return { shown: shown.length, clashes: shown.filter((r) => names.some((q) => hit(r, q))).length };
+    });
+    expect(rfClashes.shown).toBeGreaterThan(0);
+    expect(rfClashes.clashes).toBe(0);
     await shoot(page, "exposure");
     await page.getByTestId("show-exposure").uncheck();
     await expect.poll(() => text(page, "legend")).not.toMatch(/RF-exposure distance/);
