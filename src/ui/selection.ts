@@ -19,3 +19,12 @@ export function selectedSlice(
 export function radarsByPd(point: PointReply | null): PointRadar[] {
   return [...(point?.radars ?? [])].sort((a, b) => b.pd - a.pd);
 }
+
+/**
+ * The radars of a slice that alone meet the requirement nowhere: every cell where one meets it, another
+ * meets it too (metrics' onlyThisRadarAreaM2 = 0). Candidates to remove or re-aim, one at a time: two of
+ * them may share cells no third radar meets, and one below the requirement can still raise the combined Pd.
+ */
+export function postsMetElsewhere(slice: CoverageSlice): string[] {
+  return slice.metrics.perRadar.filter((r) => r.onlyThisRadarAreaM2 === 0).map((r) => r.radarId);
+}

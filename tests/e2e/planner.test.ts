@@ -127,6 +127,10 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     });
     expect(clashes.shown).toBeGreaterThan(0);
     expect(clashes.clashes).toBe(0);
+    // At 10 m the knoll mast alone meets cells no other post meets; the water tower meets none alone.
+    const spare = await text(page, "posts-met-elsewhere");
+    expect(spare).toMatch(/Water tower top/);
+    expect(spare).not.toMatch(/North-west knoll mast/);
   });
 
   it("shows the same summary figures as the engine run in Node on the same plan", async () => {

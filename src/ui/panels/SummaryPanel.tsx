@@ -6,7 +6,7 @@ import { formatAreaM2 } from "../../map/gapOutlines";
 import type { CoverageSlice } from "../../workers/protocol";
 import { ColumnHeads } from "../components/ColumnHeads";
 import { shownView, useCoverage } from "../coverageState";
-import { selectedSlice } from "../selection";
+import { postsMetElsewhere, selectedSlice } from "../selection";
 import { useSession } from "../session";
 import { usePlanStore } from "../store";
 
@@ -48,6 +48,7 @@ export function SummaryPanel() {
   if (!view || !slice || !plan) return <p className="muted">No results yet.</p>;
   const ofClass = view.slices.filter((s) => s.classId === slice.classId);
   const name = (id: string) => plan.posts.find((p) => p.id === id)?.name ?? id;
+  const spare = postsMetElsewhere(slice);
   return (
     <section
       className="summary"
@@ -116,6 +117,13 @@ export function SummaryPanel() {
           ))}
         </tbody>
       </table>
+      {spare.length > 0 && (
+        <p className="muted" data-testid="posts-met-elsewhere">
+          At {slice.heightM} m no cell relies on {spare.map(name).join(", ")} alone: every cell{" "}
+          {spare.length > 1 ? "each meets" : "it meets"} is met by another post too. Candidates to remove or
+          re-aim, one at a time: disable one and compare (check the other heights and classes).
+        </p>
+      )}
       <p className="muted">
         {view.maskMode === "fast" ? "Preview (fast masking)" : "Accurate masking"} · grid {view.frame.width} ×{" "}
         {view.frame.height} cells of {view.frame.cellSizeM} m · computed in {Math.round(view.elapsedMs)} ms
