@@ -44,12 +44,8 @@ export async function restoreAutosave(): Promise<{ restored: Restored | null; pr
     await del(KEY_CURRENT, db());
     return { restored: null, problem: [r.message, ...r.details].join("; ") };
   }
-  let dem: DemAsset | null = null;
   const g = r.plan.terrain.ground;
-  if (g.type === "dem") {
-    const bytes = await get<ArrayBuffer>(DEM_PREFIX + g.file, db());
-    if (bytes instanceof ArrayBuffer) dem = { fileName: g.file, bytes };
-  }
+  const dem = g.type === "dem" ? await storedDem(g.file) : null;
   return { restored: { plan: r.plan, dem } };
 }
 
@@ -82,7 +78,7 @@ export function startAutosave(onError: (message: string) => void): () => void {
     }
   });
   const offDem = useAssets.subscribe((s, prev) => {
-    if (s.dem && s.dem !== prev.dem)
+    if (s.dem && s.dem !== prev.dem && !readFromStore.has(s.dem))
       saveDem(s.dem).catch((e) => onError(`Saving the DEM failed: ${String(e)}`));
   });
   return () => {
@@ -128,8 +124,14 @@ export async function recentPlanText(key: string): Promise<string | null> {
   return typeof t === "string" ? t : null;
 }
 
-/** DEM bytes stored under a file name, or null. */
-export async function storedDem(fileName: string): Promise<ArrayBuffer | null> {
-  const b = await get<ArrayBuffer>(DEM_PREFIX + fileName, db());
-  return b instanceof ArrayBuffer ? b : null;
+/** DEMs read from this store: already there, so the autosave does not write their bytes back. */
+const readFromStore = new WeakSet<DemAsset>();
+
+/** The DEM stored under a file name, or null. */
+export async function storedDem(fileName: string): Promise<DemAsset | null> {
+  const bytes = await get<ArrayBuffer>(DEM_PREFIX + fileName, db());
+  if (!(bytes instanceof ArrayBuffer)) return null;
+  const dem = { fileName, bytes };
+  readFromStore.add(dem);
+  return dem;
 }

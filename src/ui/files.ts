@@ -94,9 +94,8 @@ export async function loadOpened(
   const g = opened.plan.terrain.ground;
   let dem = opened.dem;
   if (!dem && g.type === "dem" && useAssets.getState().dem?.fileName !== g.file) {
-    const bytes = await storedDem(g.file).catch(() => null);
-    if (bytes) dem = { fileName: g.file, bytes };
-    else
+    dem = await storedDem(g.file).catch(() => null);
+    if (!dem)
       say("warning", `${sourceName}: the DEM ${g.file} is not in this file; import it to use the terrain.`);
   }
   if (dem) useAssets.getState().setDem(dem);
