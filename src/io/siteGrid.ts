@@ -298,22 +298,18 @@ export function estimateRunMemoryBytes(size: RunSize): number {
     !Number.isFinite(cells + radars + heights + slices)
   )
     return Number.NaN;
-  return cells * bytesPerCell(radars, heights, slices);
-}
-
-function bytesPerCell(radars: number, heights: number, slices: number): number {
   return (
-    GRID_BYTES_PER_CELL +
-    radars *
-      (RADAR_BYTES_PER_CELL + heights * RADAR_HEIGHT_BYTES_PER_CELL + slices * RADAR_SLICE_BYTES_PER_CELL) +
-    slices * FUSED_SLICE_BYTES_PER_CELL
+    cells *
+    (GRID_BYTES_PER_CELL +
+      radars *
+        (RADAR_BYTES_PER_CELL + heights * RADAR_HEIGHT_BYTES_PER_CELL + slices * RADAR_SLICE_BYTES_PER_CELL) +
+      slices * FUSED_SLICE_BYTES_PER_CELL)
   );
 }
 
 /** Bytes per cell of a run of the plan (estimateRunMemoryBytes of one cell). */
 function runBytesPerCellOf(plan: Plan): number {
-  const radars = plan.posts.filter((p) => p.enabled).length;
-  return bytesPerCell(radars, plan.analysis.targetHeightsM.length, slicesOf(plan));
+  return estimateRunMemoryBytes(runSizeOf(plan, { cellCount: 1 }));
 }
 
 /** Slices of a plan: each class at each of its heights that is an analysis height. */

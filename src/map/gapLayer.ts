@@ -5,7 +5,7 @@
 import type { GridFrame } from "../coverage/grid";
 import { TABLE_SIZE } from "./colourTable";
 import { formatAreaM2, type GapOutlineSource, ringToLatLng } from "./gapOutlines";
-import { placeLabels, type ScreenBox } from "./labelDeclutter";
+import { placeLabelElements } from "./labelDeclutter";
 import L from "./leaflet";
 import type { Forward } from "./pixelToGrid";
 import { RasterLayer } from "./rasterLayer";
@@ -42,7 +42,7 @@ export class GapLayer extends L.LayerGroup {
   /** The area labels of the last setGaps, largest gap first. */
   private labels: HTMLElement[] = [];
   private onMap: L.Map | null = null;
-  private readonly declutter = () => this.hideOverlappingLabels();
+  private readonly declutter = () => this.placeAreaLabels();
 
   constructor() {
     super();
@@ -68,23 +68,9 @@ export class GapLayer extends L.LayerGroup {
    * beside it, or hides it when there is none (they overlap or not whatever the pan; a zoom or new
    * labels decide again).
    */
-  hideOverlappingLabels(): void {
+  placeAreaLabels(): void {
     const container = this.onMap?.getContainer();
-    if (!container || this.labels.length === 0) return;
-    for (const el of this.labels) {
-      el.style.visibility = "";
-      el.style.transform = "";
-    }
-    const box = (el: Element): ScreenBox => el.getBoundingClientRect();
-    const fixed = Array.from(container.querySelectorAll<HTMLElement>(LABELS_KEPT_SELECTOR))
-      .filter((el) => el.style.visibility !== "hidden")
-      .map(box);
-    const places = placeLabels(this.labels.map(box), fixed);
-    this.labels.forEach((el, k) => {
-      const s = places[k];
-      if (!s) el.style.visibility = "hidden";
-      else if (s.dx !== 0 || s.dy !== 0) el.style.transform = `translate(${s.dx}px, ${s.dy}px)`;
-    });
+    if (container) placeLabelElements(this.labels, container, LABELS_KEPT_SELECTOR);
   }
 
   /** The batches of outlines still to add (cancelled by the next setGaps). */
@@ -128,7 +114,7 @@ export class GapLayer extends L.LayerGroup {
         }),
       );
     }
-    this.hideOverlappingLabels();
+    this.placeAreaLabels();
     // Outlines as multipolygons of about OUTLINE_BATCH_VERTICES vertices each: few SVG paths for the
     // map to add, lay out and remove, and no task longer than one batch.
     let next = 0;

@@ -71,3 +71,30 @@ export function placeLabels(
     return null;
   });
 }
+
+/**
+ * placeLabels on the page: measures `labels` (most important first) and the shown elements matching
+ * `fixedSelector` inside `container`, then shifts each label (CSS transform) or hides it. Labels start
+ * again from where their anchors put them, so a new zoom decides afresh.
+ */
+export function placeLabelElements(
+  labels: readonly HTMLElement[],
+  container: HTMLElement,
+  fixedSelector: string,
+): void {
+  if (labels.length === 0) return;
+  for (const el of labels) {
+    el.style.visibility = "";
+    el.style.transform = "";
+  }
+  const box = (el: Element): ScreenBox => el.getBoundingClientRect();
+  const fixed = Array.from(container.querySelectorAll<HTMLElement>(fixedSelector))
+    .filter((el) => el.style.visibility !== "hidden")
+    .map(box);
+  const places = placeLabels(labels.map(box), fixed);
+  labels.forEach((el, k) => {
+    const s = places[k];
+    if (!s) el.style.visibility = "hidden";
+    else if (s.dx !== 0 || s.dy !== 0) el.style.transform = `translate(${s.dx}px, ${s.dy}px)`;
+  });
+}

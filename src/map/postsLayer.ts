@@ -3,7 +3,7 @@
  * scan sector and maximum instrumented range as outlines, and the RF-exposure distance as a circle.
  * The layer reports drags through callbacks; the plan is changed by the caller.
  */
-import { placeLabels, type ScreenBox } from "./labelDeclutter";
+import { placeLabelElements } from "./labelDeclutter";
 import L from "./leaflet";
 import { arcLatLngs, azimuthAndDistance, destinationLatLng } from "./localGeo";
 
@@ -128,15 +128,7 @@ export class PostsLayer extends L.LayerGroup {
    */
   private placeExposureLabels(): void {
     const container = this.mapRef?.getContainer();
-    if (!container || this.exposureLabels.length === 0) return;
-    const box = (el: Element): ScreenBox => el.getBoundingClientRect();
-    const fixed = Array.from(container.querySelectorAll(".post-mark, .post-label"), box);
-    const places = placeLabels(this.exposureLabels.map(box), fixed);
-    this.exposureLabels.forEach((el, k) => {
-      const s = places[k];
-      el.style.visibility = s ? "" : "hidden";
-      if (s && (s.dx !== 0 || s.dy !== 0)) el.style.transform = `translate(${s.dx}px, ${s.dy}px)`;
-    });
+    if (container) placeLabelElements(this.exposureLabels, container, ".post-mark, .post-label");
   }
 
   private rebuildOutlines(): void {

@@ -4,7 +4,7 @@
  */
 import buffer from "@turf/buffer";
 import type { Feature, MultiPolygon, Polygon } from "geojson";
-import { DEFAULT_METRES_PER_LEVEL } from "../coverage/constants";
+import { buildingName, roofHeightOf } from "../io/buildingHeight";
 import type { BuildingFeature, ProtectedArea, TreeStand } from "../io/planSchema";
 import { areaGeometryProblem } from "../io/polygonRules";
 import L from "./leaflet";
@@ -47,9 +47,8 @@ const TREE_STYLE: L.PathOptions = {
 };
 
 function buildingLabel(b: BuildingFeature, i: number): string {
-  const h = b.properties.height ?? (b.properties["building:levels"] ?? Number.NaN) * DEFAULT_METRES_PER_LEVEL;
-  const name = typeof b.properties.name === "string" ? b.properties.name : `Building ${i + 1}`;
-  return `${name}: ${Number.isFinite(h) ? `${h} m` : "default height"}`;
+  const { heightM, source } = roofHeightOf(b.properties);
+  return `${buildingName(b, i)}: ${source === "default" ? "default height" : `${heightM} m`}`;
 }
 
 export class SiteLayer extends L.FeatureGroup {

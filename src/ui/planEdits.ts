@@ -5,6 +5,14 @@
 import type { AreaGeometry, BuildingFeature, Plan, Post, TargetClass, TreeStand } from "../io/planSchema";
 import { freshId } from "./store";
 
+function withBuildings(plan: Plan, features: BuildingFeature[]): Plan {
+  return { ...plan, terrain: { ...plan.terrain, buildings: { ...plan.terrain.buildings, features } } };
+}
+
+function withTreeStands(plan: Plan, treeStands: TreeStand[]): Plan {
+  return { ...plan, terrain: { ...plan.terrain, treeStands } };
+}
+
 export function updatePost(plan: Plan, id: string, patch: Partial<Post>): Plan {
   let changed = false;
   const posts = plan.posts.map((p) => {
@@ -72,23 +80,11 @@ export function addBuilding(plan: Plan, geometry: AreaGeometry, heightM: number)
     geometry,
     properties: { height: heightM },
   };
-  return {
-    ...plan,
-    terrain: {
-      ...plan.terrain,
-      buildings: { ...plan.terrain.buildings, features: [...plan.terrain.buildings.features, f] },
-    },
-  };
+  return withBuildings(plan, [...plan.terrain.buildings.features, f]);
 }
 
 export function addBuildings(plan: Plan, features: BuildingFeature[]): Plan {
-  return {
-    ...plan,
-    terrain: {
-      ...plan.terrain,
-      buildings: { ...plan.terrain.buildings, features: [...plan.terrain.buildings.features, ...features] },
-    },
-  };
+  return withBuildings(plan, [...plan.terrain.buildings.features, ...features]);
 }
 
 export function addTreeStand(plan: Plan, geometry: AreaGeometry, canopyHeightM: number): Plan {
@@ -98,7 +94,7 @@ export function addTreeStand(plan: Plan, geometry: AreaGeometry, canopyHeightM: 
     geometry,
     canopyHeightM,
   };
-  return { ...plan, terrain: { ...plan.terrain, treeStands: [...plan.terrain.treeStands, t] } };
+  return withTreeStands(plan, [...plan.terrain.treeStands, t]);
 }
 
 /** Removes a target class; the last one stays (a plan judges at least one). */
@@ -121,10 +117,6 @@ export function setAnalysisHeights(plan: Plan, heightsM: number[]): Plan {
   return { ...plan, analysis: { ...plan.analysis, targetHeightsM: hs }, targetClasses };
 }
 
-function withBuildings(plan: Plan, features: BuildingFeature[]): Plan {
-  return { ...plan, terrain: { ...plan.terrain, buildings: { ...plan.terrain.buildings, features } } };
-}
-
 /** Sets a building's roof height above ground (its `height`, which takes precedence over levels). */
 export function setBuildingHeight(plan: Plan, index: number, heightM: number): Plan {
   const f = plan.terrain.buildings.features[index];
@@ -140,10 +132,6 @@ export function removeBuilding(plan: Plan, index: number): Plan {
     plan,
     plan.terrain.buildings.features.filter((_, i) => i !== index),
   );
-}
-
-function withTreeStands(plan: Plan, treeStands: TreeStand[]): Plan {
-  return { ...plan, terrain: { ...plan.terrain, treeStands } };
 }
 
 export function setCanopyHeight(plan: Plan, id: string, canopyHeightM: number): Plan {

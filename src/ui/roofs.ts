@@ -1,21 +1,10 @@
 /**
  * Buildings and tree stands under a point: the roof to snap a post to, and the obstruction a click on
- * the map selects for editing. Heights follow the rule of the import (buildings.ts): `height`, else
- * `building:levels` × metres per level, else the default.
+ * the map selects for editing. Roof heights as the obstruction surface reads them (io/buildingHeight.ts).
  */
 import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
-import { DEFAULT_BUILDING_HEIGHT_M, DEFAULT_METRES_PER_LEVEL } from "../coverage/constants";
-import type { AreaGeometry, BuildingProperties, Plan } from "../io/planSchema";
-
-/** Where a building's roof height comes from, as the editor says it. */
-export type RoofHeightSource = "height" | "levels" | "default";
-
-export function roofHeightOf(p: BuildingProperties): { heightM: number; source: RoofHeightSource } {
-  if (p.height !== undefined) return { heightM: p.height, source: "height" };
-  if (p["building:levels"] !== undefined)
-    return { heightM: p["building:levels"] * DEFAULT_METRES_PER_LEVEL, source: "levels" };
-  return { heightM: DEFAULT_BUILDING_HEIGHT_M, source: "default" };
-}
+import { roofHeightOf } from "../io/buildingHeight";
+import type { AreaGeometry, Plan } from "../io/planSchema";
 
 function inside(lonDeg: number, latDeg: number, g: AreaGeometry): boolean {
   const pt = { type: "Point" as const, coordinates: [lonDeg, latDeg] };

@@ -1,7 +1,8 @@
 // @vitest-environment jsdom
 import { beforeEach, describe, expect, it } from "vitest";
 import { DEFAULT_BUILDING_HEIGHT_M, DEFAULT_METRES_PER_LEVEL } from "../../src/coverage/constants";
-import type { AreaGeometry, Plan } from "../../src/io/planSchema";
+import { roofHeightOf } from "../../src/io/buildingHeight";
+import type { Plan } from "../../src/io/planSchema";
 import { parsePlan } from "../../src/io/planValidation";
 import {
   addBuilding,
@@ -11,33 +12,18 @@ import {
   setBuildingHeight,
   setCanopyHeight,
 } from "../../src/ui/planEdits";
-import { obstructionUnder, roofHeightOf } from "../../src/ui/roofs";
+import { obstructionUnder } from "../../src/ui/roofs";
 import { undo, usePlanStore } from "../../src/ui/store";
 import { samplePlan } from "./samplePlan";
-
-/** A square of `d` degrees with its south-west corner at (lon, lat). */
-function square(lon: number, lat: number, d: number): AreaGeometry {
-  return {
-    type: "Polygon",
-    coordinates: [
-      [
-        [lon, lat],
-        [lon + d, lat],
-        [lon + d, lat + d],
-        [lon, lat + d],
-        [lon, lat],
-      ],
-    ],
-  };
-}
+import { squareGeometry } from "./squareGeometry";
 
 /** The sample plan with two buildings (the second by levels) and a tree stand beside them. */
 function withObstructions(): Plan {
   let p = samplePlan();
-  p = addBuilding(p, square(15.3, 47.1, 0.0002), 12);
-  p = addBuilding(p, square(15.301, 47.1, 0.0002), 9);
+  p = addBuilding(p, squareGeometry(15.3, 47.1, 0.0002), 12);
+  p = addBuilding(p, squareGeometry(15.301, 47.1, 0.0002), 9);
   p.terrain.buildings.features[1].properties = { "building:levels": 4 };
-  return addTreeStand(p, square(15.302, 47.1, 0.0005), 18);
+  return addTreeStand(p, squareGeometry(15.302, 47.1, 0.0005), 18);
 }
 
 describe("buildings and tree stands chosen on the map", () => {

@@ -10,6 +10,7 @@ import { ROOF_MAST_M } from "../../src/ui/postMoves";
 import { useSession } from "../../src/ui/session";
 import { undo, usePlanStore } from "../../src/ui/store";
 import { samplePlan } from "./samplePlan";
+import { squareGeometry } from "./squareGeometry";
 
 (globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
@@ -35,22 +36,7 @@ describe("post coordinates typed in the form", () => {
     plan.posts[0].position.latDeg += 1.234e-7;
     const { lonDeg, latDeg } = plan.posts[0].position;
     // A 15 m building 0.001° east of the post.
-    const withRoof = addBuilding(
-      plan,
-      {
-        type: "Polygon",
-        coordinates: [
-          [
-            [lonDeg + 0.0009, latDeg - 0.0001],
-            [lonDeg + 0.0011, latDeg - 0.0001],
-            [lonDeg + 0.0011, latDeg + 0.0001],
-            [lonDeg + 0.0009, latDeg + 0.0001],
-            [lonDeg + 0.0009, latDeg - 0.0001],
-          ],
-        ],
-      },
-      15,
-    );
+    const withRoof = addBuilding(plan, squareGeometry(lonDeg + 0.0009, latDeg - 0.0001, 0.0002), 15);
     usePlanStore.getState().load(withRoof);
     useSession.getState().set({ selectedPostId: withRoof.posts[0].id });
     const host = document.createElement("div");

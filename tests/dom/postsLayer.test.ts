@@ -2,6 +2,7 @@
 import { describe, expect, it } from "vitest";
 import L from "../../src/map/leaflet";
 import { PostsLayer, type PostView } from "../../src/map/postsLayer";
+import { mapOnPage } from "./mapOnPage";
 
 function post(id: string, lonDeg: number, latDeg: number, name = id): PostView {
   return {
@@ -16,14 +17,6 @@ function post(id: string, lonDeg: number, latDeg: number, name = id): PostView {
     maxRangeM: 500,
     exposureDistanceM: 3,
   };
-}
-
-function mapOnPage(): L.Map {
-  const el = document.createElement("div");
-  Object.defineProperty(el, "clientWidth", { value: 800 });
-  Object.defineProperty(el, "clientHeight", { value: 600 });
-  document.body.appendChild(el);
-  return L.map(el, { center: [47.0, 8.0], zoom: 15, zoomAnimation: false, fadeAnimation: false });
 }
 
 const noop = () => undefined;

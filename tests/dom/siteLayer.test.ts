@@ -2,31 +2,10 @@
 import { describe, expect, it } from "vitest";
 import type { AreaGeometry, BuildingFeature } from "../../src/io/planSchema";
 import { areaGeometryProblem } from "../../src/io/polygonRules";
-import L from "../../src/map/leaflet";
+import type L from "../../src/map/leaflet";
 import { SiteLayer, type SiteView } from "../../src/map/siteLayer";
-
-function square(lon: number, lat: number, d: number): AreaGeometry {
-  return {
-    type: "Polygon",
-    coordinates: [
-      [
-        [lon, lat],
-        [lon + d, lat],
-        [lon + d, lat + d],
-        [lon, lat + d],
-        [lon, lat],
-      ],
-    ],
-  };
-}
-
-function mapOnPage(): L.Map {
-  const el = document.createElement("div");
-  Object.defineProperty(el, "clientWidth", { value: 800 });
-  Object.defineProperty(el, "clientHeight", { value: 600 });
-  document.body.appendChild(el);
-  return L.map(el, { center: [47.0, 8.0], zoom: 15, zoomAnimation: false, fadeAnimation: false });
-}
+import { mapOnPage } from "./mapOnPage";
+import { squareGeometry } from "./squareGeometry";
 
 /** The footprints' polygons in drawing order (buildings, then tree stands). */
 function footprints(layer: SiteLayer): L.Polygon[] {
@@ -39,14 +18,14 @@ function footprints(layer: SiteLayer): L.Polygon[] {
 describe("site layer", () => {
   const buildings: BuildingFeature[] = [0, 1, 2].map((k) => ({
     type: "Feature",
-    geometry: square(8 + k * 0.001, 47, 0.0002),
+    geometry: squareGeometry(8 + k * 0.001, 47, 0.0002),
     properties: { height: 10 + k },
   }));
   const base: SiteView = {
-    protectedAreas: [{ id: "a", name: "A", geometry: square(7.99, 46.99, 0.02) }],
+    protectedAreas: [{ id: "a", name: "A", geometry: squareGeometry(7.99, 46.99, 0.02) }],
     approachRingDepthM: 300,
     buildings,
-    treeStands: [{ id: "t1", geometry: square(8.01, 47, 0.001), canopyHeightM: 15 }],
+    treeStands: [{ id: "t1", geometry: squareGeometry(8.01, 47, 0.001), canopyHeightM: 15 }],
     showBuildings: true,
   };
 

@@ -11,6 +11,7 @@ import { afterAll, beforeAll, describe, expect, it } from "vitest";
 import { evaluateSite } from "../../src/coverage/evaluate";
 import { parsePlan } from "../../src/io/planValidation";
 import { preparePlan } from "../../src/io/preparePlan";
+import { squareGeometry } from "../dom/squareGeometry";
 import { browserAvailable, compareGolden, type Harness, ROOT, shoot, startHarness } from "./harness";
 
 const RUN = browserAvailable();
@@ -73,6 +74,20 @@ async function mapBox(p: Page) {
   return b;
 }
 
+/** Of the shown labels matching `selector`, how many there are and how many overlap a post's name. */
+async function labelsOnPostNames(p: Page, selector: string): Promise<{ shown: number; clashes: number }> {
+  return p.evaluate((sel) => {
+    const rect = (e: Element) => e.getBoundingClientRect();
+    const hit = (a: DOMRect, b: DOMRect) =>
+      a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
+    const names = Array.from(document.querySelectorAll(".post-label"), rect);
+    const shown = Array.from(document.querySelectorAll(sel))
+      .filter((e) => (e as HTMLElement).style.visibility !== "hidden")
+      .map(rect);
+    return { shown: shown.length, clashes: shown.filter((r) => names.some((q) => hit(r, q))).length };
+  }, selector);
+}
+
 async function openTab(p: Page, id: string): Promise<void> {
   await p.getByTestId(`tab-${id}`).click();
 }
@@ -115,16 +130,7 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     expect(csp).toMatch(/script-src 'self'/);
     expect(csp).not.toMatch(/unsafe-eval/);
     // Gap area labels give way to post names: no shown label overlaps one, and some are shown.
-    const clashes = await page.evaluate(() => {
-      const rect = (e: Element) => e.getBoundingClientRect();
-      const hit = (a: DOMRect, b: DOMRect) =>
-        a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
-      const posts = Array.from(document.querySelectorAll(".post-label"), rect);
-      const shown = Array.from(document.querySelectorAll(".gap-label span"))
-        .filter((e) => (e as HTMLElement).style.visibility !== "hidden")
-        .map(rect);
-      return { shown: shown.length, clashes: shown.filter((g) => posts.some((q) => hit(g, q))).length };
-    });
+    const clashes = await labelsOnPostNames(page, ".gap-label span");
     expect(clashes.shown).toBeGreaterThan(0);
     expect(clashes.clashes).toBe(0);
     // At 10 m the knoll mast alone meets cells no other post meets; the water tower meets none alone.
@@ -425,16 +431,7 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     expect(await text(page, "legend")).toMatch(/RF-exposure distance, general public, antenna stopped/);
     expect(await text(page, "legend")).toMatch(/Radar sector and maximum instrumented range/);
     // RF labels give way to post names as gap labels do.
-    const rfClashes = await page.evaluate(() => {
-      const rect = (e: Element) => e.getBoundingClientRect();
-      const hit = (a: DOMRect, b: DOMRect) =>
-        a.left < b.right && b.left < a.right && a.top < b.bottom && b.top < a.bottom;
-      const names = Array.from(document.querySelectorAll(".post-label"), rect);
-      const shown = Array.from(document.querySelectorAll(".exposure-label span"))
-        .filter((e) => (e as HTMLElement).style.visibility !== "hidden")
-        .map(rect);
-      return { shown: shown.length, clashes: shown.filter((r) => names.some((q) => hit(r, q))).length };
-    });
+    const rfClashes = await labelsOnPostNames(page, ".exposure-label span");
     expect(rfClashes.shown).toBeGreaterThan(0);
     expect(rfClashes.clashes).toBe(0);
     await shoot(page, "exposure");
@@ -562,25 +559,13 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     const plan = JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8"));
     const ring = plan.protectedAreas[0].geometry.coordinates[0] as number[][];
     const [lon, lat] = ring[0];
-    const d = 0.0002;
     const fc = {
       type: "FeatureCollection",
       features: [
         {
           type: "Feature",
           properties: { "building:levels": 4, name: "<b>Annex</b>" },
-          geometry: {
-            type: "Polygon",
-            coordinates: [
-              [
-                [lon, lat],
-                [lon + d, lat],
-                [lon + d, lat + d],
-                [lon, lat + d],
-                [lon, lat],
-              ],
-            ],
-          },
+          geometry: squareGeometry(lon, lat, 0.0002),
         },
       ],
     };

@@ -2,10 +2,11 @@
  * The building or tree stand chosen on the map: its height above ground (and where that height came
  * from), and Delete. Every change is one undo step.
  */
+import type { ReactNode } from "react";
 import { DEFAULT_METRES_PER_LEVEL, MAX_OBSTRUCTION_HEIGHT_M } from "../../coverage/constants";
+import { roofHeightOf } from "../../io/buildingHeight";
 import { NumberField } from "../components/NumberField";
 import { removeBuilding, removeTreeStand, setBuildingHeight, setCanopyHeight } from "../planEdits";
-import { roofHeightOf } from "../roofs";
 import { useSession } from "../session";
 import { usePlanStore } from "../store";
 
@@ -13,6 +14,50 @@ import { usePlanStore } from "../store";
 const MAX_CANOPY_HEIGHT_M = 150;
 /** Lowest height given to a drawn or edited obstruction, m (as for new buildings and tree stands). */
 const MIN_OBSTRUCTION_HEIGHT_M = 0.5;
+
+/** The card both kinds share: name, height above ground, a note, Delete and Done. */
+function ObstructionCard(p: {
+  kind: "building" | "tree stand";
+  title: string;
+  heightLabel: string;
+  maxHeightM: number;
+  heightM: number;
+  onHeight: (heightM: number) => void;
+  note?: ReactNode;
+  onDelete: () => void;
+  onClose: () => void;
+}) {
+  return (
+    <section className="obstruction-editor" aria-label={`Chosen ${p.kind}`} data-testid="obstruction-editor">
+      <h3>{p.title}</h3>
+      <NumberField
+        label={p.heightLabel}
+        unit="m AGL"
+        min={MIN_OBSTRUCTION_HEIGHT_M}
+        max={p.maxHeightM}
+        value={p.heightM}
+        testId="obstruction-height"
+        onCommit={p.onHeight}
+      />
+      {p.note && <p className="muted">{p.note}</p>}
+      <div className="button-row">
+        <button
+          type="button"
+          data-testid="obstruction-delete"
+          onClick={() => {
+            p.onDelete();
+            p.onClose();
+          }}
+        >
+          Delete {p.kind}
+        </button>
+        <button type="button" onClick={p.onClose}>
+          Done
+        </button>
+      </div>
+    </section>
+  );
+}
 
 export function ObstructionEditor() {
   const sel = useSession((s) => s.selectedObstruction);
@@ -26,8 +71,6 @@ export function ObstructionEditor() {
     // Gone after an undo or an import: nothing to edit.
     if (!f) return null;
     const { heightM, source } = roofHeightOf(f.properties);
-    const name =
-      typeof f.properties.name === "string" ? f.properties.name : `Building ${f.id ?? sel.index + 1}`;
     const from =
       source === "height"
         ? "the footprint's height value"
@@ -35,67 +78,37 @@ export function ObstructionEditor() {
           ? `${f.properties["building:levels"]} levels × ${DEFAULT_METRES_PER_LEVEL} m`
           : "the default: the file gave no height";
     return (
-      <section className="obstruction-editor" aria-label="Chosen building" data-testid="obstruction-editor">
-        <h3>{name}</h3>
-        <NumberField
-          label="Roof height"
-          unit="m AGL"
-          min={MIN_OBSTRUCTION_HEIGHT_M}
-          max={MAX_OBSTRUCTION_HEIGHT_M}
-          value={heightM}
-          testId="obstruction-height"
-          onCommit={(v) => change((p) => setBuildingHeight(p, sel.index, v), "building height")}
-        />
-        <p className="muted">
-          From {from}.{f.id !== undefined && ` Identifier ${f.id}.`}
-        </p>
-        <div className="button-row">
-          <button
-            type="button"
-            data-testid="obstruction-delete"
-            onClick={() => {
-              change((p) => removeBuilding(p, sel.index), "delete building");
-              close();
-            }}
-          >
-            Delete building
-          </button>
-          <button type="button" onClick={close}>
-            Done
-          </button>
-        </div>
-      </section>
+      <ObstructionCard
+        kind="building"
+        title={
+          typeof f.properties.name === "string" ? f.properties.name : `Building ${f.id ?? sel.index + 1}`
+        }
+        heightLabel="Roof height"
+        maxHeightM={MAX_OBSTRUCTION_HEIGHT_M}
+        heightM={heightM}
+        onHeight={(v) => change((p) => setBuildingHeight(p, sel.index, v), "building height")}
+        note={
+          <>
+            From {from}.{f.id !== undefined && ` Identifier ${f.id}.`}
+          </>
+        }
+        onDelete={() => change((p) => removeBuilding(p, sel.index), "delete building")}
+        onClose={close}
+      />
     );
   }
   const t = plan.terrain.treeStands.find((s) => s.id === sel.id);
   if (!t) return null;
   return (
-    <section className="obstruction-editor" aria-label="Chosen tree stand" data-testid="obstruction-editor">
-      <h3>{t.name ?? t.id}</h3>
-      <NumberField
-        label="Canopy height"
-        unit="m AGL"
-        min={MIN_OBSTRUCTION_HEIGHT_M}
-        max={MAX_CANOPY_HEIGHT_M}
-        value={t.canopyHeightM}
-        testId="obstruction-height"
-        onCommit={(v) => change((p) => setCanopyHeight(p, t.id, v), "canopy height")}
-      />
-      <div className="button-row">
-        <button
-          type="button"
-          data-testid="obstruction-delete"
-          onClick={() => {
-            change((p) => removeTreeStand(p, t.id), "delete tree stand");
-            close();
-          }}
-        >
-          Delete tree stand
-        </button>
-        <button type="button" onClick={close}>
-          Done
-        </button>
-      </div>
-    </section>
+    <ObstructionCard
+      kind="tree stand"
+      title={t.name ?? t.id}
+      heightLabel="Canopy height"
+      maxHeightM={MAX_CANOPY_HEIGHT_M}
+      heightM={t.canopyHeightM}
+      onHeight={(v) => change((p) => setCanopyHeight(p, t.id, v), "canopy height")}
+      onDelete={() => change((p) => removeTreeStand(p, t.id), "delete tree stand")}
+      onClose={close}
+    />
   );
 }
