@@ -515,6 +515,8 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await page.mouse.click(b.x + b.width * 0.12, b.y + b.height * 0.87);
     await page.getByTestId("obstruction-editor").waitFor({ timeout: 5_000 });
     expect(await page.getByTestId("tab-site").getAttribute("aria-selected")).toBe("true");
+    // Named as the map's tooltip names it (the drawn building is the plan's last one).
+    expect(await text(page, "obstruction-editor")).toMatch(/^Building \d+Roof height/);
     const height = page.getByTestId("obstruction-height");
     expect(await height.inputValue()).toBe("10");
     const count = async () => Number((await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1]);

@@ -4,7 +4,7 @@
  */
 import type { ReactNode } from "react";
 import { DEFAULT_METRES_PER_LEVEL, MAX_OBSTRUCTION_HEIGHT_M } from "../../coverage/constants";
-import { roofHeightOf } from "../../io/buildingHeight";
+import { buildingName, roofHeightOf } from "../../io/buildingHeight";
 import { NumberField } from "../components/NumberField";
 import { removeBuilding, removeTreeStand, setBuildingHeight, setCanopyHeight } from "../planEdits";
 import { useSession } from "../session";
@@ -80,9 +80,7 @@ export function ObstructionEditor() {
     return (
       <ObstructionCard
         kind="building"
-        title={
-          typeof f.properties.name === "string" ? f.properties.name : `Building ${f.id ?? sel.index + 1}`
-        }
+        title={buildingName(f, sel.index)}
         heightLabel="Roof height"
         maxHeightM={MAX_OBSTRUCTION_HEIGHT_M}
         heightM={heightM}
