@@ -8,6 +8,7 @@ import patchFmcw from "../../demo-sites/radars/mossbee-58-patch-fmcw.json";
 import staringFmcw from "../../demo-sites/radars/zorvane-s24-staring-fmcw.json";
 import type { RadarModel } from "../../src/coverage/radarModel";
 import { parseRadarModel } from "../../src/io/radarSchema";
+import { NEW_RADAR_MODEL_NAME } from "../../src/ui/newRadarModel";
 import { RadarsPanel } from "../../src/ui/panels/RadarsPanel";
 import { derivedFigures } from "../../src/ui/panels/radarForm/derivedFigures";
 import {
@@ -273,6 +274,38 @@ describe("radar form in the DOM", () => {
     expect(host.querySelector('[data-testid="rf-d-range"]')?.textContent).toBe(before);
     const m = usePlanStore.getState().plan?.radarModels[0];
     expect(parseRadarModel(m).ok).toBe(true);
+  });
+
+  it("adds a new model with valid starting figures, opens it for editing, names its users; undo removes it", () => {
+    const plan = samplePlan();
+    usePlanStore.getState().load(plan);
+    render(<RadarsPanel />);
+    const users = () => host.querySelector('[data-testid="model-users"]')?.textContent ?? "";
+    const firstUsers = plan.posts.filter((p) => p.radarModelId === plan.radarModels[0].id).map((p) => p.name);
+    expect(firstUsers.length).toBeGreaterThan(0);
+    expect(users()).toBe(`Used by ${firstUsers.join(", ")}.`);
+    const n = plan.radarModels.length;
+    const add = [...host.querySelectorAll("button")].find((b) => b.textContent === "New model");
+    act(() => add?.click());
+    const models = usePlanStore.getState().plan?.radarModels ?? [];
+    expect(models).toHaveLength(n + 1);
+    const m = models[n];
+    expect(m.name).toBe(NEW_RADAR_MODEL_NAME);
+    expect(models.filter((x) => x.id === m.id)).toHaveLength(1);
+    // The starting figures pass the same schema as an imported model file, and are the user's, not an example.
+    expect(parseRadarModel(m)).toEqual({ ok: true, model: m });
+    expect(m.invented).toBeUndefined();
+    expect(host.querySelector("h3")?.textContent).toBe(NEW_RADAR_MODEL_NAME);
+    expect((host.querySelector('[data-testid="radar-form"]') as HTMLElement).hidden).toBe(false);
+    expect(users()).toBe("No post uses this model.");
+    const del = [...host.querySelectorAll("button")].find(
+      (b) => b.textContent === "Delete",
+    ) as HTMLButtonElement;
+    expect(del.disabled).toBe(false);
+    act(() => {
+      undo();
+    });
+    expect(usePlanStore.getState().plan?.radarModels).toHaveLength(n);
   });
 
   it("imports a pattern cut per plane from CSV; a bad file lists its errors and keeps the cut in use", async () => {

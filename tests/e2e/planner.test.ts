@@ -285,6 +285,15 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
     await form.getByRole("button", { name: "Close" }).click();
     await page.getByTestId("undo").click();
     await expect.poll(() => models.count()).toBe(n);
+    // A model from scratch opens in the form, used by no post yet; undo takes it away.
+    await page.getByRole("button", { name: "New model" }).click();
+    await expect.poll(() => models.count()).toBe(n + 1);
+    expect(await text(page, "model-users")).toBe("No post uses this model.");
+    expect(await form.getByLabel("Name", { exact: true }).inputValue()).toBe("New radar model");
+    await form.getByRole("button", { name: "Close" }).click();
+    await page.getByTestId("undo").click();
+    await expect.poll(() => models.count()).toBe(n);
+    expect(await text(page, "model-users")).toMatch(/^Used by North-west knoll mast/);
     await shoot(page, "radars");
     await openTab(page, "posts");
   });

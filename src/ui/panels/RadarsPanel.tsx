@@ -1,13 +1,14 @@
 /**
- * The radar-model library: the plan's models with their key figures; duplicate, edit (in the form of
- * radarForm/, with the JSON document as its advanced view), export, import a model file, delete an
- * unused model.
+ * The radar-model library: the plan's models with their key figures and the posts that use them; a
+ * new model from starting figures, duplicate, edit (in the form of radarForm/, with the JSON document
+ * as its advanced view), export, import a model file, delete an unused model.
  */
 import { fileOpen, fileSave } from "browser-fs-access";
 import { useCallback, useRef, useState } from "react";
 import { radarRangeWindowM } from "../../coverage/coverage";
 import type { RadarModel } from "../../coverage/radarModel";
 import { loadRadarModelFile } from "../../io/radarFile";
+import { newRadarModel } from "../newRadarModel";
 import { say } from "../session";
 import { freshId, usePlanStore } from "../store";
 import { RadarModelForm } from "./radarForm/RadarModelForm";
@@ -67,7 +68,19 @@ export function RadarsPanel() {
     [change, modelId],
   );
   if (!plan) return null;
-  const used = (id: string) => plan.posts.some((p) => p.radarModelId === id);
+  const usersOf = (id: string) => plan.posts.filter((p) => p.radarModelId === id).map((p) => p.name);
+  const used = (id: string) => usersOf(id).length > 0;
+  const openForm = () => {
+    setFormMounted(true);
+    setEditing(true);
+  };
+
+  const addNew = () => {
+    const m = newRadarModel(plan.radarModels);
+    change((p) => ({ ...p, radarModels: [...p.radarModels, m] }), "add radar model");
+    setSelected(m.id);
+    openForm();
+  };
 
   const duplicate = (m: RadarModel) => {
     const id = freshId(m.id, plan.radarModels);
@@ -106,14 +119,24 @@ export function RadarsPanel() {
           </li>
         ))}
       </ul>
-      <button type="button" onClick={() => void importModel()}>
-        Import model file…
-      </button>
+      <div className="button-row">
+        <button type="button" onClick={addNew}>
+          New model
+        </button>
+        <button type="button" onClick={() => void importModel()}>
+          Import model file…
+        </button>
+      </div>
       {model && (
         <section aria-label="Selected radar model">
           <h3>{model.name}</h3>
           {model.invented && <p className="muted">An invented example model, not a real product.</p>}
           <KeyFigures m={model} />
+          <p className="muted" data-testid="model-users">
+            {usersOf(model.id).length === 0
+              ? "No post uses this model."
+              : `Used by ${usersOf(model.id).join(", ")}.`}
+          </p>
           {(editing || formMounted) && (
             <RadarModelForm
               key={model.id}
