@@ -3,7 +3,7 @@ import { beforeEach, describe, expect, it } from "vitest";
 import { parsePlan } from "../../src/io/planValidation";
 import { addPost, setAnalysisHeights, updatePost } from "../../src/ui/planEdits";
 import { planToText, readPlanText } from "../../src/ui/planText";
-import { historyLabels, redo, undo, usePlanStore } from "../../src/ui/store";
+import { freshId, freshIds, historyLabels, redo, undo, usePlanStore } from "../../src/ui/store";
 import { samplePlan } from "./samplePlan";
 
 describe("plan store with undo/redo", () => {
@@ -63,6 +63,33 @@ describe("plan store with undo/redo", () => {
     const p = setAnalysisHeights(samplePlan(), [50, 5, 50]);
     expect(p.analysis.targetHeightsM).toEqual([5, 50]);
     expect(p.targetClasses[0].heightsAglM).toEqual([50]);
+  });
+});
+
+describe("fresh identifiers", () => {
+  it("skips used ids and gives, in one pass, the ids freshId would give one after another", () => {
+    const existing = [{ id: "building-2" }, { id: "building-4" }, { id: "other-1" }];
+    expect(freshId("building", existing)).toBe("building-1");
+    expect(freshIds("building", existing, 4)).toEqual([
+      "building-1",
+      "building-3",
+      "building-5",
+      "building-6",
+    ]);
+    expect(freshIds("building", existing, 0)).toEqual([]);
+    // One by one, each id added to the used ones before the next: the same list.
+    const one: { id: string }[] = [...existing];
+    for (let k = 0; k < 40; k++) one.push({ id: freshId("building", one) });
+    expect(freshIds("building", existing, 40)).toEqual(one.slice(existing.length).map((e) => e.id));
+  });
+
+  it("gives twenty thousand distinct new ids around existing ones", () => {
+    const existing = Array.from({ length: 5000 }, (_, k) => ({ id: `building-${2 * k + 1}` }));
+    const ids = freshIds("building", existing, 20_000);
+    expect(new Set(ids).size).toBe(20_000);
+    const used = new Set(existing.map((e) => e.id));
+    expect(ids.filter((id) => used.has(id))).toEqual([]);
+    expect(ids[0]).toBe("building-2");
   });
 });
 

@@ -589,6 +589,38 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
       .toBe(String(Number(before) + 1));
     // User text is shown as text: no <b> element was made from the attribute.
     expect(await page.locator(".leaflet-container b").count()).toBe(0);
+    // A town's worth of footprints (an OSM export): imported in one step, drawn on one canvas instead
+    // of an SVG path each, and undone in one step.
+    // Footprints drawn as SVG carry the building fill colour (siteLayer.ts BUILDING_STYLE).
+    const svgPaths = () => page.locator('.leaflet-overlay-pane svg path[fill="#8c7b70"]').count();
+    const paths0 = await svgPaths();
+    expect(paths0).toBeGreaterThan(0);
+    const town = {
+      type: "FeatureCollection",
+      features: Array.from({ length: 1500 }, (_, k) => ({
+        type: "Feature",
+        properties: { height: 6 + (k % 9) },
+        geometry: squareGeometry(lon + 0.0004 * (k % 50), lat - 0.004 - 0.0004 * Math.floor(k / 50), 0.0001),
+      })),
+    };
+    const townFile = join(work, "town.geojson");
+    writeFileSync(townFile, JSON.stringify(town));
+    const g1 = await gen(page);
+    await page.getByTestId("import-input").setInputFiles(townFile);
+    await expect
+      .poll(async () => (await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1], {
+        timeout: 30_000,
+      })
+      .toBe(String(Number(before) + 1501));
+    expect(await page.locator(".leaflet-overlay-pane canvas").count()).toBeGreaterThan(0);
+    expect(await svgPaths()).toBe(0);
+    await waitNewRun(page, g1);
+    await shoot(page, "town-imported");
+    await page.getByTestId("undo").click();
+    await expect
+      .poll(async () => (await text(page, "terrain-summary")).match(/(\d+) buildings/)?.[1])
+      .toBe(String(Number(before) + 1));
+    await expect.poll(svgPaths).toBe(paths0);
   });
 
   it("refuses a bad file with a message and keeps the plan", async () => {

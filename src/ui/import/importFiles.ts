@@ -15,7 +15,7 @@ import { useAssets } from "../assets";
 import { openPlanFile } from "../files";
 import { addBuildings, addPost } from "../planEdits";
 import { say } from "../session";
-import { currentPlan, freshId, usePlanStore } from "../store";
+import { currentPlan, freshIds, usePlanStore } from "../store";
 import { formatCsvErrors, parsePostsCsv } from "./postsCsv";
 
 export type ImportKind =
@@ -101,12 +101,12 @@ async function importBuildings(file: File, plan: Plan): Promise<void> {
   const grid = siteGridFrame(plan);
   const r = parseBuildings(input, file.name, grid.toGrid, { frame: grid.frame });
   const existing = plan.terrain.buildings.features.map((f, i) => ({ id: String(f.id ?? `b${i}`) }));
+  const buildingIds = freshIds("building", existing, r.buildings.length);
   const features: BuildingFeature[] = [];
-  for (const b of r.buildings) {
-    const id = freshId("building", [...existing, ...features.map((f) => ({ id: String(f.id) }))]);
+  for (const [k, b] of r.buildings.entries()) {
     features.push({
       type: "Feature",
-      id,
+      id: buildingIds[k],
       geometry: ringsToGeometry(b.rings, grid.toLonLat),
       properties: {
         height: b.heightM,
@@ -115,10 +115,11 @@ async function importBuildings(file: File, plan: Plan): Promise<void> {
       },
     });
   }
+  const treeIds = freshIds("trees", plan.terrain.treeStands, r.treeStands.length);
   const trees: TreeStand[] = [];
-  for (const t of r.treeStands) {
+  for (const [k, t] of r.treeStands.entries()) {
     trees.push({
-      id: freshId("trees", [...plan.terrain.treeStands, ...trees]),
+      id: treeIds[k],
       name: t.id,
       geometry: ringsToGeometry(t.rings, grid.toLonLat),
       canopyHeightM: t.canopyHeightM,
