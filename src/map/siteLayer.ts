@@ -145,7 +145,8 @@ export class SiteLayer extends L.FeatureGroup {
         ...renderer,
         style: i === v.selectedBuilding ? { ...BUILDING_STYLE, ...SELECTED_OUTLINE } : BUILDING_STYLE,
       });
-      layer.bindTooltip(textTooltip(buildingLabel(b, i)), { sticky: true });
+      // The tooltip's element is made when it first opens: ten thousand footprints, ten thousand spans.
+      layer.bindTooltip(() => textTooltip(buildingLabel(b, i)), { sticky: true });
       this.buildingLayers.push(layer);
       this.obstructions.addLayer(layer);
     });
@@ -154,7 +155,9 @@ export class SiteLayer extends L.FeatureGroup {
         ...renderer,
         style: t.id === v.selectedTreeId ? { ...TREE_STYLE, ...SELECTED_OUTLINE } : TREE_STYLE,
       });
-      layer.bindTooltip(textTooltip(`${t.name ?? t.id}: canopy ${t.canopyHeightM} m`), { sticky: true });
+      layer.bindTooltip(() => textTooltip(`${t.name ?? t.id}: canopy ${t.canopyHeightM} m`), {
+        sticky: true,
+      });
       this.treeLayers.set(t.id, layer);
       this.obstructions.addLayer(layer);
     }

@@ -52,6 +52,22 @@ describe("site layer", () => {
     map.remove();
   });
 
+  it("shows a footprint's tooltip, made when it opens, with the imported name as text, never as HTML", () => {
+    const map = mapOnPage();
+    const layer = new SiteLayer().addTo(map);
+    const named: BuildingFeature = {
+      ...buildings[0],
+      properties: { height: 12, name: "<b>Annex</b><img src=x onerror=alert(1)>" },
+    };
+    layer.setSite({ ...base, buildings: [named] });
+    const group = (layer as unknown as { buildingLayers: L.GeoJSON[] }).buildingLayers[0];
+    group.openTooltip([47.0001, 8.0001]);
+    const tip = document.querySelector(".leaflet-tooltip");
+    expect(tip?.textContent).toBe("<b>Annex</b><img src=x onerror=alert(1)>: 12 m");
+    expect(tip?.querySelector("b, img")).toBeNull();
+    map.remove();
+  });
+
   it("draws an area whose outline crosses itself as a warning, with no approach ring around it", () => {
     const map = mapOnPage();
     const layer = new SiteLayer().addTo(map);
