@@ -49,9 +49,13 @@ export async function restoreAutosave(): Promise<{ restored: Restored | null; pr
   return { restored: { plan: r.plan, dem } };
 }
 
-/** Writes the plan now. */
+/**
+ * Writes the plan now, as compact JSON: it runs on the page after every change, and the indented text
+ * of a plan holding an imported town (3.7 MB of footprints) took 124 ms at the end of each drag where
+ * the compact one takes about a third of that. Plan files and recent plans keep the indented text.
+ */
 export async function savePlanNow(plan: Plan): Promise<void> {
-  await set(KEY_CURRENT, planToText(plan), db());
+  await set(KEY_CURRENT, JSON.stringify(plan), db());
 }
 
 /** Stores DEM bytes under their file name. */

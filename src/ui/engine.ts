@@ -9,6 +9,7 @@
 
 import * as Comlink from "comlink";
 import type { Plan } from "../io/planSchema";
+import { planToWire } from "../workers/planWire";
 import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
 import type {
   CoverageApi,
@@ -211,7 +212,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   const lowestShown = useSession.getState().layer === "lowest";
   const req: EvaluateRequest = {
     generation: g,
-    plan,
+    ...planToWire(plan),
     // Each send puts in the DEM as that worker needs it (withDem).
     dem: null,
     ...(options.preview ? { maskMode: "fast" as const } : {}),

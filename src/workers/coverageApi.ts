@@ -26,6 +26,7 @@ import { preparePlan } from "../io/preparePlan";
 import { type SiteGrid, siteGridFrame } from "../io/siteGrid";
 import { type GapShapesXY, gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
+import { planFromWire } from "./planWire";
 import { planKeyWithoutPlacement, previewSite } from "./preview";
 import { terrainProfile } from "./profile";
 import { throttleProgress } from "./progressThrottle";
@@ -319,7 +320,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   ): Promise<CoverageView> => {
     const t0 = now();
     const stale = () => req.generation < newest;
-    const whole = await prepare(req.plan, demOf(req.dem), req.maskMode);
+    const whole = await prepare(planFromWire(req), demOf(req.dem), req.maskMode);
     const full = req.part && whole.maskMode !== "fast" ? partSite(whole, req.part) : whole;
     onSite(full);
     let site = req.maskMode === "fast" && req.focus ? focusSite(full, req.focus) : full;

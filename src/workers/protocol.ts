@@ -28,6 +28,8 @@ export interface DemPayload {
 export interface EvaluateRequest {
   generation: number;
   plan: Plan;
+  /** The plan's footprints as JSON text, when `plan` carries none (planWire.ts; large imports). */
+  buildingsJson?: string;
   /** The DEM the plan names (its bytes once per worker: DemPayload.bytes). */
   dem: DemPayload | null;
   /** "fast" for previews while dragging; "accurate" otherwise (the plan's own setting when absent). */
