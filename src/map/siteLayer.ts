@@ -66,7 +66,8 @@ export class SiteLayer extends L.FeatureGroup {
   private last: SiteView | null = null;
   private buildingLayers: L.GeoJSON[] = [];
   private treeLayers = new Map<string, L.GeoJSON>();
-  private canvas: L.Canvas | null = null;
+  /** The renderer of many footprints; it makes its canvas only when a footprint is added to it. */
+  private readonly canvas = L.canvas({ padding: 0.5 });
 
   constructor() {
     super();
@@ -138,8 +139,7 @@ export class SiteLayer extends L.FeatureGroup {
     this.treeLayers = new Map();
     if (!v.showBuildings) return;
     const many = v.buildings.length + v.treeStands.length > CANVAS_OBSTRUCTIONS_ABOVE;
-    if (many && !this.canvas) this.canvas = L.canvas({ padding: 0.5 });
-    const renderer = many && this.canvas ? { renderer: this.canvas } : {};
+    const renderer = many ? { renderer: this.canvas } : {};
     v.buildings.forEach((b, i) => {
       const layer = L.geoJSON(b.geometry as Polygon, {
         ...renderer,

@@ -50,12 +50,11 @@ export async function restoreAutosave(): Promise<{ restored: Restored | null; pr
 }
 
 /**
- * Writes the plan now, as compact JSON: it runs on the page after every change, and the indented text
- * of a plan holding an imported town (3.7 MB of footprints) took 124 ms at the end of each drag where
- * the compact one takes about a third of that. Plan files and recent plans keep the indented text.
+ * Writes the plan now, as compact text: the indented text of a plan holding an imported town (3.7 MB
+ * of footprints) took 124 ms at the end of each drag. Recent plans keep the indented text.
  */
 export async function savePlanNow(plan: Plan): Promise<void> {
-  await set(KEY_CURRENT, JSON.stringify(plan), db());
+  await set(KEY_CURRENT, planToText(plan, { compact: true }), db());
 }
 
 /** Stores DEM bytes under their file name. */

@@ -38,7 +38,10 @@ export function readPlanText(text: string, fileName: string): PlanTextResult {
   return { ok: true, plan: parsed.plan };
 }
 
-/** The text of a plan file as saved: pretty-printed JSON. */
-export function planToText(plan: Plan): string {
-  return `${JSON.stringify(plan, null, 2)}\n`;
+/**
+ * The text of a plan file as saved: pretty-printed JSON; `compact` for the autosave, which runs after
+ * every change (a third of the time on a plan holding thousands of footprints). readPlanText reads both.
+ */
+export function planToText(plan: Plan, options: { compact?: boolean } = {}): string {
+  return options.compact ? JSON.stringify(plan) : `${JSON.stringify(plan, null, 2)}\n`;
 }

@@ -30,11 +30,20 @@ export function planToWire(plan: Plan): WirePlan {
   return { plan: { ...plan, terrain: { ...plan.terrain, buildings: empty } }, buildingsJson: text };
 }
 
+/**
+ * The footprints last read in this thread: a drag sends the same text with every preview, and comparing
+ * it costs far less than parsing it again. The parsed value is only read (the plan is validated into
+ * a new object).
+ */
+let lastRead: { text: string; value: unknown } | null = null;
+
 /** The plan a WirePlan stands for (not yet validated: the worker parses it as any plan input). */
 export function planFromWire(w: { plan: unknown; buildingsJson?: string }): unknown {
-  if (w.buildingsJson === undefined) return w.plan;
+  const text = w.buildingsJson;
+  if (text === undefined) return w.plan;
   const plan = w.plan as { terrain?: object } | null;
   if (typeof plan !== "object" || plan === null || typeof plan.terrain !== "object" || plan.terrain === null)
     return w.plan;
-  return { ...plan, terrain: { ...plan.terrain, buildings: JSON.parse(w.buildingsJson) } };
+  if (lastRead?.text !== text) lastRead = { text, value: JSON.parse(text) };
+  return { ...plan, terrain: { ...plan.terrain, buildings: lastRead.value } };
 }

@@ -1,25 +1,10 @@
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import type { Plan } from "../../src/io/planSchema";
-import { parsePlan } from "../../src/io/planValidation";
 import { siteGridFrame } from "../../src/io/siteGrid";
 import { mergePartViews } from "../../src/ui/runParts";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import { type CoverageView, type EvaluateRequest, viewTransferables } from "../../src/workers/protocol";
-
-const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
-
-function demoPlan(): Plan {
-  const r = parsePlan(JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")));
-  if (!r.ok) throw new Error("demo plan does not parse");
-  return r.plan;
-}
-
-function dem() {
-  const b = readFileSync(join(DEMO, "terrain.tif"));
-  return { fileName: "terrain.tif", bytes: b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) };
-}
+import { ridgeDemoDem as dem, ridgeDemoPlan as demoPlan } from "./ridgeDemo";
 
 let generation = 0;
 function request(plan: Plan, extra: Partial<EvaluateRequest> = {}): EvaluateRequest {

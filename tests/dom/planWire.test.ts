@@ -1,20 +1,10 @@
 /** The plan as the page posts it to the workers: footprints as text for large imports, the same run. */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import type { BuildingFeature, Plan } from "../../src/io/planSchema";
-import { parsePlan } from "../../src/io/planValidation";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import { BUILDINGS_AS_TEXT_ABOVE, planFromWire, planToWire } from "../../src/workers/planWire";
+import { ridgeDemoDem as dem, ridgeDemoPlan as demoPlan } from "./ridgeDemo";
 import { squareGeometry } from "./squareGeometry";
-
-const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
-
-function demoPlan(): Plan {
-  const r = parsePlan(JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")));
-  if (!r.ok) throw new Error("demo plan does not parse");
-  return r.plan;
-}
 
 /** The demo plan with a block of `n` small footprints added south of the site (a town's import). */
 function withTown(plan: Plan, n: number): Plan {
@@ -49,11 +39,6 @@ describe("plan on the wire to the workers", () => {
 
   it("evaluates the same coverage from the wire form as from the whole plan", async () => {
     const plan = withTown(demoPlan(), BUILDINGS_AS_TEXT_ABOVE + 100);
-    const b = readFileSync(join(DEMO, "terrain.tif"));
-    const dem = () => ({
-      fileName: "terrain.tif",
-      bytes: b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength),
-    });
     const whole = await createCoverageApi().evaluate({
       generation: 1,
       plan,

@@ -1,27 +1,14 @@
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { describe, expect, it } from "vitest";
 import { evaluateSite } from "../../src/coverage/evaluate";
 import type { Plan } from "../../src/io/planSchema";
-import { parsePlan } from "../../src/io/planValidation";
 import { preparePlan } from "../../src/io/preparePlan";
 import { siteGridFrame } from "../../src/io/siteGrid";
 import { planKeyWithoutPlacement, previewSite } from "../../src/workers/preview";
-
-const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
+import { ridgeDemoPlan as demoPlan, ridgeDemoDem } from "./ridgeDemo";
 
 async function prepared(plan: Plan) {
-  const b = readFileSync(join(DEMO, "terrain.tif"));
-  return preparePlan(plan, {
-    fileName: "terrain.tif",
-    data: b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength),
-  });
-}
-
-function demoPlan(): Plan {
-  const r = parsePlan(JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")));
-  if (!r.ok) throw new Error("demo plan does not parse");
-  return r.plan;
+  const { fileName, bytes } = ridgeDemoDem();
+  return preparePlan(plan, { fileName, data: bytes });
 }
 
 describe("re-placing moved posts on the prepared site", () => {

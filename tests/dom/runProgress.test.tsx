@@ -3,30 +3,23 @@
  * Progress of an accurate run: the worker API reports radars then fusion steps, the engine's tracker
  * turns the parts' reports into one fraction that never goes back, and the top bar shows it.
  */
-import { readFileSync } from "node:fs";
-import { join } from "node:path";
 import { act } from "react";
 import { createRoot } from "react-dom/client";
 import { describe, expect, it } from "vitest";
-import { parsePlan } from "../../src/io/planValidation";
 import { TopBar } from "../../src/ui/components/TopBar";
 import { useCoverage } from "../../src/ui/coverageState";
 import { RunProgressTracker } from "../../src/ui/runParts";
 import { createCoverageApi } from "../../src/workers/coverageApi";
 import { PROGRESS_INTERVAL_MS } from "../../src/workers/progressThrottle";
 import type { RunProgress } from "../../src/workers/protocol";
+import { ridgeDemoDem, ridgeDemoPlan } from "./ridgeDemo";
 
 (globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
-const DEMO = join(__dirname, "../../demo-sites/ridge-waterworks");
-
 describe("run progress", () => {
   it("the worker API reports radars, then fusion steps, at most one report per 100 ms", async () => {
-    const parsed = parsePlan(JSON.parse(readFileSync(join(DEMO, "plan.json"), "utf8")));
-    if (!parsed.ok) throw new Error("demo plan does not parse");
-    const plan = parsed.plan;
-    const b = readFileSync(join(DEMO, "terrain.tif"));
-    const dem = { fileName: "terrain.tif", bytes: b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) };
+    const plan = ridgeDemoPlan();
+    const dem = ridgeDemoDem();
     const seen: { p: RunProgress; at: number }[] = [];
     const t0 = performance.now();
     await createCoverageApi().evaluate({ generation: 1, plan, dem }, (p) =>

@@ -68,18 +68,15 @@ export function RadarsPanel() {
     [change, modelId],
   );
   if (!plan) return null;
-  const usersOf = (id: string) => plan.posts.filter((p) => p.radarModelId === id).map((p) => p.name);
-  const used = (id: string) => usersOf(id).length > 0;
-  const openForm = () => {
-    setFormMounted(true);
-    setEditing(true);
-  };
+  /** Names of the posts that use the shown model (it cannot be deleted while there are any). */
+  const users = model ? plan.posts.filter((p) => p.radarModelId === model.id).map((p) => p.name) : [];
 
   const addNew = () => {
     const m = newRadarModel(plan.radarModels);
     change((p) => ({ ...p, radarModels: [...p.radarModels, m] }), "add radar model");
     setSelected(m.id);
-    openForm();
+    setFormMounted(true);
+    setEditing(true);
   };
 
   const duplicate = (m: RadarModel) => {
@@ -133,9 +130,7 @@ export function RadarsPanel() {
           {model.invented && <p className="muted">An invented example model, not a real product.</p>}
           <KeyFigures m={model} />
           <p className="muted" data-testid="model-users">
-            {usersOf(model.id).length === 0
-              ? "No post uses this model."
-              : `Used by ${usersOf(model.id).join(", ")}.`}
+            {users.length === 0 ? "No post uses this model." : `Used by ${users.join(", ")}.`}
           </p>
           {(editing || formMounted) && (
             <RadarModelForm
@@ -179,8 +174,8 @@ export function RadarsPanel() {
               <button
                 type="button"
                 className="danger"
-                disabled={used(model.id)}
-                title={used(model.id) ? "A post uses this model" : undefined}
+                disabled={users.length > 0}
+                title={users.length > 0 ? "A post uses this model" : undefined}
                 onClick={() =>
                   change(
                     (p) => ({ ...p, radarModels: p.radarModels.filter((m) => m.id !== model.id) }),
