@@ -82,6 +82,43 @@ function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView
   return view;
 }
 
+/**
+ * Previews that landed, newest last. The arrays of those two landings back or more are no longer
+ * shown (the map has drawn a newer one since) and go back to the preview worker with the next
+ * preview request (EvaluateRequest.recycled), which writes into them instead of new memory.
+ */
+const landedPreviews: CoverageView[] = [];
+const PREVIEWS_SHOWN_OR_DRAWING = 2;
+/** At most this many buffers wait to go back (a few previews' worth). */
+const RECYCLE_MAX = 24;
+let recyclable: ArrayBuffer[] = [];
+
+function previewLanded(view: CoverageView): void {
+  landedPreviews.push(view);
+  while (landedPreviews.length > PREVIEWS_SHOWN_OR_DRAWING) {
+    const spent = landedPreviews.shift() as CoverageView;
+    // Never the terrain arrays: the page keeps those (withTerrain).
+    const held = new Set<ArrayBufferLike>([spent.groundAmslM.buffer, spent.obstructionTopAglM.buffer]);
+    const own = [
+      spent.lowestVisibleAglM,
+      ...spent.slices.flatMap((s) => [s.combinedPd, s.overlap, s.gap, ...s.perRadarPd]),
+    ];
+    for (const a of own) {
+      const b = a.buffer;
+      if (b.byteLength === 0 || held.has(b) || !(b instanceof ArrayBuffer) || recyclable.includes(b))
+        continue;
+      if (recyclable.length < RECYCLE_MAX) recyclable.push(b);
+    }
+  }
+}
+
+/** The spent previews' memory for the next preview request (moved: the page holds it no longer). */
+function takeRecyclable(): ArrayBuffer[] {
+  const list = recyclable;
+  recyclable = [];
+  return list;
+}
+
 const EVAL_SLOT = 0;
 const PREVIEW_SLOT = 1;
 /** An accurate run is split over at most this many workers (one part each). */
@@ -227,12 +264,22 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
   try {
     if (options.preview) {
       const slot = p.size > 1 ? PREVIEW_SLOT : EVAL_SLOT;
+      // Only to a worker: inline (no pool) the arrays would be the ones just handed back.
+      const recycled = p.size > 0 ? takeRecyclable() : [];
+      let sent = false;
       const view = withTerrain(
-        await withDem(p, slot, (dem) =>
-          p.run(evaluateChannel(slot), g, "evaluate", [{ ...req, dem }], { slot }),
-        ),
+        await withDem(p, slot, (dem) => {
+          // A retry (the DEM again) goes without them: the first message moved them already.
+          const mine = sent ? [] : recycled;
+          sent = true;
+          return p.run(evaluateChannel(slot), g, "evaluate", [{ ...req, dem, recycled: mine }], {
+            slot,
+            transfer: mine,
+          });
+        }),
         kind,
       );
+      previewLanded(view);
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }

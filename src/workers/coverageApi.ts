@@ -42,7 +42,7 @@ import type {
 } from "./protocol";
 import { focusKey, focusSite, mergesLowest, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
 import { cloneView, toCoverageView } from "./toView";
-import { newBuffer, WarmBuffers, writeThrough } from "./warmBuffers";
+import { newBuffer, SpareMemory, WarmBuffers, writeThrough } from "./warmBuffers";
 
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
 const RADAR_CACHE_ENTRIES = 64;
@@ -276,6 +276,8 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   /** The site of the last accurate run, whose shapes the idle work prepares once the page settles. */
   let lastAccurate: PreparedSite | null = null;
   const warm = new WarmBuffers();
+  /** Memory of spent previews, moved back by the page for the next previews. */
+  const spare = new SpareMemory();
 
   /**
    * After an accurate run of `site` (a whole site or a part): a spare radar result of its shape and
@@ -394,8 +396,8 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
         withTerrain,
         perRadarPostId: req.perRadarPostId ?? null,
       }),
-      // A preview copies into new memory: the ready arrays are kept for the release that follows.
-      (a) => (site.maskMode === "fast" ? (a.slice() as typeof a) : warm.copy(a)),
+      // A preview copies into the memory of spent previews: the ready arrays are kept for the release.
+      (a) => (site.maskMode === "fast" ? spare.copy(a) : warm.copy(a)),
     );
     if (req.sliceFirst && sub !== full) view.partial = true;
     if (full !== whole) {
@@ -433,6 +435,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     },
     async evaluate(req: EvaluateRequest, onProgress?: ProgressListener): Promise<CoverageView> {
       const accurate = req.maskMode !== "fast";
+      for (const b of req.recycled ?? []) spare.put(b);
       if (accurate) runningAccurate++;
       let site: PreparedSite | null = null;
       try {

@@ -39,6 +39,11 @@ export interface EvaluateRequest {
   /** The terrainKey whose ground arrays the caller holds; they are not sent again. */
   haveTerrainKey?: string;
   /**
+   * Memory of earlier previews the page no longer shows, moved back (in the transfer list) for the
+   * worker to write the next previews into, so that a drag allocates no new arrays on either side.
+   */
+  recycled?: ArrayBuffer[];
+  /**
    * With a focus on an accurate run: compute every radar but fuse only the focused slice, and reply
    * with that one slice (`partial` in the view); a run of the same plan without it then takes every
    * radar from the cache and fuses the other slices.

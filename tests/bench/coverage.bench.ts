@@ -25,11 +25,9 @@ import type { FusedHeight } from "../../src/coverage/fusion.ts";
 import type { HeightMetrics } from "../../src/coverage/metrics.ts";
 import type { RadarModel } from "../../src/coverage/radarModel.ts";
 import { computeHorizon, type MaskMode } from "../../src/coverage/terrainMask.ts";
-import { syntheticDem } from "../fixtures/viewshed/syntheticDem.ts";
-import { cellXY, demoRadar, placed, stageOf } from "../unit/coverageFixtures.ts";
+import { demoRadar } from "../unit/coverageFixtures.ts";
 import { type CoverageWorkerApi, resultBuffers } from "./coverageWorkerApi.ts";
-
-const SIDE = 2048;
+import { radarAt, SIDE, siteOn, stageTimes } from "./stageSite.ts";
 
 function stats(xs: number[]): { median: number; min: number; max: number } {
   const s = [...xs].sort((a, b) => a - b);
@@ -40,89 +38,11 @@ function fmt(x: { median: number; min: number; max: number }, digits = 1): strin
   return `median ${x.median.toFixed(digits)} (min ${x.min.toFixed(digits)}, max ${x.max.toFixed(digits)})`;
 }
 
-export function siteOn(
-  cellSizeM: number,
-  radars: (n: { frame: PreparedSite["frame"]; ground: Float32Array }) => PlacedRadar[],
-  heights: number[],
-): PreparedSite {
-  const dem = syntheticDem({ width: SIDE, height: SIDE, cellSizeM, seed: 7, buildings: 400 });
-  const frame = {
-    width: SIDE,
-    height: SIDE,
-    originX: 500_000,
-    originY: 4_600_000,
-    cellSizeM,
-    crs: "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs",
-  };
-  const n = SIDE * SIDE;
-  const ground = dem.ground.data;
-  const surface = dem.surface.data;
-  const top = new Float32Array(n);
-  for (let i = 0; i < n; i++) top[i] = surface[i] - ground[i];
-  const protectedArea = new Uint8Array(n);
-  const approachRing = new Uint8Array(n);
-  for (let r = 0; r < SIDE; r++)
-    for (let c = 0; c < SIDE; c++) {
-      const d = Math.hypot(r - SIDE / 2, c - SIDE / 2);
-      if (d < SIDE / 6) protectedArea[r * SIDE + c] = 1;
-      else if (d < SIDE / 3) approachRing[r * SIDE + c] = 1;
-    }
-  return {
-    name: "bench",
-    frame,
-    ground,
-    surface,
-    obstructionTopAglM: top,
-    regions: { protectedArea, approachRing },
-    radars: radars({ frame, ground }),
-    targets: [{ id: "quad", name: "quad", rcsDbsm: -20, swerling: 1, heightsAglM: heights }],
-    requirement: { requiredPd: 0.8, pfa: 1e-6, looks: 1, targetIds: ["quad"] },
-    heightsAglM: heights,
-    effectiveEarthFactor: 4 / 3,
-    maskMode: "accurate",
-    groundSource: "dem",
-    warnings: [],
-  };
-}
-
-export function radarAt(
-  s: { frame: PreparedSite["frame"]; ground: Float32Array },
-  model: RadarModel,
-  col: number,
-  row: number,
-  boresightAzDeg: number,
-  id: string,
-): PlacedRadar {
-  const f = s.frame;
-  return placed(model, cellXY(f, col, row), s.ground[row * f.width + col] + 20, {
-    id,
-    name: id,
-    boresightAzDeg,
-  });
-}
-
 /** Radar stage alone: ns per cell for 4 heights, one class, every cell within range. */
 export function benchStage(label: string, model: RadarModel, cellSizeM: number, runs: number): void {
-  const heights = [10, 30, 60, 100];
-  const site = siteOn(cellSizeM, (s) => [radarAt(s, model, SIDE / 2, SIDE / 2, 45, "r")], heights);
-  const radar = site.radars[0];
-  const { kernel, horizon } = stageOf(site, radar);
-  const input = { ...site, radar, effectiveEarthFactor: 4 / 3 };
-  const n = SIDE * SIDE;
-  const previous = radarCoverageFromHorizon(input, kernel, horizon); // warm-up (JIT)
-  const fresh: number[] = [];
-  const reused: number[] = [];
-  // Interleaved: new output arrays (allocation and first touch included), then writing into `previous`.
-  for (let r = 0; r < runs; r++) {
-    let t = performance.now();
-    radarCoverageFromHorizon(input, kernel, horizon);
-    fresh.push(((performance.now() - t) * 1e6) / n);
-    t = performance.now();
-    radarCoverageFromHorizon(input, kernel, horizon, previous);
-    reused.push(((performance.now() - t) * 1e6) / n);
-  }
+  const { fresh, reused, cells } = stageTimes(model, cellSizeM, runs);
   console.log(
-    `coverage radar stage, ${label}, ${n} cells × 4 heights: new outputs ${fmt(stats(fresh))} ns/cell; ` +
+    `coverage radar stage, ${label}, ${cells} cells × 4 heights: new outputs ${fmt(stats(fresh))} ns/cell; ` +
       `outputs reused ${fmt(stats(reused))} ns/cell; ${runs} runs each`,
   );
 }

@@ -211,6 +211,38 @@ describe("coverage API runs", () => {
     expect(release.computedRadarIds).toEqual([end.postId]);
   });
 
+  it("writes a preview into the memory of spent previews handed back, with the figures of one in new memory", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    const api = createCoverageApi();
+    const opened = await api.evaluate(request(plan));
+    // As the page asks during a drag: it holds the terrain and does not show the lowest visible height.
+    const ask = { maskMode: "fast" as const, focus, haveTerrainKey: opened.terrainKey, skipLowest: true };
+    const preview = (k: number, recycled?: ArrayBuffer[]) =>
+      api.evaluate(request(moved(plan, k).plan, { ...ask, recycled }));
+    // As the page receives it: the buffers transferred out of the worker.
+    const spent = sent(await preview(1));
+    const handedBack = viewTransferables(spent) as ArrayBuffer[];
+    expect(handedBack.length).toBeGreaterThan(0);
+    const next = await preview(2, handedBack);
+    const written = viewTransferables(next);
+    expect(written.length).toBe(handedBack.length);
+    for (const b of written) expect(handedBack.includes(b as ArrayBuffer)).toBe(true);
+    // The same move previewed by an API that had no memory handed back.
+    const fresh = createCoverageApi();
+    await fresh.evaluate(request(plan));
+    const want = sliceOf(
+      await fresh.evaluate(request(moved(plan, 2).plan, { ...ask })),
+      focus.classId,
+      focus.heightM,
+    );
+    const slice = sliceOf(next, focus.classId, focus.heightM);
+    expect(slice.metrics).toEqual(want.metrics);
+    expect(Array.from(slice.combinedPd)).toEqual(Array.from(want.combinedPd));
+    expect(Array.from(slice.overlap)).toEqual(Array.from(want.overlap));
+    expect(Array.from(slice.gap)).toEqual(Array.from(want.gap));
+  });
+
   it("a post moved again and again writes into results that left the cache, with the figures of a fresh run", async () => {
     const plan = demoPlan();
     const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };

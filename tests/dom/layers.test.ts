@@ -173,6 +173,10 @@ describe("layer scales and import kinds", () => {
       // As the layer stores them: Int16 (an overlap count is an integer; a fraction truncates alike).
       const want = Array.from(Int16Array.from(values, (v) => scale.toIndex(v)));
       expect(Array.from(scaleIndices(scale, values))).toEqual(want);
+      // Into an array given (a drag preview's, used again): every cell rewritten.
+      const reused = new Int16Array(values.length).fill(999);
+      expect(scaleIndices(scale, values, reused)).toBe(reused);
+      expect(Array.from(reused)).toEqual(want);
       // In slices (here of 4096 cells, the least, as the budget is 0), the same.
       const sliced = await scaleIndicesInSlices(scale, values, () => false, 0);
       expect(Array.from(sliced ?? [])).toEqual(want);

@@ -17,6 +17,23 @@ import { useSession } from "../session";
  * before needs no second pass over its cells on the main thread.
  */
 const drawn = new WeakMap<object, { scaleKey: string; indices: Int16Array }>();
+/**
+ * Index arrays of drag previews, used in turn: each preview's values are new and drawn once, and the
+ * map shows one paint at a time, so two arrays serve a whole drag (2 bytes a cell of new memory per
+ * preview otherwise, 20 previews a second, which the page's collector then pays for).
+ */
+const previewIndexArrays: Int16Array<ArrayBuffer>[] = [];
+let previewTurn = 0;
+function previewIndices(n: number): Int16Array<ArrayBuffer> {
+  const k = previewTurn++ % 2;
+  let a = previewIndexArrays[k];
+  if (a?.length !== n) {
+    a = new Int16Array(n);
+    previewIndexArrays[k] = a;
+  }
+  return a;
+}
+
 /** Rasters up to this many cells are turned into indices at once (about 10 ms); larger ones in slices. */
 const AT_ONCE_CELLS = 1_500_000;
 
@@ -64,6 +81,10 @@ export function useCoverageLayers(map: L.Map | null): void {
       return;
     }
     if (values.length <= AT_ONCE_CELLS) {
+      if (previewing) {
+        paint(scaleIndices(scale, values, previewIndices(values.length)));
+        return;
+      }
       const indices = scaleIndices(scale, values);
       drawn.set(values, { scaleKey, indices });
       paint(indices);
@@ -80,7 +101,7 @@ export function useCoverageLayers(map: L.Map | null): void {
     return () => {
       cancelled = true;
     };
-  }, [view, slice, frame, forward, layer, singlePostId, coverage]);
+  }, [view, slice, frame, forward, layer, singlePostId, coverage, previewing]);
 
   useEffect(() => {
     if (!slice || !frame || !forward || !inverse || !showGaps) {
