@@ -40,6 +40,9 @@ export function readTextFile(flag: string, path: string): string {
 export function readBinaryFile(flag: string, path: string): ArrayBuffer {
   try {
     const b = readFileSync(path);
+    // A large file has a buffer of its own (not Node's shared pool): taken as it is, not copied.
+    if (b.byteOffset === 0 && b.buffer.byteLength === b.byteLength && b.buffer instanceof ArrayBuffer)
+      return b.buffer;
     return b.buffer.slice(b.byteOffset, b.byteOffset + b.byteLength) as ArrayBuffer;
   } catch (e) {
     throw new UsageError(flag, `cannot read ${path}: ${reason(e)}`);

@@ -292,7 +292,8 @@ function checkSizes(h: HorizonResult, ground: Grid): void {
  * max(0, H + d²/(2ka) + σ·d − ground), values within VISIBILITY_TOLERANCE_M (1 mm) of 0 given as 0.
  * 0 where nothing obstructs; NaN where the horizon or the ground is
  * nodata / out of range. Same quantity as gdal_viewshed -om GROUND (GDAL 3.6 docs).
- * `ground` is m ASL on the same grid as the horizon.
+ * `ground` is m ASL on the same grid as the horizon. `out` may be `h.horizonSlope` itself: each cell's
+ * slope is read before its height is written there.
  */
 export function lowestVisibleHeightAglM(
   h: HorizonResult,
