@@ -82,10 +82,36 @@ function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView
   return view;
 }
 
+/** The raster arrays a view brought (never the terrain, which the page keeps: withTerrain). */
+function rasterArrays(v: CoverageView): (Float32Array | Uint8Array)[] {
+  return [v.lowestVisibleAglM, ...v.slices.flatMap((s) => [s.combinedPd, s.overlap, s.gap, ...s.perRadarPd])];
+}
+
 /**
- * Previews that landed, newest last. The arrays of those two landings back or more are no longer
- * shown (the map has drawn a newer one since) and go back to the preview worker with the next
- * preview request (EvaluateRequest.recycled), which writes into them instead of new memory.
+ * The arrays of `spent` views that none of `kept` (nor the terrain held) shares, once each, for a
+ * worker to write into: moved there, the page holds them no longer, and neither side allocates anew
+ * (new memory costs about 1 ms per MB to fault in).
+ */
+function spentArrays(spent: CoverageView[], kept: (CoverageView | null)[]): (Float32Array | Uint8Array)[] {
+  const held = new Set<ArrayBufferLike>();
+  for (const t of [terrains.full, terrains.preview])
+    if (t) for (const a of [t.ground, t.obstruction]) held.add(a.buffer);
+  for (const v of kept) if (v) for (const a of rasterArrays(v)) held.add(a.buffer);
+  const out: (Float32Array | Uint8Array)[] = [];
+  for (const v of spent)
+    for (const a of rasterArrays(v)) {
+      const b = a.buffer;
+      if (b.byteLength === 0 || held.has(b) || !(b instanceof ArrayBuffer)) continue;
+      held.add(b);
+      out.push(a);
+    }
+  return out;
+}
+
+/**
+ * Previews that landed, newest last. Those two landings back or more are no longer shown (the map has
+ * drawn a newer one since): their arrays go back to the preview worker with the next preview request
+ * (EvaluateRequest.recycled), which writes the next previews into them.
  */
 const landedPreviews: CoverageView[] = [];
 const PREVIEWS_SHOWN_OR_DRAWING = 2;
@@ -95,21 +121,9 @@ let recyclable: ArrayBuffer[] = [];
 
 function previewLanded(view: CoverageView): void {
   landedPreviews.push(view);
-  while (landedPreviews.length > PREVIEWS_SHOWN_OR_DRAWING) {
-    const spent = landedPreviews.shift() as CoverageView;
-    // Never the terrain arrays: the page keeps those (withTerrain).
-    const held = new Set<ArrayBufferLike>([spent.groundAmslM.buffer, spent.obstructionTopAglM.buffer]);
-    const own = [
-      spent.lowestVisibleAglM,
-      ...spent.slices.flatMap((s) => [s.combinedPd, s.overlap, s.gap, ...s.perRadarPd]),
-    ];
-    for (const a of own) {
-      const b = a.buffer;
-      if (b.byteLength === 0 || held.has(b) || !(b instanceof ArrayBuffer) || recyclable.includes(b))
-        continue;
-      if (recyclable.length < RECYCLE_MAX) recyclable.push(b);
-    }
-  }
+  const spent = landedPreviews.splice(0, Math.max(0, landedPreviews.length - PREVIEWS_SHOWN_OR_DRAWING));
+  for (const a of spentArrays(spent, landedPreviews))
+    if (recyclable.length < RECYCLE_MAX) recyclable.push(a.buffer as ArrayBuffer);
 }
 
 /** The spent previews' memory for the next preview request (moved: the page holds it no longer). */
