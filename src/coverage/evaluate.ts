@@ -147,6 +147,8 @@ export interface EvaluateOptions {
   signal?: { readonly aborted: boolean };
   /** Per-radar cache; results are looked up and stored by radarKey. */
   cache?: RadarResultCache<RadarCoverage>;
+  /** Radars computed are kept as computed ahead of need (RadarResultCache.setAhead), not as entries. */
+  cacheAhead?: boolean;
   /** How a radar is computed (default computeRadarCoverage in this thread). Runs are started together. */
   runRadar?: RadarRunner;
   /** How a fusion step is run (default fuseSiteHeight in this thread). Steps are started together. */
@@ -510,7 +512,8 @@ export async function evaluateSite(site: PreparedSite, opts: EvaluateOptions = {
       computedRadarIds.push(radar.id);
       if (opts.cache) {
         opts.cache.computed++;
-        opts.cache.set(key, result, radarGroup(radar, mode));
+        if (opts.cacheAhead) opts.cache.setAhead(key, result, radarGroup(radar, mode));
+        else opts.cache.set(key, result, radarGroup(radar, mode));
       }
     }
     done++;

@@ -111,6 +111,8 @@ export interface RadarResultCacheOptions {
  */
 export class RadarResultCache<T> {
   private readonly entries = new Map<string, { value: T; group: string | undefined }>();
+  /** Results computed ahead (setAhead), one per group, apart from the entries until a run asks for one. */
+  private readonly ahead = new Map<string, { key: string; value: T }>();
   private readonly spareValues: T[] = [];
   hits = 0;
   computed = 0;
@@ -123,17 +125,40 @@ export class RadarResultCache<T> {
     return this.entries.size;
   }
 
-  /** The cached result for `key`, marking it recently used; undefined when absent. */
+  /**
+   * The cached result for `key`, marking it recently used; undefined when absent. A result computed
+   * ahead under this key becomes an entry of its group now, as if just computed.
+   */
   get(key: string): T | undefined {
     const entry = this.entries.get(key);
-    if (entry === undefined) return undefined;
+    if (entry === undefined) {
+      for (const [group, a] of this.ahead)
+        if (a.key === key) {
+          this.ahead.delete(group);
+          this.set(key, a.value, group);
+          return a.value;
+        }
+      return undefined;
+    }
     this.entries.delete(key);
     this.entries.set(key, entry);
     return entry.value;
   }
 
   has(key: string): boolean {
-    return this.entries.has(key);
+    return this.entries.has(key) || [...this.ahead.values()].some((a) => a.key === key);
+  }
+
+  /**
+   * Keeps a result computed ahead of need (a release computed while a dragged post rests) apart from
+   * the entries, one per group (the previous one of the group becomes a spare), so that positions
+   * passed on the way do not push the group's kept results (undo) out; get() takes it in when asked.
+   */
+  setAhead(key: string, value: T, group: string): void {
+    if (this.entries.has(key)) return;
+    const old = this.ahead.get(group);
+    if (old !== undefined && old.value !== value) this.retire(old.value);
+    this.ahead.set(group, { key, value });
   }
 
   /**
@@ -206,6 +231,7 @@ export class RadarResultCache<T> {
 
   clear(): void {
     this.entries.clear();
+    this.ahead.clear();
     this.spareValues.length = 0;
   }
 }

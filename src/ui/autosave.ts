@@ -80,10 +80,16 @@ export function startAutosave(onError: (message: string) => void): () => void {
       queueMicrotask(flush);
     }
   });
+  const keepDem = (dem: DemAsset | null) => {
+    if (dem && !readFromStore.has(dem))
+      saveDem(dem).catch((e) => onError(`Saving the DEM failed: ${String(e)}`));
+  };
   const offDem = useAssets.subscribe((s, prev) => {
-    if (s.dem && s.dem !== prev.dem && !readFromStore.has(s.dem))
-      saveDem(s.dem).catch((e) => onError(`Saving the DEM failed: ${String(e)}`));
+    if (s.dem !== prev.dem) keepDem(s.dem);
   });
+  // The DEM loaded before the autosave started (the demo's, on a first visit): stored too, or a plan
+  // edited and then reloaded would name a DEM the store does not hold, and could not be computed.
+  keepDem(useAssets.getState().dem);
   return () => {
     offPlan();
     offDem();

@@ -251,29 +251,83 @@ async function runPart(
  * part holding the shown slice gives it first (drawn at once); the run stays "running" until every
  * part has landed, so the summary of the other slices is marked as updating meanwhile.
  */
+/** The request of a run of `plan` as generation `g`: a drag preview, or an accurate run (its part 0 first). */
+function evaluateRequest(plan: Plan, g: number, preview: boolean): EvaluateRequest {
+  const kind = preview ? "preview" : "full";
+  const focus = focusOf();
+  const lowestShown = useSession.getState().layer === "lowest";
+  return {
+    generation: g,
+    ...planToWire(plan),
+    // Each send puts in the DEM as that worker needs it (withDem).
+    dem: null,
+    ...(preview ? { maskMode: "fast" as const } : {}),
+    perRadarPostId: singleRadarShown(),
+    ...focus,
+    ...(!preview && focus.focus ? { sliceFirst: true } : {}),
+    lowestShown,
+    skipLowest: !lowestShown,
+    ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
+  };
+}
+
+/** Parts of an accurate run of `plan` on pool `p`. */
+function partCount(p: WorkerPool<CoverageApi>, plan: Plan): number {
+  return Math.max(1, Math.min(p.size, ACCURATE_PARTS, sliceCount(plan)));
+}
+
+/** The pointer rests this long on a dragged post before its release is computed ahead. */
+const RELEASE_AHEAD_AFTER_MS = 80;
+let releaseAhead: ReturnType<typeof setTimeout> | null = null;
+
+/**
+ * While a dragged post rests, begins the accurate run its release would start, each part on its
+ * worker, so that the moved radar's masking and stage are in the workers' caches and the slices'
+ * fusion in their memos when the post is dropped there (the replies, without arrays, are dropped).
+ * `dropped`: the plan as a drop there would make it (asked for only once the pointer rests). A newer
+ * move, the release or another run cancels what has not started.
+ */
+export function computeReleaseAhead(dropped: () => Plan | null): void {
+  if (releaseAhead) clearTimeout(releaseAhead);
+  releaseAhead = setTimeout(() => {
+    releaseAhead = null;
+    const p = pool;
+    // With one worker, the previews and the release share it: nothing to gain.
+    const plan = p && p.size >= 2 ? dropped() : null;
+    if (!p || !plan) return;
+    const g = ++generation;
+    const req = evaluateRequest(plan, g, false);
+    const count = partCount(p, plan);
+    // Every part, each on the worker its release runs it on (part k on worker k). Worker 1 also runs
+    // the previews: the pointer rests, so none is waiting, and a new move supersedes this run there.
+    for (let k = 0; k < count; k++) {
+      const part: EvaluateRequest = {
+        ...req,
+        cacheOnly: true,
+        ...(count > 1 ? { part: { index: k, count } } : {}),
+      };
+      void withDem(p, k, (dem) =>
+        p.run(evaluateChannel(k), g, "evaluate", [{ ...part, dem }], { slot: k }),
+      ).catch(() => undefined);
+    }
+  }, RELEASE_AHEAD_AFTER_MS);
+}
+
+function cancelReleaseAhead(): void {
+  if (releaseAhead) clearTimeout(releaseAhead);
+  releaseAhead = null;
+}
+
 export async function runEvaluation(options: { preview?: boolean; plan?: Plan } = {}): Promise<void> {
   const plan = options.plan ?? usePlanStore.getState().plan;
   if (!plan) return;
+  if (!options.preview) cancelReleaseAhead();
   const g = ++generation;
   // No await when the pool exists: a run started from an input handler posts to the workers in that
   // same task, before the page renders the change (evaluateScheduledNow).
   const p = pool ?? (await getPool());
   const kind = options.preview ? "preview" : "full";
-  const focus = focusOf();
-  const lowestShown = useSession.getState().layer === "lowest";
-  const req: EvaluateRequest = {
-    generation: g,
-    ...planToWire(plan),
-    // Each send puts in the DEM as that worker needs it (withDem).
-    dem: null,
-    ...(options.preview ? { maskMode: "fast" as const } : {}),
-    perRadarPostId: singleRadarShown(),
-    ...focus,
-    ...(!options.preview && focus.focus ? { sliceFirst: true } : {}),
-    lowestShown,
-    skipLowest: !lowestShown,
-    ...(terrains[kind] ? { haveTerrainKey: terrains[kind]?.key } : {}),
-  };
+  const req = evaluateRequest(plan, g, options.preview === true);
   useCoverage.getState().set({ running: true, generation: g });
   try {
     if (options.preview) {
@@ -297,7 +351,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }
-    const count = Math.max(1, Math.min(p.size, ACCURATE_PARTS, sliceCount(plan)));
+    const count = partCount(p, plan);
     const showShown = (view: CoverageView) => {
       if (g === generation) useCoverage.getState().set({ view, preview: null, problem: null, running: true });
     };

@@ -64,6 +64,36 @@ function newCache(entries: number): RadarResultCache<RadarCoverage> {
   return new RadarResultCache<RadarCoverage>(entries, { perGroup: RESULTS_PER_POST, spares: SPARE_RESULTS });
 }
 
+/**
+ * The reply to a cacheOnly request: what was computed, with no arrays (those the worker holds stay
+ * here: a view's arrays are transferred away).
+ */
+function arraylessView(
+  generation: number,
+  site: PreparedSite,
+  result: SiteResult,
+  terrainKey: string,
+  elapsedMs: number,
+): CoverageView {
+  const none = new Float32Array(0);
+  return {
+    generation,
+    frame: result.frame,
+    terrainKey,
+    groundAmslM: none,
+    obstructionTopAglM: none,
+    lowestVisibleAglM: none,
+    heightsM: [...result.heightsAglM],
+    classIds: result.targets.map((t) => t.targetId),
+    radarPostIds: [...result.radarIds],
+    slices: [],
+    maskMode: site.maskMode,
+    notes: [],
+    elapsedMs,
+    computedRadarIds: [...result.computedRadarIds],
+  };
+}
+
 function now(): number {
   return performance.now();
 }
@@ -359,7 +389,8 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
             if (stale()) throw new CancelledError();
             r = computeRadarCoverage(full, i, mode, accurate.takeSpare());
             accurate.computed++;
-            accurate.set(key, r, radarGroup(full.radars[i], mode));
+            if (req.cacheOnly) accurate.setAhead(key, r, radarGroup(full.radars[i], mode));
+            else accurate.set(key, r, radarGroup(full.radars[i], mode));
             computed.push(full.radars[i].id);
           } else accurate.hits++;
           return narrowRadar(r, full, sub);
@@ -379,6 +410,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
         lowestVisible,
         onProgress,
         shouldCancel: stale,
+        cacheAhead: req.cacheOnly === true,
       });
     }
     const notes = [...new Set([...site.warnings, ...(prepared?.warnings ?? [])])];
@@ -386,6 +418,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
       notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
     }
     const terrainKey = site.terrainId ?? siteTerrainId(site);
+    if (req.cacheOnly) return arraylessView(req.generation, site, result, terrainKey, now() - t0);
     const withTerrain = terrainKey !== req.haveTerrainKey;
     const view = cloneView(
       toCoverageView(site, result, {

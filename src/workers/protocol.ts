@@ -39,6 +39,12 @@ export interface EvaluateRequest {
   /** The terrainKey whose ground arrays the caller holds; they are not sent again. */
   haveTerrainKey?: string;
   /**
+   * Compute and keep (per-radar cache, fusion memo) but reply with no arrays: a release computed
+   * ahead while the dragged post rests (engine.ts), whose reply the page drops. Its step state (the
+   * shown slice's gaps kept for a next step) is left as it was.
+   */
+  cacheOnly?: boolean;
+  /**
    * Memory of earlier previews the page no longer shows, moved back (in the transfer list) for the
    * worker to write the next previews into, so that a drag allocates no new arrays on either side.
    */

@@ -7,6 +7,7 @@
  * Then the same plan at about 16 million cells (refused or timed, as the engine decides).
  * Run: npx tsx tests/bench/browser.bench.ts (PICKET_BENCH_DRAG_STEP_MS=100 moves the pointer 10 times a
  * second; PICKET_BENCH_CELLS=1e6 runs one grid size only; PICKET_BENCH_DRAGS=n drags n times, default 4;
+ * PICKET_BENCH_REST_MS=ms rests the pointer that long before the release (default 0);
  * PICKET_BENCH_TRACE=DIR writes a Chrome trace of each release, page and workers, to DIR/release-N.json
  * for chrome://tracing or the DevTools performance panel; PICKET_BENCH_TRACE_JS=1 adds JavaScript samples)
  */
@@ -24,6 +25,11 @@ const DRAG_STEPS = 30;
 const DRAGS = Number(process.env.PICKET_BENCH_DRAGS ?? 4);
 /** Pointer moves every this many ms: 16 ms is a 60 Hz pointer, as mice and touchpads report. */
 const DRAG_STEP_MS = Number(process.env.PICKET_BENCH_DRAG_STEP_MS ?? 16);
+/**
+ * The pointer rests this long at the end of a drag before the button is released, ms (0: released at
+ * once after the last move, the case the targets are measured in; a person placing a post pauses).
+ */
+const REST_MS = Number(process.env.PICKET_BENCH_REST_MS ?? 0);
 /** Where the traces of the releases go (unset: none taken; tracing slows the page a little). */
 const TRACE_DIR = process.env.PICKET_BENCH_TRACE;
 
@@ -184,6 +190,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFi
     await page.waitForTimeout(DRAG_STEP_MS);
   }
   const dragS = (Date.now() - tDrag) / 1000;
+  if (REST_MS > 0) await page.waitForTimeout(REST_MS);
   const updates = await page.evaluate(() => (window as unknown as { __gens: number[] }).__gens.length);
   const trace = traceFile ? await startTrace(page) : null;
   const tUp = await page.evaluate(() => performance.now());

@@ -316,6 +316,36 @@ describe("coverage API runs", () => {
       expect(Array.from(x.gap)).toEqual(Array.from(fresh.slices[k].gap));
     });
   });
+  it("computes a release ahead without replying arrays, and the release then takes everything from it", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    // As the page asks for part 0 of a release, first step: the opening run, then ahead of a drop.
+    const ask = { focus, sliceFirst: true, part: { index: 0, count: 2 } };
+    const api = createCoverageApi();
+    await api.evaluate(request(plan, ask));
+    const end = moved(plan, 4);
+    const ahead = await api.evaluate(request(end.plan, { ...ask, cacheOnly: true }));
+    expect(ahead.computedRadarIds).toEqual([end.postId]);
+    expect(ahead.slices).toEqual([]);
+    expect(viewTransferables(ahead)).toEqual([]);
+    // The drop at that place: no radar left to compute, the same figures as an API that saw no ahead run.
+    const drop = request(end.plan, ask);
+    const release = await api.evaluate(drop);
+    expect(release.computedRadarIds).toEqual([]);
+    const other = createCoverageApi();
+    await other.evaluate(request(plan, ask));
+    const want = await other.evaluate(request(end.plan, ask));
+    expect(release.partial).toBe(true);
+    expect(release.slices.map((x) => x.metrics)).toEqual(want.slices.map((x) => x.metrics));
+    release.slices.forEach((x, k) => {
+      expect(Array.from(x.combinedPd)).toEqual(Array.from(want.slices[k].combinedPd));
+      expect(Array.from(x.gap)).toEqual(Array.from(want.slices[k].gap));
+    });
+    // Its second step (same generation) still brings the shown slice's outlines.
+    const rest = await api.evaluate({ ...drop, sliceFirst: false, shownSliceHeld: true });
+    expect(rest.shownGapShapes).toBeDefined();
+  });
+
   it("says once that a plan without a DEM stands on flat ground", async () => {
     const plan = demoPlan();
     plan.terrain.ground = { type: "flat", elevationAmslM: 312 };

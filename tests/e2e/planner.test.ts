@@ -348,8 +348,37 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
       await page.mouse.move(mb.x + mb.width / 2 + k * 12, mb.y + mb.height / 2 - k * 10);
     await page.mouse.up();
     await waitNewRun(page, status1);
-    expect(await summaryFigures(page)).not.toBe(summary1);
+    const summary2 = await summaryFigures(page);
+    expect(summary2).not.toBe(summary1);
     await shoot(page, "post-moved");
+    // Moved again and held still before the drop: the release was computed ahead while the pointer
+    // rested (no radar left to compute when it is dropped), with the figures that a fresh evaluation of
+    // the same plan (after a reload: new workers, empty caches) gives.
+    const mb2 = await page.locator(".post-mark", { hasText: "South gate mast" }).boundingBox();
+    if (!mb2) throw new Error("the south gate post is not on the map");
+    const status2 = await gen(page);
+    await page.mouse.move(mb2.x + mb2.width / 2, mb2.y + mb2.height / 2);
+    await page.mouse.down();
+    for (let k = 1; k <= 6; k++)
+      await page.mouse.move(mb2.x + mb2.width / 2 - k * 8, mb2.y + mb2.height / 2 + k * 6);
+    await page.waitForTimeout(800);
+    await page.mouse.up();
+    await waitNewRun(page, status2);
+    expect(await page.getByTestId("summary").getAttribute("data-computed-radars")).toBe("0");
+    const rested = await summaryFigures(page);
+    expect(rested).not.toBe(summary2);
+    // The same plan opened soon after the edit in a second tab: the plan and the demo's own DEM come
+    // back from the browser's store and are evaluated afresh (new workers, empty caches).
+    await page.waitForTimeout(500);
+    const fresh = await h.context.newPage();
+    try {
+      await fresh.goto(h.baseUrl);
+      await waitComputed(fresh);
+      const untimed = (t: string) => t.replace(/computed in [^m]*ms/, "");
+      expect(untimed(await summaryFigures(fresh))).toBe(untimed(rested));
+    } finally {
+      await fresh.close();
+    }
   });
 
   it("draws a protected area with live measurements, and undoes and redoes it", async () => {

@@ -127,4 +127,22 @@ describe("radar result cache groups and spares", () => {
     c.clear();
     expect(c.takeSpare()).toBeUndefined();
   });
+
+  it("[RC7] a result computed ahead pushes no kept entry out, gives way to the next one of its group, and joins the group when asked for", () => {
+    const c = new RadarResultCache<{ n: number }>(10, { perGroup: 2, spares: 2 });
+    const v = [0, 1, 2, 3].map((n) => ({ n }));
+    c.set("a0", v[0], "a");
+    c.set("a1", v[1], "a");
+    // Two places passed while dragging: the first gives way to the second (a spare), the group keeps both entries.
+    c.setAhead("x", v[2], "a");
+    c.setAhead("y", v[3], "a");
+    expect(c.takeSpare()).toBe(v[2]);
+    expect([c.has("a0"), c.has("a1"), c.has("x"), c.has("y")]).toEqual([true, true, false, true]);
+    // Dropped at the second place: the release takes it, and it joins group a as the newest entry.
+    expect(c.get("y")).toBe(v[3]);
+    expect([c.has("a0"), c.has("a1"), c.has("y")]).toEqual([false, true, true]);
+    expect(c.takeSpare()).toBe(v[0]);
+    // Asked for again, it is an ordinary entry.
+    expect(c.get("y")).toBe(v[3]);
+  });
 });

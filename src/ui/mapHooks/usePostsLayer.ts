@@ -10,9 +10,9 @@ import { radarModelOfPost } from "../../io/planValidation";
 import type L from "../../map/leaflet";
 import { PostsLayer, type PostView } from "../../map/postsLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
-import { evaluateScheduledNow, runEvaluation } from "../engine";
+import { computeReleaseAhead, evaluateScheduledNow, runEvaluation } from "../engine";
 import { updatePost } from "../planEdits";
-import { movePostTo } from "../postMoves";
+import { movedPost, movePostTo } from "../postMoves";
 import { planTabPatch, useSession } from "../session";
 import { usePlanStore } from "../store";
 
@@ -87,7 +87,10 @@ export function usePostsLayer(map: L.Map | null): void {
         onDrag: (id, lonDeg, latDeg) => {
           previewRef.current = { postId: id, lonDeg, latDeg };
           const plan = usePlanStore.getState().plan;
-          if (plan) void preview(withPreview(plan, id, { position: { lonDeg, latDeg } }));
+          if (!plan) return;
+          void preview(withPreview(plan, id, { position: { lonDeg, latDeg } }));
+          // Should the pointer rest here, the release is computed ahead with the plan a drop makes.
+          computeReleaseAhead(() => movedPost(plan, id, lonDeg, latDeg)?.plan ?? null);
         },
         onDragEnd: (id, lonDeg, latDeg) => {
           previewRef.current = null;
