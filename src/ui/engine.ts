@@ -276,6 +276,11 @@ function partCount(p: WorkerPool<CoverageApi>, plan: Plan): number {
   return Math.max(1, Math.min(p.size, ACCURATE_PARTS, sliceCount(plan)));
 }
 
+/**
+ * Above this many cells the preview worker computes no part ahead: one radar there takes about 100 ms
+ * per million cells in a browser worker, which a move after the rest would wait for.
+ */
+const AHEAD_ON_PREVIEW_WORKER_MAX_CELLS = 2_000_000;
 /** The pointer rests this long on a dragged post before its release is computed ahead. */
 const RELEASE_AHEAD_AFTER_MS = 80;
 let releaseAhead: ReturnType<typeof setTimeout> | null = null;
@@ -299,8 +304,12 @@ export function computeReleaseAhead(dropped: () => Plan | null): void {
     const req = evaluateRequest(plan, g, false);
     const count = partCount(p, plan);
     // Every part, each on the worker its release runs it on (part k on worker k). Worker 1 also runs
-    // the previews: the pointer rests, so none is waiting, and a new move supersedes this run there.
-    for (let k = 0; k < count; k++) {
+    // the previews: the pointer rests, so none is waiting, and a new move supersedes this run there,
+    // but only once the radar it is computing is done; on a large grid that would hold the next
+    // preview too long, so there only part 0 (on worker 0, idle during a drag) goes ahead.
+    const f = useCoverage.getState().view?.frame;
+    const parts = f && f.width * f.height > AHEAD_ON_PREVIEW_WORKER_MAX_CELLS ? 1 : count;
+    for (let k = 0; k < parts; k++) {
       const part: EvaluateRequest = {
         ...req,
         cacheOnly: true,
