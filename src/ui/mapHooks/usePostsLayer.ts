@@ -115,6 +115,8 @@ export function usePostsLayer(map: L.Map | null): void {
               azDeg: az,
             };
             void preview(withPreview(plan, id, { boresightAzDeg: az }));
+            // As for a move: held still, the turn's release is computed ahead.
+            computeReleaseAhead(() => updatePost(plan, id, { boresightAzDeg: az }));
           }
         },
       }),
