@@ -69,6 +69,12 @@ export class PostsLayer extends L.LayerGroup {
   private selectedId: string | null = null;
   private display: PostsDisplay = { showSectors: true, showExposure: false };
   private readonly outlines = L.layerGroup();
+  /**
+   * Each post's sector outline with the shape it was made for: a rebuild (every pointer move of a drag,
+   * every plan change) keeps those unchanged instead of making every outline again.
+   */
+  private readonly sectors = L.layerGroup();
+  private readonly sectorOutlines = new Map<string, { outline: L.Polyline; shape: string }>();
   private readonly marks = L.layerGroup();
   /** The selected post's boresight line and handle, drawn again on every rebuild. */
   private readonly pointer = L.layerGroup();
@@ -84,6 +90,7 @@ export class PostsLayer extends L.LayerGroup {
   constructor(cb: PostsCallbacks) {
     super();
     this.cb = cb;
+    this.addLayer(this.sectors);
     this.addLayer(this.outlines);
     this.addLayer(this.marks);
     this.addLayer(this.pointer);
@@ -131,25 +138,44 @@ export class PostsLayer extends L.LayerGroup {
     if (container) placeLabelElements(this.exposureLabels, container, ".post-mark, .post-label");
   }
 
+  /** The sector outlines of the shown posts: unchanged ones kept, changed ones made again. */
+  private rebuildSectors(): void {
+    const wanted = new Map<string, { p: PostView; shape: string }>();
+    if (this.display.showSectors)
+      for (const p of this.posts)
+        if (p.enabled && p.maxRangeM > 0)
+          wanted.set(p.id, {
+            p,
+            shape: [p.lonDeg, p.latDeg, p.sectorCentreAzDeg, p.sectorWidthDeg, p.maxRangeM].join("|"),
+          });
+    for (const [id, kept] of this.sectorOutlines)
+      if (wanted.get(id)?.shape !== kept.shape) {
+        this.sectors.removeLayer(kept.outline);
+        this.sectorOutlines.delete(id);
+      }
+    for (const [id, { p, shape }] of wanted) {
+      if (this.sectorOutlines.has(id)) continue;
+      const arc = arcLatLngs(p.lonDeg, p.latDeg, p.sectorCentreAzDeg, p.sectorWidthDeg, p.maxRangeM);
+      const pts: [number, number][] =
+        p.sectorWidthDeg >= 360 ? arc : [[p.latDeg, p.lonDeg], ...arc, [p.latDeg, p.lonDeg]];
+      const outline = L.polyline(pts, {
+        color: "#1d3557",
+        weight: 1.2,
+        dashArray: "4 4",
+        interactive: false,
+        opacity: 0.9,
+      });
+      this.sectors.addLayer(outline);
+      this.sectorOutlines.set(id, { outline, shape });
+    }
+  }
+
   private rebuildOutlines(): void {
+    this.rebuildSectors();
     this.outlines.clearLayers();
     this.exposureLabels = [];
     for (const p of this.posts) {
       if (!p.enabled) continue;
-      if (this.display.showSectors && p.maxRangeM > 0) {
-        const arc = arcLatLngs(p.lonDeg, p.latDeg, p.sectorCentreAzDeg, p.sectorWidthDeg, p.maxRangeM);
-        const pts: [number, number][] =
-          p.sectorWidthDeg >= 360 ? arc : [[p.latDeg, p.lonDeg], ...arc, [p.latDeg, p.lonDeg]];
-        this.outlines.addLayer(
-          L.polyline(pts, {
-            color: "#1d3557",
-            weight: 1.2,
-            dashArray: "4 4",
-            interactive: false,
-            opacity: 0.9,
-          }),
-        );
-      }
       if (this.display.showExposure && p.exposureDistanceM > 0) {
         const label = document.createElement("span");
         label.textContent = `RF ${p.exposureDistanceM < 10 ? p.exposureDistanceM.toFixed(1) : Math.round(p.exposureDistanceM)} m`;

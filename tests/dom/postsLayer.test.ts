@@ -65,4 +65,28 @@ describe("posts layer", () => {
     expect(at.lng).toBeGreaterThan(8.003);
     map.remove();
   });
+
+  it("keeps the sector outlines of posts that did not change, and makes the moved post's again", () => {
+    const map = mapOnPage();
+    const layer = new PostsLayer(callbacks);
+    layer.addTo(map);
+    const sectorPaths = () => [...map.getContainer().querySelectorAll('path[stroke="#1d3557"]')];
+    layer.setPosts([post("a", 8.0, 47.0), post("b", 8.002, 47.001)], null, display);
+    const before = sectorPaths();
+    expect(before.length).toBe(2);
+    // b moved, as on every pointer move of a drag: a's outline is the same element, b's a new one.
+    layer.setPosts([post("a", 8.0, 47.0), post("b", 8.003, 47.001)], null, display);
+    const after = sectorPaths();
+    expect(after.length).toBe(2);
+    expect(after.filter((e) => before.includes(e)).length).toBe(1);
+    // Sectors hidden: none left; shown again: one per post.
+    layer.setPosts([post("a", 8.0, 47.0), post("b", 8.003, 47.001)], null, {
+      ...display,
+      showSectors: false,
+    });
+    expect(sectorPaths().length).toBe(0);
+    layer.setPosts([post("a", 8.0, 47.0), post("b", 8.003, 47.001)], null, display);
+    expect(sectorPaths().length).toBe(2);
+    map.remove();
+  });
 });
