@@ -21,6 +21,7 @@ import type {
 } from "../workers/protocol";
 import { type DemAsset, useAssets } from "./assets";
 import { useCoverage } from "./coverageState";
+import { previewLanded, takeRecyclable } from "./previewMemory";
 import { mergePartViews, RunProgressTracker, unique } from "./runParts";
 import { selectedSlice } from "./selection";
 import { say, useSession } from "./session";
@@ -82,55 +83,9 @@ function withTerrain(view: CoverageView, kind: "full" | "preview"): CoverageView
   return view;
 }
 
-/** The raster arrays a view brought (never the terrain, which the page keeps: withTerrain). */
-function rasterArrays(v: CoverageView): (Float32Array | Uint8Array)[] {
-  return [v.lowestVisibleAglM, ...v.slices.flatMap((s) => [s.combinedPd, s.overlap, s.gap, ...s.perRadarPd])];
-}
-
-/**
- * The arrays of `spent` views that none of `kept` (nor the terrain held) shares, once each, for a
- * worker to write into: moved there, the page holds them no longer, and neither side allocates anew
- * (new memory costs about 1 ms per MB to fault in).
- */
-function spentArrays(spent: CoverageView[], kept: (CoverageView | null)[]): (Float32Array | Uint8Array)[] {
-  const held = new Set<ArrayBufferLike>();
-  for (const t of [terrains.full, terrains.preview])
-    if (t) for (const a of [t.ground, t.obstruction]) held.add(a.buffer);
-  for (const v of kept) if (v) for (const a of rasterArrays(v)) held.add(a.buffer);
-  const out: (Float32Array | Uint8Array)[] = [];
-  for (const v of spent)
-    for (const a of rasterArrays(v)) {
-      const b = a.buffer;
-      if (b.byteLength === 0 || held.has(b) || !(b instanceof ArrayBuffer)) continue;
-      held.add(b);
-      out.push(a);
-    }
-  return out;
-}
-
-/**
- * Previews that landed, newest last. Those two landings back or more are no longer shown (the map has
- * drawn a newer one since): their arrays go back to the preview worker with the next preview request
- * (EvaluateRequest.recycled), which writes the next previews into them.
- */
-const landedPreviews: CoverageView[] = [];
-const PREVIEWS_SHOWN_OR_DRAWING = 2;
-/** At most this many buffers wait to go back (a few previews' worth). */
-const RECYCLE_MAX = 24;
-let recyclable: ArrayBuffer[] = [];
-
-function previewLanded(view: CoverageView): void {
-  landedPreviews.push(view);
-  const spent = landedPreviews.splice(0, Math.max(0, landedPreviews.length - PREVIEWS_SHOWN_OR_DRAWING));
-  for (const a of spentArrays(spent, landedPreviews))
-    if (recyclable.length < RECYCLE_MAX) recyclable.push(a.buffer as ArrayBuffer);
-}
-
-/** The spent previews' memory for the next preview request (moved: the page holds it no longer). */
-function takeRecyclable(): ArrayBuffer[] {
-  const list = recyclable;
-  recyclable = [];
-  return list;
+/** The buffers of the terrain arrays the page holds (never handed back to a worker). */
+function terrainBuffers(): ArrayBufferLike[] {
+  return [terrains.full, terrains.preview].flatMap((t) => (t ? [t.ground.buffer, t.obstruction.buffer] : []));
 }
 
 const EVAL_SLOT = 0;
@@ -244,13 +199,6 @@ async function runPart(
   };
 }
 
-/**
- * Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. With two
- * workers or more, an accurate run is split into one part per worker (each computes every radar's
- * masking and the SNR and Pd of its own slices, and fuses them), so a release uses every core. The
- * part holding the shown slice gives it first (drawn at once); the run stays "running" until every
- * part has landed, so the summary of the other slices is marked as updating meanwhile.
- */
 /** The request of a run of `plan` as generation `g`: a drag preview, or an accurate run (its part 0 first). */
 function evaluateRequest(plan: Plan, g: number, preview: boolean): EvaluateRequest {
   const kind = preview ? "preview" : "full";
@@ -327,6 +275,13 @@ function cancelReleaseAhead(): void {
   releaseAhead = null;
 }
 
+/**
+ * Runs the current plan (accurate, or fast for a drag preview); stale results are dropped. With two
+ * workers or more, an accurate run is split into one part per worker (each computes every radar's
+ * masking and the SNR and Pd of its own slices, and fuses them), so a release uses every core. The
+ * part holding the shown slice gives it first (drawn at once); the run stays "running" until every
+ * part has landed, so the summary of the other slices is marked as updating meanwhile.
+ */
 export async function runEvaluation(options: { preview?: boolean; plan?: Plan } = {}): Promise<void> {
   const plan = options.plan ?? usePlanStore.getState().plan;
   if (!plan) return;
@@ -356,7 +311,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
         }),
         kind,
       );
-      previewLanded(view);
+      previewLanded(view, terrainBuffers());
       useCoverage.getState().set({ preview: view, running: false, problem: null });
       return;
     }
