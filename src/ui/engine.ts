@@ -219,6 +219,11 @@ function evaluateRequest(plan: Plan, g: number, preview: boolean): EvaluateReque
   };
 }
 
+/** Part `k` of `count` of an accurate run's request (the request itself when the run is one part). */
+function partOf(req: EvaluateRequest, k: number, count: number): EvaluateRequest {
+  return count > 1 ? { ...req, part: { index: k, count } } : req;
+}
+
 /** Parts of an accurate run of `plan` on pool `p`. */
 function partCount(p: WorkerPool<CoverageApi>, plan: Plan): number {
   return Math.max(1, Math.min(p.size, ACCURATE_PARTS, sliceCount(plan)));
@@ -258,11 +263,7 @@ export function computeReleaseAhead(dropped: () => Plan | null): void {
     const f = useCoverage.getState().view?.frame;
     const parts = f && f.width * f.height > AHEAD_ON_PREVIEW_WORKER_MAX_CELLS ? 1 : count;
     for (let k = 0; k < parts; k++) {
-      const part: EvaluateRequest = {
-        ...req,
-        cacheOnly: true,
-        ...(count > 1 ? { part: { index: k, count } } : {}),
-      };
+      const part: EvaluateRequest = { ...partOf(req, k, count), cacheOnly: true };
       void withDem(p, k, (dem) =>
         p.run(evaluateChannel(k), g, "evaluate", [{ ...part, dem }], { slot: k }),
       ).catch(() => undefined);
@@ -306,7 +307,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
           sent = true;
           return p.run(evaluateChannel(slot), g, "evaluate", [{ ...req, dem, recycled: mine }], {
             slot,
-            transfer: mine,
+            transfer: mine.map((a) => a.buffer as ArrayBuffer),
           });
         }),
         kind,
@@ -324,7 +325,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
     });
     const parts = await Promise.all(
       Array.from({ length: count }, async (_, k) => {
-        const part = count > 1 ? { ...req, part: { index: k, count } } : req;
+        const part = partOf(req, k, count);
         const view = await runPart(p, part, k, showShown, (r) => progress.report(k, r));
         progress.finish(k);
         return view;

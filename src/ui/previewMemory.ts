@@ -1,7 +1,7 @@
 /**
  * Drag previews without new memory: the arrays of previews the map no longer shows go back to the
  * preview worker with the next preview request (EvaluateRequest.recycled), which writes the next
- * previews into them (SpareMemory in workers/warmBuffers.ts). New memory costs about 1 ms per MB to
+ * previews into them (a WarmBuffers pool there). New memory costs about 1 ms per MB to
  * fault in, 6 bytes a cell per preview in the worker, 20 previews a second.
  */
 import type { CoverageView } from "../workers/protocol";
@@ -38,18 +38,18 @@ const landedPreviews: CoverageView[] = [];
 const PREVIEWS_SHOWN_OR_DRAWING = 2;
 /** At most this many buffers wait to go back (a few previews' worth). */
 const RECYCLE_MAX = 24;
-let recyclable: ArrayBuffer[] = [];
+let recyclable: (Float32Array | Uint8Array)[] = [];
 
 /** A preview landed; `held`: buffers the page keeps whatever happens (its terrain arrays). */
 export function previewLanded(view: CoverageView, held: Iterable<ArrayBufferLike>): void {
   landedPreviews.push(view);
   const spent = landedPreviews.splice(0, Math.max(0, landedPreviews.length - PREVIEWS_SHOWN_OR_DRAWING));
   for (const a of spentArrays(spent, landedPreviews, held))
-    if (recyclable.length < RECYCLE_MAX) recyclable.push(a.buffer as ArrayBuffer);
+    if (recyclable.length < RECYCLE_MAX) recyclable.push(a);
 }
 
 /** The spent previews' memory for the next preview request (moved: the page holds it no longer). */
-export function takeRecyclable(): ArrayBuffer[] {
+export function takeRecyclable(): (Float32Array | Uint8Array)[] {
   const list = recyclable;
   recyclable = [];
   return list;

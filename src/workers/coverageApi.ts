@@ -42,7 +42,7 @@ import type {
 } from "./protocol";
 import { focusKey, focusSite, mergesLowest, narrowRadar, partSite, releaseStepSite } from "./siteSlices";
 import { cloneView, toCoverageView } from "./toView";
-import { newBuffer, SpareMemory, WarmBuffers, writeThrough } from "./warmBuffers";
+import { newBuffer, WarmBuffers, writeThrough } from "./warmBuffers";
 
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
 const RADAR_CACHE_ENTRIES = 64;
@@ -62,36 +62,6 @@ const WARM_MAX_CELLS = 4_000_000;
 
 function newCache(entries: number): RadarResultCache<RadarCoverage> {
   return new RadarResultCache<RadarCoverage>(entries, { perGroup: RESULTS_PER_POST, spares: SPARE_RESULTS });
-}
-
-/**
- * The reply to a cacheOnly request: what was computed, with no arrays (those the worker holds stay
- * here: a view's arrays are transferred away).
- */
-function arraylessView(
-  generation: number,
-  site: PreparedSite,
-  result: SiteResult,
-  terrainKey: string,
-  elapsedMs: number,
-): CoverageView {
-  const none = new Float32Array(0);
-  return {
-    generation,
-    frame: result.frame,
-    terrainKey,
-    groundAmslM: none,
-    obstructionTopAglM: none,
-    lowestVisibleAglM: none,
-    heightsM: [...result.heightsAglM],
-    classIds: result.targets.map((t) => t.targetId),
-    radarPostIds: [...result.radarIds],
-    slices: [],
-    maskMode: site.maskMode,
-    notes: [],
-    elapsedMs,
-    computedRadarIds: [...result.computedRadarIds],
-  };
 }
 
 function now(): number {
@@ -306,8 +276,8 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
   /** The site of the last accurate run, whose shapes the idle work prepares once the page settles. */
   let lastAccurate: PreparedSite | null = null;
   const warm = new WarmBuffers();
-  /** Memory of spent previews, moved back by the page for the next previews. */
-  const spare = new SpareMemory();
+  /** Arrays of spent previews, moved back by the page (EvaluateRequest.recycled), for the next previews. */
+  const spare = new WarmBuffers();
 
   /**
    * After an accurate run of `site` (a whole site or a part): a spare radar result of its shape and
@@ -418,17 +388,19 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
       notes.unshift(`Preview on ${site.frame.cellSizeM} m cells; the full grid follows on release.`);
     }
     const terrainKey = site.terrainId ?? siteTerrainId(site);
-    if (req.cacheOnly) return arraylessView(req.generation, site, result, terrainKey, now() - t0);
-    const withTerrain = terrainKey !== req.haveTerrainKey;
+    const made = toCoverageView(site, result, {
+      generation: req.generation,
+      notes,
+      elapsedMs: now() - t0,
+      terrainKey,
+      withTerrain: !req.cacheOnly && terrainKey !== req.haveTerrainKey,
+      perRadarPostId: req.perRadarPostId ?? null,
+    });
+    // Computed ahead: what was computed, with none of the arrays (they are the worker's own and a
+    // reply's arrays are transferred away).
+    if (req.cacheOnly) return { ...made, lowestVisibleAglM: new Float32Array(0), slices: [] };
     const view = cloneView(
-      toCoverageView(site, result, {
-        generation: req.generation,
-        notes,
-        elapsedMs: now() - t0,
-        terrainKey,
-        withTerrain,
-        perRadarPostId: req.perRadarPostId ?? null,
-      }),
+      made,
       // A preview copies into the memory of spent previews: the ready arrays are kept for the release.
       (a) => (site.maskMode === "fast" ? spare.copy(a) : warm.copy(a)),
     );
@@ -468,7 +440,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     },
     async evaluate(req: EvaluateRequest, onProgress?: ProgressListener): Promise<CoverageView> {
       const accurate = req.maskMode !== "fast";
-      for (const b of req.recycled ?? []) spare.put(b);
+      for (const a of req.recycled ?? []) spare.put(a);
       if (accurate) runningAccurate++;
       let site: PreparedSite | null = null;
       try {

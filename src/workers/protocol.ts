@@ -45,10 +45,10 @@ export interface EvaluateRequest {
    */
   cacheOnly?: boolean;
   /**
-   * Memory of earlier previews the page no longer shows, moved back (in the transfer list) for the
-   * worker to write the next previews into, so that a drag allocates no new arrays on either side.
+   * Arrays of earlier previews the page no longer shows, moved back (their buffers in the transfer
+   * list) for the worker to write the next previews into, so that a drag allocates no new arrays.
    */
-  recycled?: ArrayBuffer[];
+  recycled?: (Float32Array | Uint8Array)[];
   /**
    * With a focus on an accurate run: compute every radar but fuse only the focused slice, and reply
    * with that one slice (`partial` in the view); a run of the same plan without it then takes every

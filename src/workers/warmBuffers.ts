@@ -61,33 +61,6 @@ export class WarmBuffers {
 }
 
 /**
- * Memory moved back by the page (EvaluateRequest.recycled), by byte length: a preview writes its
- * copies there instead of into new memory, whose allocation and first write cost about 1 ms per MB
- * and whose collection the page and the worker then pay for (6 bytes a cell per preview, 20 previews
- * a second).
- */
-export class SpareMemory {
-  private readonly byLength = new Map<number, ArrayBuffer[]>();
-  constructor(readonly maxPerLength = 8) {}
-
-  put(buffer: ArrayBuffer): void {
-    if (buffer.byteLength === 0) return;
-    const list = this.byLength.get(buffer.byteLength) ?? [];
-    if (list.length < this.maxPerLength) list.push(buffer);
-    this.byLength.set(buffer.byteLength, list);
-  }
-
-  /** A copy of `a` in spare memory of its size when there is some, else in a new array. */
-  copy<T extends Buffer>(a: T): T {
-    const spare = this.byLength.get(a.byteLength)?.pop();
-    if (spare === undefined) return a.slice() as T;
-    const out = (a instanceof Float32Array ? new Float32Array(spare) : new Uint8Array(spare)) as T;
-    out.set(a);
-    return out;
-  }
-}
-
-/**
  * Writes every page of each array, one array per turn of the event loop (so a request that arrives
  * meanwhile is served between two arrays). Stops early, returning false, once `stop()` says so.
  */

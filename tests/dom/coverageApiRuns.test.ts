@@ -218,13 +218,17 @@ describe("coverage API runs", () => {
     const opened = await api.evaluate(request(plan));
     // As the page asks during a drag: it holds the terrain and does not show the lowest visible height.
     const ask = { maskMode: "fast" as const, focus, haveTerrainKey: opened.terrainKey, skipLowest: true };
-    const preview = (k: number, recycled?: ArrayBuffer[]) =>
+    const preview = (k: number, recycled?: (Float32Array | Uint8Array)[]) =>
       api.evaluate(request(moved(plan, k).plan, { ...ask, recycled }));
     // As the page receives it: the buffers transferred out of the worker.
     const spent = sent(await preview(1));
+    const arrays = spent.slices.flatMap((x) => [x.combinedPd, x.overlap, x.gap, ...x.perRadarPd]);
     const handedBack = viewTransferables(spent) as ArrayBuffer[];
     expect(handedBack.length).toBeGreaterThan(0);
-    const next = await preview(2, handedBack);
+    const next = await preview(
+      2,
+      arrays.filter((a) => a.byteLength > 0),
+    );
     const written = viewTransferables(next);
     expect(written.length).toBe(handedBack.length);
     for (const b of written) expect(handedBack.includes(b as ArrayBuffer)).toBe(true);
