@@ -21,8 +21,13 @@ export interface RasterPaint {
   pattern: "fill" | "hatch";
 }
 
-/** Time spent repainting tiles per animation frame, ms (keeps frames under ~16 ms). */
-const REPAINT_BUDGET_MS = 10;
+/**
+ * Time spent repainting tiles per animation frame, ms, shared by every raster layer (coverage, gap
+ * hatching, hillshade): with a budget per layer, a release that repaints two layers ran both in one
+ * frame, and on two cores busy with the workers that frame became one task of 75 ms wall time for
+ * 20 ms of CPU (a Chrome trace, docs/performance.md).
+ */
+const REPAINT_BUDGET_MS = 8;
 
 /** requestAnimationFrame where there is one (browsers), else a zero timeout (tests). */
 function requestFrame(fn: () => void): number {
@@ -87,20 +92,17 @@ export class RasterLayer extends L.GridLayer {
     const tiles = (this as unknown as { _tiles?: Record<string, TileRecord> })._tiles;
     if (!tiles) return;
     this.pending = Object.values(tiles);
-    if (this.frameRequest === null) this.frameRequest = requestFrame(() => this.drainRepaints());
+    requestRepaints(this);
   }
 
   private pending: TileRecord[] = [];
-  private frameRequest: number | null = null;
 
-  private drainRepaints(): void {
-    this.frameRequest = null;
-    const t0 = performance.now();
-    while (this.pending.length > 0 && performance.now() - t0 < REPAINT_BUDGET_MS) {
-      const rec = this.pending.shift() as TileRecord;
-      if (rec.el.isConnected) this.drawTile(rec.el, rec.coords);
-    }
-    if (this.pending.length > 0) this.frameRequest = requestFrame(() => this.drainRepaints());
+  /** Repaints the next pending tile; false once none is left. */
+  repaintNext(): boolean {
+    const rec = this.pending.shift();
+    if (rec === undefined) return false;
+    if (rec.el.isConnected) this.drawTile(rec.el, rec.coords);
+    return this.pending.length > 0;
   }
 
   override createTile(coords: L.Coords): HTMLElement {
@@ -142,6 +144,28 @@ export class RasterLayer extends L.GridLayer {
   }
 
   private image: ImageData | null = null;
+}
+
+/** Layers with tiles to repaint, served in turn within one budget per animation frame. */
+const waiting = new Set<RasterLayer>();
+let frameRequest: number | null = null;
+
+function requestRepaints(layer: RasterLayer): void {
+  waiting.add(layer);
+  if (frameRequest === null) frameRequest = requestFrame(drainRepaints);
+}
+
+function drainRepaints(): void {
+  frameRequest = null;
+  const t0 = performance.now();
+  // One tile of each layer in turn, so that every layer moves on in every frame.
+  while (waiting.size > 0 && performance.now() - t0 < REPAINT_BUDGET_MS) {
+    for (const layer of waiting) {
+      if (!layer.repaintNext()) waiting.delete(layer);
+      if (performance.now() - t0 >= REPAINT_BUDGET_MS) break;
+    }
+  }
+  if (waiting.size > 0) frameRequest = requestFrame(drainRepaints);
 }
 
 /** The colour table as one 32-bit word per entry (the four RGBA bytes in memory order). */

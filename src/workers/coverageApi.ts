@@ -59,6 +59,8 @@ const SPARE_RESULTS = 2;
  * smaller share of a release anyway.
  */
 const WARM_MAX_CELLS = 4_000_000;
+/** Pause between two arrays the idle work writes, ms (writeThrough in warmBuffers.ts says why). */
+const IDLE_PAUSE_MS = 25;
 
 function newCache(entries: number): RadarResultCache<RadarCoverage> {
   return new RadarResultCache<RadarCoverage>(entries, { perGroup: RESULTS_PER_POST, spares: SPARE_RESULTS });
@@ -297,7 +299,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
           ...h.targets.flatMap((t) => (t.pd && t.reason ? [t.pd, t.reason] : [])),
         ]),
       ];
-      if (await writeThrough(arrays, stop)) target.addSpare(blank);
+      if (await writeThrough(arrays, stop, IDLE_PAUSE_MS)) target.addSpare(blank);
       else return;
     }
     const slices = site.targets.reduce((k, t) => k + t.heightsAglM.length, 0);
@@ -308,7 +310,7 @@ export function createCoverageApi(options: CoverageApiOptions = {}): CoverageApi
     ] as const) {
       while (warm.count(kind, n) < Math.min(want, warm.maxPerKind)) {
         const a = newBuffer(kind, n);
-        if (!(await writeThrough([a], stop))) return;
+        if (!(await writeThrough([a], stop, IDLE_PAUSE_MS))) return;
         warm.put(a);
       }
     }

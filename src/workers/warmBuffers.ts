@@ -62,13 +62,27 @@ export class WarmBuffers {
 
 /**
  * Writes every page of each array, one array per turn of the event loop (so a request that arrives
- * meanwhile is served between two arrays). Stops early, returning false, once `stop()` says so.
+ * meanwhile is served between two arrays), `pauseMs` apart when given. Stops early, returning false,
+ * once `stop()` says so.
+ *
+ * The pause is for the page: on a machine of two cores, two workers writing their memory back to back
+ * leave the page's main thread waiting for a core (a 17–25 ms task of the page took 60–68 ms on the
+ * first drag after opening a 1 M-cell plan, docs/performance.md). A 4 MB array takes about 4 ms to
+ * write, so a pause of 25 ms keeps a worker's idle work to about a seventh of a core.
  */
-export async function writeThrough(arrays: readonly Buffer[], stop: () => boolean): Promise<boolean> {
+export async function writeThrough(
+  arrays: readonly Buffer[],
+  stop: () => boolean,
+  pauseMs = 0,
+): Promise<boolean> {
   for (const a of arrays) {
-    await yieldToEventLoop();
+    await (pauseMs > 0 ? sleep(pauseMs) : yieldToEventLoop());
     if (stop()) return false;
     a.fill(0);
   }
   return true;
+}
+
+function sleep(ms: number): Promise<void> {
+  return new Promise((resolve) => setTimeout(resolve, ms));
 }

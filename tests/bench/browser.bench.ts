@@ -32,6 +32,8 @@ const DRAG_STEP_MS = Number(process.env.PICKET_BENCH_DRAG_STEP_MS ?? 16);
 const REST_MS = Number(process.env.PICKET_BENCH_REST_MS ?? 0);
 /** Where the traces of the releases go (unset: none taken; tracing slows the page a little). */
 const TRACE_DIR = process.env.PICKET_BENCH_TRACE;
+/** Set: each trace starts at the press of the pointer and covers the whole drag, not the release only. */
+const TRACE_DRAG = Boolean(process.env.PICKET_BENCH_TRACE_DRAG);
 
 /** Starts a Chrome trace of the page and its workers (CDP Tracing: main thread, workers, V8). */
 async function startTrace(page: Page): Promise<CDPSession> {
@@ -183,6 +185,8 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFi
   const x0 = b.x + b.width / 2;
   const y0 = b.y + b.height / 2;
   await page.mouse.move(x0, y0);
+  const dragTrace = traceFile && TRACE_DRAG ? await startTrace(page) : null;
+  const tDown = await page.evaluate(() => performance.now());
   await page.mouse.down();
   const tDrag = Date.now();
   for (let k = 1; k <= DRAG_STEPS; k++) {
@@ -192,7 +196,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFi
   const dragS = (Date.now() - tDrag) / 1000;
   if (REST_MS > 0) await page.waitForTimeout(REST_MS);
   const updates = await page.evaluate(() => (window as unknown as { __gens: number[] }).__gens.length);
-  const trace = traceFile ? await startTrace(page) : null;
+  const trace = dragTrace ?? (traceFile ? await startTrace(page) : null);
   const tUp = await page.evaluate(() => performance.now());
   await page.mouse.up();
   await page.waitForFunction(
@@ -220,6 +224,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFi
     () => (window as unknown as { __long: { ms: number; at: number }[] }).__long,
   );
   const longTasks = long.map((t) => ({ ms: t.ms, fromReleaseMs: t.at - tUp }));
+  const pressedMs = tDown - tUp;
   const workerMs = Number((await status(page)).match(/Computed in (\d+)/)?.[1] ?? Number.NaN);
   const computedRadars = await page.getByTestId("summary").getAttribute("data-computed-radars");
   return {
@@ -227,6 +232,7 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFi
     firstMs,
     releaseMs,
     longTasks,
+    pressedMs,
     workerMs,
     computedRadars,
   };
@@ -281,7 +287,7 @@ async function main() {
             `${t.ms.toFixed(0)} ms at ${t.fromReleaseMs >= 0 ? "+" : ""}${t.fromReleaseMs.toFixed(0)} ms`,
         );
         console.log(
-          `    main-thread long tasks during the drag and release: ${over.length} over 50 ms${over.length ? ` (${when.join(", ")} from the release)` : ""}`,
+          `    main-thread long tasks during the drag and release: ${over.length} over 50 ms${over.length ? ` (${when.join(", ")} from the release; pointer pressed at ${d.pressedMs.toFixed(0)} ms)` : ""}`,
         );
       }
     }

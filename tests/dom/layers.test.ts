@@ -1,7 +1,7 @@
 // @vitest-environment jsdom
 
 import { contours } from "d3-contour";
-import { describe, expect, it } from "vitest";
+import { describe, expect, it, vi } from "vitest";
 import type { Grid, GridFrame } from "../../src/coverage/grid";
 import { GapLayer, OUTLINE_BATCH_VERTICES } from "../../src/map/gapLayer";
 import { hillshadeIndices, hillshadeIndicesInSlices } from "../../src/map/hillshade";
@@ -235,6 +235,49 @@ describe("repaints", () => {
       pattern: "fill",
     });
     expect(queued()).toBe(1);
+  });
+
+  it("layers repaint in turn within one time budget per animation frame, shared by all of them", async () => {
+    // The frames the tests before asked for run first.
+    await new Promise((r) => setTimeout(r, 20));
+    const frames: (() => void)[] = [];
+    vi.stubGlobal("requestAnimationFrame", (fn: () => void) => frames.push(fn));
+    // Each reading of the clock is 3 ms later: the 8 ms budget of a frame allows two tiles.
+    let clock = 0;
+    const now = vi.spyOn(performance, "now").mockImplementation(() => (clock += 3));
+    try {
+      const layers = [new RasterLayer(), new RasterLayer()];
+      const pending = layers.map((layer) => {
+        const tiles: Record<string, object> = {};
+        for (let k = 0; k < 3; k++) {
+          const el = document.createElement("canvas");
+          document.body.appendChild(el);
+          tiles[`${k}:0:1`] = { el, coords: { x: k, y: 0, z: 1 }, current: true };
+        }
+        const internals = layer as unknown as { _tiles: object; pending: unknown[] };
+        internals._tiles = tiles;
+        return () => internals.pending.length;
+      });
+      const scale = layerScale("combined", 3, 120);
+      const indices = new Int16Array(frame.width * frame.height).fill(7);
+      for (const layer of layers)
+        layer.setPaint({ frame, forward, indices, table: scale.table, pattern: "fill" });
+      // One frame asked for both layers.
+      expect(frames).toHaveLength(1);
+      frames.shift()?.();
+      // One tile of each, not two of the first: the second layer is not left waiting.
+      expect(pending.map((p) => p())).toEqual([2, 2]);
+      expect(frames).toHaveLength(1);
+      frames.shift()?.();
+      frames.shift()?.();
+      expect(pending.map((p) => p())).toEqual([0, 0]);
+      // Nothing left: no further frame is asked for.
+      frames.shift()?.();
+      expect(frames).toHaveLength(0);
+    } finally {
+      now.mockRestore();
+      vi.unstubAllGlobals();
+    }
   });
 
   it("the same gap raster with its outlines added keeps its hatching", () => {
