@@ -111,8 +111,12 @@ export interface RadarResultCacheOptions {
  */
 export class RadarResultCache<T> {
   private readonly entries = new Map<string, { value: T; group: string | undefined }>();
-  /** Results computed ahead (setAhead), one per group, apart from the entries until a run asks for one. */
-  private readonly ahead = new Map<string, { key: string; value: T }>();
+  /**
+   * The result computed ahead (setAhead), apart from the entries until a run asks for it. One at a
+   * time: a place rested on and left is not where a later release lands, and the run's memory estimate
+   * (siteGrid.ts EXTRA_RADAR_RESULTS) counts one.
+   */
+  private ahead: { key: string; value: T; group: string } | null = null;
   private readonly spareValues: T[] = [];
   hits = 0;
   computed = 0;
@@ -132,13 +136,11 @@ export class RadarResultCache<T> {
   get(key: string): T | undefined {
     const entry = this.entries.get(key);
     if (entry === undefined) {
-      for (const [group, a] of this.ahead)
-        if (a.key === key) {
-          this.ahead.delete(group);
-          this.set(key, a.value, group);
-          return a.value;
-        }
-      return undefined;
+      const a = this.ahead;
+      if (a === null || a.key !== key) return undefined;
+      this.ahead = null;
+      this.set(key, a.value, a.group);
+      return a.value;
     }
     this.entries.delete(key);
     this.entries.set(key, entry);
@@ -146,19 +148,19 @@ export class RadarResultCache<T> {
   }
 
   has(key: string): boolean {
-    return this.entries.has(key) || [...this.ahead.values()].some((a) => a.key === key);
+    return this.entries.has(key) || this.ahead?.key === key;
   }
 
   /**
    * Keeps a result computed ahead of need (a release computed while a dragged post rests) apart from
-   * the entries, one per group (the previous one of the group becomes a spare), so that positions
-   * passed on the way do not push the group's kept results (undo) out; get() takes it in when asked.
+   * the entries, so that positions passed on the way do not push the group's kept results (undo) out;
+   * get() takes it in when asked. The one computed ahead before becomes a spare.
    */
   setAhead(key: string, value: T, group: string): void {
     if (this.entries.has(key)) return;
-    const old = this.ahead.get(group);
-    if (old !== undefined && old.value !== value) this.retire(old.value);
-    this.ahead.set(group, { key, value });
+    const old = this.ahead;
+    if (old !== null && old.value !== value) this.retire(old.value);
+    this.ahead = { key, value, group };
   }
 
   /**
@@ -231,7 +233,7 @@ export class RadarResultCache<T> {
 
   clear(): void {
     this.entries.clear();
-    this.ahead.clear();
+    this.ahead = null;
     this.spareValues.length = 0;
   }
 }

@@ -12,8 +12,9 @@
  *   a margin; snapped outward to whole cells so that the origin is a multiple of the cell size.
  * - Cells: square; with cellSizeM "auto" the smallest of AUTO_CELL_SIZES_M that keeps the count
  *   at or below MAX_AUTO_CELLS and the run's memory estimate inside the budget.
- * - Memory: estimateRunMemoryBytes gives what a run stores (formula below); checkRunMemory refuses
- *   a run above RUN_MEMORY_BUDGET_BYTES with a message that says what to change.
+ * - Memory: estimateRunMemoryBytes gives what a run stores on the planner's workers and page (formula
+ *   below); checkRunMemory refuses a run above RUN_MEMORY_BUDGET_BYTES with a message that says what
+ *   to change.
  */
 import proj4 from "proj4";
 import type { GridFrame } from "../coverage/grid.ts";
@@ -22,7 +23,7 @@ import type { Plan } from "./planSchema.ts";
 /**
  * Cap on the cell count of an automatic grid: 4 M cells (e.g. 2000 × 2000, 10 km × 10 km at 5 m).
  * The engine's interactive target is a full 10-radar, 3-height evaluation of 4 M cells in 1.5 s
- * on two cores; such a run with one target class (about 1.7 GiB by estimateRunMemoryBytes) stays
+ * on two cores; such a run with one target class (about 2.7 GiB by estimateRunMemoryBytes) stays
  * inside RUN_MEMORY_BUDGET_BYTES. A run that would not (more classes, radars or heights) takes the
  * next larger cell size instead (autoCellSizeM).
  */
@@ -47,29 +48,71 @@ export const UTM_MAX_LAT_DEG = 84;
 export const MAX_GRID_SIDE_M = 200_000;
 
 /**
- * Memory budget of one run, bytes: 2 GiB, about half of what a 64-bit browser tab can hold
- * (Chromium caps a renderer process near 4 GiB), leaving room for the map, the page and the
- * copies in flight to and from workers.
+ * Memory budget of one run, bytes: 4 GiB, about half of a machine of 8 GB. The browser is not the
+ * limit: headless Chromium 156 on Linux held 8 GiB of typed arrays in one tab's two workers
+ * (docs/performance.md, 4 December 2026). A run's memory is estimated before it starts
+ * (estimateRunMemoryBytes) and one above the budget is refused.
  */
-export const RUN_MEMORY_BUDGET_BYTES = 2 * 1024 ** 3;
+export const RUN_MEMORY_BUDGET_BYTES = 4 * 1024 ** 3;
 
 /** The most radars one run can fuse (best-radar rasters hold a byte index; 255 means none). */
 export const MAX_RADARS_PER_RUN = 254;
 
-// Bytes per cell as the engine stores its rasters (Float32 = 4 bytes, Uint8 = 1 byte).
-/** Per grid: ground elevation f32 + obstruction top f32 + protected-area and ring masks 2 × u8. */
-export const GRID_BYTES_PER_CELL = 4 + 4 + 1 + 1;
-/** Per radar: horizon slope f32 + obstruction distance f32 + lowest visible height f32. */
-export const RADAR_BYTES_PER_CELL = 4 + 4 + 4;
-/** Per radar and height: SNR dB f32 (for a 0 dBsm target, shared by the classes). */
+// Bytes per cell as the planner stores a run (Float32 = 4 bytes, Uint8 = 1, Int16 = 2), measured
+// against the engine in tests/unit/runMemory.test.ts.
+/**
+ * Parts an accurate run is split into, one per worker (the planner's engine.ts, ACCURATE_PARTS),
+ * when it has at least as many slices: each part keeps its own copy of the site and of what its
+ * slices share.
+ */
+export const RUN_PARTS = 2;
+/**
+ * Per worker: ground, obstruction surface and obstruction top f32, protected-area and ring masks u8,
+ * the horizon sweep's slope and obstacle distance f32 (reused from radar to radar), the merged lowest
+ * visible height f32 and a copy made ready for the next run.
+ */
+export const WORKER_BYTES_PER_CELL = 3 * 4 + 2 * 1 + 2 * 4 + 2 * 4;
+/** Per worker and height: the cell state u8 (open air, or inside a roof or canopy). */
+export const WORKER_HEIGHT_BYTES_PER_CELL = 1;
+/**
+ * On the page: ground and obstruction top f32 (hillshade, terrain profile), the hillshade's u8 and
+ * two Int16 colour-table index arrays of the coverage layer (drag previews alternate between them).
+ */
+export const PAGE_BYTES_PER_CELL = 2 * 4 + 1 + 2 * 2;
+/** Per radar result and part: its lowest visible height f32. */
+export const RADAR_PART_BYTES_PER_CELL = 4;
+/** Per radar result and height a part computes: SNR dB f32 (for a 0 dBsm target, shared by the classes). */
 export const RADAR_HEIGHT_BYTES_PER_CELL = 4;
-/** Per radar and slice (a class judged at a height): Pd f32 + not-covered reason u8. */
+/** Per radar result and slice (a class judged at a height): Pd f32 + not-covered reason u8. */
 export const RADAR_SLICE_BYTES_PER_CELL = 4 + 1;
 /**
- * Per slice, fused: combined Pd f32 + overlap u8 + best radar u8 + gap u8, twice (the page's copy and
- * the one the worker keeps for the next release, fusionMemo.ts), plus the cell state u8, rounded up.
+ * Radar results a worker keeps beside one per radar: the two earlier places of a moved post (undo and
+ * redo cost nothing), two spares whose memory the next radar reuses, and one computed ahead while a
+ * dragged post rests (coverageApi.ts). On smaller grids a worker may keep more earlier results, within
+ * its cache budget (coverageApi.ts RADAR_CACHE_BUDGET_BYTES).
  */
-export const FUSED_SLICE_BYTES_PER_CELL = 2 * (4 + 1 + 1 + 1) + 1 + 1;
+export const EXTRA_RADAR_RESULTS = 2 + 2 + 1;
+/** Drag previews run on at most this many cells: a larger grid is previewed on a coarser one (same extent). */
+export const PREVIEW_MAX_CELLS = 250_000;
+/** Results the preview worker keeps beside one per radar: a moved post's two earlier places and two spares. */
+export const EXTRA_PREVIEW_RESULTS = 2 + 2;
+/**
+ * Per preview cell, besides its radar results (each lowest visible height, SNR and Pd f32 and a
+ * reason u8 of the one slice shown): the preview worker's own site and sweep (WORKER_BYTES_PER_CELL
+ * and a cell state), its fused slice (FUSED_SLICE_BYTES_PER_CELL), the three previews the page holds
+ * (combined Pd, one radar's Pd and lowest visible height f32, overlap and gap u8) and the arrays handed
+ * back to the worker for the next ones (at most eight of each kind, f32 and u8: previewMemory.ts,
+ * warmBuffers.ts).
+ */
+export const PREVIEW_BYTES_PER_CELL = 30 + 1 + 23 + 3 * (3 * 4 + 2) + 8 * (4 + 1);
+/** Per preview cell and radar result: lowest visible height, SNR and Pd f32, reason u8. */
+export const PREVIEW_RESULT_BYTES_PER_CELL = 3 * 4 + 1;
+/**
+ * Per slice: the fusion memo's combined Pd f32 and overlap, best radar and gap u8; the copies a view
+ * takes to the page (combined Pd f32, overlap and gap u8) and as many made ready for the next run;
+ * the page's Pd f32 of the one radar shown.
+ */
+export const FUSED_SLICE_BYTES_PER_CELL = 4 + 3 + 2 * (4 + 2) + 4;
 
 /** Thrown by siteGridFrame for a site the grid cannot hold; `name` is stable for the worker boundary. */
 export class SiteGridError extends Error {
@@ -145,17 +188,18 @@ function positionsOfPlanAreas(plan: Plan): number[][] {
 
 /**
  * The cell size an automatic grid takes for an extent of widthM × heightM, m: the smallest of
- * AUTO_CELL_SIZES_M with at most MAX_AUTO_CELLS cells and, at runBytesPerCell, a run inside the budget.
+ * AUTO_CELL_SIZES_M with at most MAX_AUTO_CELLS cells and a run (of runBytesOf(cells) bytes) inside
+ * the budget.
  */
 export function autoCellSizeM(
   widthM: number,
   heightM: number,
-  runBytesPerCell = 0,
+  runBytesOf: (cells: number) => number = () => 0,
   budgetBytes: number = RUN_MEMORY_BUDGET_BYTES,
 ): number {
   for (const s of AUTO_CELL_SIZES_M) {
     const cells = Math.ceil(widthM / s) * Math.ceil(heightM / s);
-    if (cells <= MAX_AUTO_CELLS && cells * runBytesPerCell <= budgetBytes) return s;
+    if (cells <= MAX_AUTO_CELLS && runBytesOf(cells) <= budgetBytes) return s;
   }
   return AUTO_CELL_SIZES_M[AUTO_CELL_SIZES_M.length - 1];
 }
@@ -263,7 +307,9 @@ export function siteGridFrame(plan: Plan): SiteGrid {
   }
   const autoCellSize = plan.analysis.cellSizeM === "auto";
   const cellSizeM = autoCellSize
-    ? autoCellSizeM(maxX - minX, maxY - minY, runBytesPerCellOf(plan))
+    ? autoCellSizeM(maxX - minX, maxY - minY, (cells) =>
+        estimateRunMemoryBytes(runSizeOf(plan, { cellCount: cells })),
+      )
     : (plan.analysis.cellSizeM as number);
   const originX = Math.floor(minX / cellSizeM) * cellSizeM;
   const originY = Math.ceil(maxY / cellSizeM) * cellSizeM;
@@ -283,13 +329,17 @@ export interface RunSize {
 }
 
 /**
- * Memory a run stores, bytes:
- *   cells × ( GRID_BYTES_PER_CELL
- *           + radars × (RADAR_BYTES_PER_CELL + heights × RADAR_HEIGHT_BYTES_PER_CELL
- *                       + slices × RADAR_SLICE_BYTES_PER_CELL)
- *           + slices × FUSED_SLICE_BYTES_PER_CELL )
- * = cells × (10 + radars × (12 + 4 · heights + 5 · slices) + 16 · slices).
- * Negative or non-finite counts give NaN.
+ * Memory a run stores, bytes, on P = min(RUN_PARTS, slices) parts with R radars, H heights, S slices:
+ *   cells × ( P · (WORKER_BYTES_PER_CELL + H · WORKER_HEIGHT_BYTES_PER_CELL)
+ *           + PAGE_BYTES_PER_CELL
+ *           + (R + EXTRA_RADAR_RESULTS) · (P · RADAR_PART_BYTES_PER_CELL
+ *                 + min(H · P, H + P − 1) · RADAR_HEIGHT_BYTES_PER_CELL + S · RADAR_SLICE_BYTES_PER_CELL)
+ *           + S · FUSED_SLICE_BYTES_PER_CELL )
+ *   + min(cells, PREVIEW_MAX_CELLS) × (PREVIEW_BYTES_PER_CELL
+ *           + (R + EXTRA_PREVIEW_RESULTS) · PREVIEW_RESULT_BYTES_PER_CELL)
+ * = cells × (P·(30 + H) + 13 + (R + 5)·(4P + 4·min(HP, H + P − 1) + 5S) + 23S)
+ *   + min(cells, 250 000) × (136 + 13·(R + 4)); no radar keeps no results. The parts split the slices
+ * in height order, so they share at most P − 1 heights. Negative or non-finite counts give NaN.
  */
 export function estimateRunMemoryBytes(size: RunSize): number {
   const { cells, radars, heights, slices } = size;
@@ -298,18 +348,24 @@ export function estimateRunMemoryBytes(size: RunSize): number {
     !Number.isFinite(cells + radars + heights + slices)
   )
     return Number.NaN;
+  const parts = Math.max(1, Math.min(RUN_PARTS, slices));
+  const results = radars > 0 ? radars + EXTRA_RADAR_RESULTS : 0;
+  const partHeights = Math.min(heights * parts, heights + parts - 1);
+  const previewResults = radars > 0 ? radars + EXTRA_PREVIEW_RESULTS : 0;
+  const previews =
+    Math.min(cells, PREVIEW_MAX_CELLS) *
+    (PREVIEW_BYTES_PER_CELL + previewResults * PREVIEW_RESULT_BYTES_PER_CELL);
   return (
+    previews +
     cells *
-    (GRID_BYTES_PER_CELL +
-      radars *
-        (RADAR_BYTES_PER_CELL + heights * RADAR_HEIGHT_BYTES_PER_CELL + slices * RADAR_SLICE_BYTES_PER_CELL) +
-      slices * FUSED_SLICE_BYTES_PER_CELL)
+      (parts * (WORKER_BYTES_PER_CELL + heights * WORKER_HEIGHT_BYTES_PER_CELL) +
+        PAGE_BYTES_PER_CELL +
+        results *
+          (parts * RADAR_PART_BYTES_PER_CELL +
+            partHeights * RADAR_HEIGHT_BYTES_PER_CELL +
+            slices * RADAR_SLICE_BYTES_PER_CELL) +
+        slices * FUSED_SLICE_BYTES_PER_CELL)
   );
-}
-
-/** Bytes per cell of a run of the plan (estimateRunMemoryBytes of one cell). */
-function runBytesPerCellOf(plan: Plan): number {
-  return estimateRunMemoryBytes(runSizeOf(plan, { cellCount: 1 }));
 }
 
 /** Slices of a plan: each class at each of its heights that is an analysis height. */

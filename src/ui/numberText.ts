@@ -1,6 +1,6 @@
 /**
  * Numbers as the panels show them: latitude and longitude with their hemisphere letters, dB figures
- * without a negative zero, and times to the minute in the user's own time zone.
+ * without a negative zero, memory in MiB or GiB, and times to the minute in the user's own time zone.
  */
 
 /** Decimal places of a shown coordinate: 1e-6° is about 0.1 m on the ground. */
@@ -29,4 +29,13 @@ export function formatDb(v: number): string {
 export function formatLocalMinute(at: Date): string {
   const two = (n: number) => String(n).padStart(2, "0");
   return `${at.getFullYear()}-${two(at.getMonth() + 1)}-${two(at.getDate())} ${two(at.getHours())}:${two(at.getMinutes())}`;
+}
+
+const MIB = 1024 ** 2;
+const GIB = 1024 ** 3;
+
+/** "24 MiB" below 1 GiB, "2.73 GiB" from there (binary units, as the memory budget is stated). */
+export function formatMemory(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return "—";
+  return bytes < GIB ? `${Math.round(bytes / MIB)} MiB` : `${(bytes / GIB).toFixed(2)} GiB`;
 }

@@ -23,7 +23,7 @@ import { RadarResultCache } from "../coverage/radarCache";
 import type { Plan } from "../io/planSchema";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
-import { type SiteGrid, siteGridFrame } from "../io/siteGrid";
+import { PREVIEW_MAX_CELLS, type SiteGrid, siteGridFrame } from "../io/siteGrid";
 import { type GapShapesXY, gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planFromWire } from "./planWire";
@@ -54,9 +54,9 @@ const RADAR_CACHE_ENTRIES = 64;
 const RESULTS_PER_POST = 3;
 const SPARE_RESULTS = 2;
 /**
- * Memory is prepared while idle only for grids up to this many cells: the ready copies of the fused
- * slices are outside the run's memory estimate (siteGrid.ts), and on larger grids the faults are a
- * smaller share of a release anyway.
+ * Memory is prepared while idle only for grids up to this many cells: on larger grids the faults are
+ * a smaller share of a release. (The run's memory estimate, siteGrid.ts, counts the ready copies on
+ * every grid.)
  */
 const WARM_MAX_CELLS = 4_000_000;
 /** Pause between two arrays the idle work writes, ms (writeThrough in warmBuffers.ts says why). */
@@ -83,8 +83,6 @@ export class DemMissingError extends Error {
 /** A DEM with its bytes, as a worker holds it. */
 type HeldDem = DemPayload & { bytes: ArrayBuffer };
 
-/** Previews run on at most this many cells: a larger grid is previewed on a coarser one (same extent). */
-export const PREVIEW_MAX_CELLS = 250_000;
 /** Memory the per-radar cache may hold, bytes (entries are sized from the grid). */
 export const RADAR_CACHE_BUDGET_BYTES = 768 * 1024 * 1024;
 /** Bytes one radar's result takes per cell, per height and class (SNR 4, Pd 4, reason 1) besides 4 for the lowest visible height. */

@@ -13,7 +13,7 @@ import { samplePlan } from "./samplePlan";
 describe("analysis panel", () => {
   it("offers the smallest cell size that fits the memory budget and applies it", async () => {
     const plan = samplePlan();
-    // Half-metre cells over the sample site with its class judged at 40 heights do not fit in 2 GiB.
+    // Half-metre cells over the sample site with its class judged at 40 heights do not fit in 4 GiB.
     const heights = Array.from({ length: 40 }, (_, i) => 5 * (i + 1));
     plan.analysis = { ...plan.analysis, cellSizeM: 0.5, targetHeightsM: heights };
     plan.targetClasses = plan.targetClasses.map((t) => ({ ...t, heightsAglM: heights }));
@@ -24,7 +24,10 @@ describe("analysis panel", () => {
     document.body.append(host);
     const root = createRoot(host);
     await act(async () => root.render(<AnalysisPanel />));
-    expect(host.textContent).toMatch(/above the 2\.00 GiB budget/);
+    expect(host.textContent).toMatch(/above the 4\.00 GiB budget/);
+    expect(host.querySelector('[data-testid="run-memory"]')?.textContent).toMatch(
+      /^\d+\.\d\d GiB of 4\.00 GiB$/,
+    );
     // One class judged at all 40 heights: 40 maps, the figure the memory depends on.
     expect(host.querySelector('[data-testid="run-slices"]')?.textContent).toBe(
       String(40 * plan.targetClasses.length),

@@ -1,5 +1,5 @@
 import { describe, expect, it } from "vitest";
-import { formatDb, formatLatLon, formatLocalMinute } from "../../src/ui/numberText";
+import { formatDb, formatLatLon, formatLocalMinute, formatMemory } from "../../src/ui/numberText";
 
 describe("shown numbers", () => {
   it("writes hemispheres as letters, never a minus sign before N or E", () => {
@@ -15,6 +15,14 @@ describe("shown numbers", () => {
     expect(formatDb(Number.NEGATIVE_INFINITY)).toBe("−∞");
     expect(formatDb(Number.NaN)).toBe("—");
   });
+  it("writes memory in MiB below 1 GiB and in GiB with two decimals from there", () => {
+    expect(formatMemory(24.4 * 1024 ** 2)).toBe("24 MiB");
+    expect(formatMemory(1023.6 * 1024 ** 2)).toBe("1024 MiB");
+    expect(formatMemory(1024 ** 3)).toBe("1.00 GiB");
+    expect(formatMemory(2.734 * 1024 ** 3)).toBe("2.73 GiB");
+    expect(formatMemory(Number.NaN)).toBe("—");
+  });
+
   it("writes a time to the minute in the local zone", () => {
     // Built from local fields, so the test holds in every time zone.
     expect(formatLocalMinute(new Date(2026, 11, 3, 7, 5, 59))).toBe("2026-12-03 07:05");

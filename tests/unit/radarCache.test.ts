@@ -128,7 +128,7 @@ describe("radar result cache groups and spares", () => {
     expect(c.takeSpare()).toBeUndefined();
   });
 
-  it("[RC7] a result computed ahead pushes no kept entry out, gives way to the next one of its group, and joins the group when asked for", () => {
+  it("[RC7] a result computed ahead pushes no kept entry out, gives way to the next one (of any group), and joins its group when asked for", () => {
     const c = new RadarResultCache<{ n: number }>(10, { perGroup: 2, spares: 2 });
     const v = [0, 1, 2, 3].map((n) => ({ n }));
     c.set("a0", v[0], "a");
@@ -144,5 +144,11 @@ describe("radar result cache groups and spares", () => {
     expect(c.takeSpare()).toBe(v[0]);
     // Asked for again, it is an ordinary entry.
     expect(c.get("y")).toBe(v[3]);
+    // One result ahead at a time, whichever post: another post's makes the first a spare.
+    const w = [4, 5].map((n) => ({ n }));
+    c.setAhead("p", w[0], "a");
+    c.setAhead("q", w[1], "b");
+    expect([c.has("p"), c.has("q")]).toEqual([false, true]);
+    expect(c.takeSpare()).toBe(w[0]);
   });
 });

@@ -123,14 +123,18 @@ describe("site grid", () => {
     const fixed = siteGridFrame(plan((p) => (p.analysis.cellSizeM = 2.5)));
     expect(fixed.frame.cellSizeM).toBe(2.5);
     expect(fixed.autoCellSize).toBe(false);
-    // The memory budget too: 10 km × 10 km at 5 m is 4 M cells; with one class and 10 radars
-    // (448 bytes a cell, 1.67 GiB) that fits, with two classes (646 bytes, 2.41 GiB) it takes 10 m.
-    expect(autoCellSizeM(10_000, 10_000, 448)).toBe(5);
-    expect(autoCellSizeM(10_000, 10_000, 646)).toBe(10);
+    // The memory budget too: 10 km × 10 km at 5 m is 4 M cells; with one class at 3 heights and 10
+    // radars (2.8 GiB) that fits, with three classes (5.0 GiB) it takes 10 m.
+    const run = (slices: number) => (cells: number) =>
+      estimateRunMemoryBytes({ cells, radars: 10, heights: 3, slices });
+    expect(run(3)(4e6) / 1024 ** 3).toBeCloseTo(2.8, 1);
+    expect(run(9)(4e6) / 1024 ** 3).toBeCloseTo(5.0, 1);
+    expect(autoCellSizeM(10_000, 10_000, run(3))).toBe(5);
+    expect(autoCellSizeM(10_000, 10_000, run(9))).toBe(10);
     // On a plan: enough enabled posts push an automatic grid to the next size, and it then fits.
     const many = plan((p) => {
       p.approachRingDepthM = 4_500;
-      p.posts = Array.from({ length: 12 }, (_, k) => ({ ...p.posts[0], id: `p${k}`, enabled: true }));
+      p.posts = Array.from({ length: 24 }, (_, k) => ({ ...p.posts[0], id: `p${k}`, enabled: true }));
     });
     const at5 = { ...many, analysis: { ...many.analysis, cellSizeM: 5 } };
     // At 5 m the count is under the cap but the run is over the budget.
@@ -195,20 +199,31 @@ describe("site grid", () => {
   });
 
   it("[SG6] the memory estimate follows its formula, and a run above the budget is refused with a clear message", () => {
-    // 10 + radars × (12 + 4·heights + 5·slices) + 16·slices bytes per cell.
+    // cells × (P·(30 + H) + 13 + (R + 5)·(4P + 4·min(HP, H + P − 1) + 5S) + 23S)
+    //   + min(cells, 250 000) × (136 + 13·(R + 4)), P = min(2, S) parts (at least 1).
     const one = (cells: number, radars: number, heights: number) => ({
       cells,
       radars,
       heights,
       slices: heights,
     });
-    expect(estimateRunMemoryBytes(one(1, 0, 0))).toBe(10);
-    expect(estimateRunMemoryBytes(one(1, 1, 1))).toBe(10 + 21 + 16);
-    expect(estimateRunMemoryBytes(one(1000, 10, 3))).toBe(1000 * (10 + 10 * 39 + 48));
+    // No radar: the grid, the page and the preview's own memory.
+    expect(estimateRunMemoryBytes(one(1, 0, 0))).toBe(30 + 13 + 136);
+    // One part (one slice), one radar: 6 results (4 + 4 + 5 bytes) and its preview results.
+    expect(estimateRunMemoryBytes(one(1, 1, 1))).toBe(31 + 13 + 6 * 13 + 23 + (136 + 5 * 13));
+    // Three slices on two parts, which share one height's SNR: 2·33 + 13 + 15·(8 + 16 + 15) + 69.
+    expect(estimateRunMemoryBytes(one(1000, 10, 3))).toBe(
+      1000 * (66 + 13 + 15 * 39 + 69) + 1000 * (136 + 14 * 13),
+    );
     // Two classes at each of three heights: six maps, each with its Pd and reason per radar.
     expect(estimateRunMemoryBytes({ cells: 1000, radars: 10, heights: 3, slices: 6 })).toBe(
-      1000 * (10 + 10 * (12 + 12 + 30) + 96),
+      1000 * (66 + 13 + 15 * (8 + 16 + 30) + 138) + 1000 * (136 + 14 * 13),
     );
+    // Previews of a large grid run on 250 000 cells.
+    expect(
+      estimateRunMemoryBytes({ cells: 1e6, radars: 10, heights: 3, slices: 6 }) -
+        estimateRunMemoryBytes({ cells: 1e6 - 1, radars: 10, heights: 3, slices: 6 }),
+    ).toBe(1027);
     expect(estimateRunMemoryBytes(one(-1, 1, 1))).toBeNaN();
     expect(estimateRunMemoryBytes(one(Number.NaN, 1, 1))).toBeNaN();
     expect(estimateRunMemoryBytes({ cells: 1, radars: 1, heights: 1, slices: -1 })).toBeNaN();
@@ -218,7 +233,7 @@ describe("site grid", () => {
     expect(huge.ok).toBe(false);
     if (!huge.ok) {
       expect(huge.message).toBe(
-        "this run needs about 24.07 GiB (40,000,000 cells, 10 radars, 3 heights, 6 maps of a target class at a height), above the 2.00 GiB budget; use a larger analysis.cellSizeM, fewer target heights or classes, or fewer enabled posts",
+        "this run needs about 38.33 GiB (40,000,000 cells, 10 radars, 3 heights, 6 maps of a target class at a height), above the 4.00 GiB budget; use a larger analysis.cellSizeM, fewer target heights or classes, or fewer enabled posts",
       );
     }
     expect(checkRunMemory(one(100, 300, 1)).ok).toBe(false);
@@ -245,7 +260,7 @@ describe("site grid", () => {
     expect(size.heights).toBe(3);
     // Small drone at 10 and 50 m, fixed wing at 50 and 120 m.
     expect(size.slices).toBe(4);
-    expect(RUN_MEMORY_BUDGET_BYTES).toBe(2 * 1024 ** 3);
+    expect(RUN_MEMORY_BUDGET_BYTES).toBe(4 * 1024 ** 3);
   });
 
   it("[SG6] checkPlanForRun turns grid and memory refusals into named errors", () => {

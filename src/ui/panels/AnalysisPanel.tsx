@@ -7,14 +7,14 @@ import {
   cellSizeToFitM,
   checkRunMemory,
   estimateRunMemoryBytes,
+  RUN_MEMORY_BUDGET_BYTES,
   runSizeOf,
   siteGridFrame,
 } from "../../io/siteGrid";
 import { NumberField, SelectField } from "../components/NumberField";
+import { formatMemory } from "../numberText";
 import { setAnalysisHeights } from "../planEdits";
 import { usePlanStore } from "../store";
-
-const BYTES_PER_MIB = 1024 * 1024;
 
 function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: number[]) => void }) {
   const id = useId();
@@ -159,7 +159,9 @@ export function AnalysisPanel() {
           <dt>Maps (class at a height)</dt>
           <dd data-testid="run-slices">{estimate.size.slices}</dd>
           <dt>Memory needed</dt>
-          <dd>{(estimate.bytes / BYTES_PER_MIB).toFixed(0)} MiB</dd>
+          <dd data-testid="run-memory">
+            {formatMemory(estimate.bytes)} of {formatMemory(RUN_MEMORY_BUDGET_BYTES)}
+          </dd>
           <dt>Frame</dt>
           <dd>
             UTM zone {estimate.g.zone.zone}
