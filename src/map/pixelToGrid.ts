@@ -30,14 +30,15 @@ export function inverseFrom(crs: string): (x: number, y: number) => [number, num
   };
 }
 
-/** Longitude and latitude (degrees) of a global pixel position at zoom z (tile size `tileSizePx`). */
-export function globalPixelToLonLat(
-  px: number,
-  py: number,
-  zoom: number,
-  tileSizePx: number,
-): [number, number] {
-  const worldPx = tileSizePx * 2 ** zoom;
+/**
+ * Leaflet's pixel width of the world at zoom 0 (L.CRS.EPSG3857.scale(0)). It does not change with a
+ * layer's tile size: a 512-px tile at zoom z covers the pixels of four 256-px tiles at z.
+ */
+const WORLD_PX_AT_ZOOM_0 = 256;
+
+/** Longitude and latitude (degrees) of a global pixel position at zoom z (Leaflet's EPSG:3857 pixels). */
+export function globalPixelToLonLat(px: number, py: number, zoom: number): [number, number] {
+  const worldPx = WORLD_PX_AT_ZOOM_0 * 2 ** zoom;
   const lon = (px / worldPx) * 360 - 180;
   const latRad = Math.atan(Math.sinh(Math.PI * (1 - (2 * py) / worldPx)));
   return [lon, radToDeg(latRad)];
@@ -72,7 +73,6 @@ export function tileCellIndices(
         tile.x * n + i * step + 0.5,
         tile.y * n + j * step + 0.5,
         tile.z,
-        n,
       );
       const [x, y] = forward(lon, lat);
       gx[j * nodes + i] = x;

@@ -31,10 +31,10 @@ function tileOf(lon: number, lat: number, z: number) {
 describe("pixel to grid mapping", () => {
   it("inverts the spherical Mercator of Leaflet (EPSG:3857) at tile corners", () => {
     // Tile (0,0) at zoom 0 spans ±180° and ±85.0511° (the Web-Mercator latitude limit, EPSG:3857).
-    const [lonW, latN] = globalPixelToLonLat(0, 0, 0, 256);
+    const [lonW, latN] = globalPixelToLonLat(0, 0, 0);
     expect(lonW).toBe(-180);
     expect(latN).toBeCloseTo(85.0511287798, 8);
-    const [lonC, latC] = globalPixelToLonLat(128, 128, 0, 256);
+    const [lonC, latC] = globalPixelToLonLat(128, 128, 0);
     expect(lonC).toBe(0);
     expect(latC).toBeCloseTo(0, 12);
     // Cross-check with proj4's own EPSG:3857 inverse at an arbitrary pixel.
@@ -46,7 +46,7 @@ describe("pixel to grid mapping", () => {
     const mx = (px / world) * 2 * half - half;
     const my = half - (py / world) * 2 * half;
     const [plon, plat] = proj4("EPSG:3857", "EPSG:4326").forward([mx, my]);
-    const [lon, lat] = globalPixelToLonLat(px, py, z, 256);
+    const [lon, lat] = globalPixelToLonLat(px, py, z);
     expect(lon).toBeCloseTo(plon, 9);
     expect(lat).toBeCloseTo(plat, 9);
   });
@@ -61,7 +61,7 @@ describe("pixel to grid mapping", () => {
       let inside = 0;
       for (let py = 0; py < 256; py++) {
         for (let px = 0; px < 256; px++) {
-          const [lon, lat] = globalPixelToLonLat(t.x * 256 + px + 0.5, t.y * 256 + py + 0.5, z, 256);
+          const [lon, lat] = globalPixelToLonLat(t.x * 256 + px + 0.5, t.y * 256 + py + 0.5, z);
           const exact = lonLatToCellIndex(f, fwd, lon, lat);
           if (exact >= 0) inside++;
           if (exact !== cells[py * 256 + px]) disagree++;
@@ -71,6 +71,32 @@ describe("pixel to grid mapping", () => {
       // The interpolated lattice may only differ where a pixel centre lies within a hair of a cell edge.
       expect(disagree / (256 * 256)).toBeLessThan(1e-3);
     }
+  });
+
+  it("maps a 512-px tile to the cells of the four 256-px tiles that cover the same pixels", () => {
+    const f = frame();
+    const fwd = forwardTo(f.crs);
+    const z = 17;
+    const t = tileOf(15.3, 47.1, z);
+    // Leaflet's 512-px tile (x, y) at zoom z spans pixels [512x, 512x + 512) of the same zoom.
+    const big = { x: t.x >> 1, y: t.y >> 1, z };
+    const cells = tileCellIndices(f, fwd, big, 512);
+    let inside = 0;
+    for (const [dx, dy] of [
+      [0, 0],
+      [1, 0],
+      [0, 1],
+      [1, 1],
+    ]) {
+      const small = tileCellIndices(f, fwd, { x: 2 * big.x + dx, y: 2 * big.y + dy, z }, 256);
+      for (let py = 0; py < 256; py++)
+        for (let px = 0; px < 256; px++) {
+          const c = cells[(dy * 256 + py) * 512 + dx * 256 + px];
+          if (c >= 0) inside++;
+          expect(c).toBe(small[py * 256 + px]);
+        }
+    }
+    expect(inside).toBeGreaterThan(0);
   });
 
   it("marks pixels outside the grid as -1 and keeps grid north up (row 0 at the top)", () => {
