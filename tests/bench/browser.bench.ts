@@ -238,6 +238,24 @@ async function dragOnce(page: Page, postName: string, direction: 1 | -1, traceFi
   };
 }
 
+/**
+ * Share of the coverage layer's tile pixels that are painted (not transparent): the bench times what
+ * lands on the page, and this says the map really drew it.
+ */
+async function paintedShare(page: Page): Promise<number> {
+  return page.evaluate(() => {
+    let painted = 0;
+    let all = 0;
+    for (const c of document.querySelectorAll<HTMLCanvasElement>(".leaflet-picket-coverage-pane canvas")) {
+      const data = c.getContext("2d")?.getImageData(0, 0, c.width, c.height).data;
+      if (!data) continue;
+      for (let i = 3; i < data.length; i += 4) if (data[i] > 0) painted++;
+      all += data.length / 4;
+    }
+    return all > 0 ? painted / all : 0;
+  });
+}
+
 async function main() {
   if (!browserAvailable()) return;
   const dir = mkdtempSync(join(tmpdir(), "picket-bench-"));
@@ -290,6 +308,12 @@ async function main() {
           `    main-thread long tasks during the drag and release: ${over.length} over 50 ms${over.length ? ` (${when.join(", ")} from the release; pointer pressed at ${d.pressedMs.toFixed(0)} ms)` : ""}`,
         );
       }
+      // After the last release's repaints (a few frames).
+      await page.waitForTimeout(500);
+      const share = await paintedShare(page);
+      console.log(
+        `  coverage tiles painted: ${(100 * share).toFixed(1)} % of their pixels${share === 0 ? " — NOTHING DRAWN: the figures above time an empty map" : ""}`,
+      );
     }
   } finally {
     await h.stop();
