@@ -154,10 +154,21 @@ export class RadarResultCache<T> {
   /**
    * Keeps a result computed ahead of need (a release computed while a dragged post rests) apart from
    * the entries, so that positions passed on the way do not push the group's kept results (undo) out;
-   * get() takes it in when asked. The one computed ahead before becomes a spare.
+   * get() takes it in when asked. The one computed ahead before becomes a spare. A result of a group
+   * with no entry yet pushes no kept result of its own out: it becomes an entry at once.
    */
   setAhead(key: string, value: T, group: string): void {
     if (this.entries.has(key)) return;
+    let grouped = false;
+    for (const e of this.entries.values())
+      if (e.group === group) {
+        grouped = true;
+        break;
+      }
+    if (!grouped) {
+      this.set(key, value, group);
+      return;
+    }
     const old = this.ahead;
     if (old !== null && old.value !== value) this.retire(old.value);
     this.ahead = { key, value, group };

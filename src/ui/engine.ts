@@ -271,6 +271,22 @@ export function computeReleaseAhead(dropped: () => Plan | null): void {
   }, RELEASE_AHEAD_AFTER_MS);
 }
 
+/**
+ * After an accurate run has landed, the preview worker computes the drag preview of the plan as it
+ * stands (fast masking, the shown slice) without replying arrays (`cacheOnly`): its radars stay in that
+ * worker's cache and the fusion in its memo, so the first preview of the next drag computes only the
+ * moved radar instead of every radar of the preview grid. After a drag the preview of the drop is
+ * cached already, and this costs next to nothing.
+ */
+function warmPreviews(p: WorkerPool<CoverageApi>, plan: Plan): void {
+  if (p.size < 2) return;
+  const g = ++generation;
+  const req: EvaluateRequest = { ...evaluateRequest(plan, g, true), cacheOnly: true };
+  void withDem(p, PREVIEW_SLOT, (dem) =>
+    p.run(evaluateChannel(PREVIEW_SLOT), g, "evaluate", [{ ...req, dem }], { slot: PREVIEW_SLOT }),
+  ).catch(() => undefined);
+}
+
 function cancelReleaseAhead(): void {
   if (releaseAhead) clearTimeout(releaseAhead);
   releaseAhead = null;
@@ -337,6 +353,7 @@ export async function runEvaluation(options: { preview?: boolean; plan?: Plan } 
       .set({ view: mergePartViews(parts), preview: null, running: false, progress: null, problem: null });
     // Every part has landed: the workers may prepare memory for the next release.
     p.notifyAll((api) => api.settled());
+    warmPreviews(p, plan);
   } catch (e) {
     if (isStale(e)) return;
     useCoverage.getState().set({ running: false, progress: null, problem: errorText(e) });

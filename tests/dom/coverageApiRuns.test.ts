@@ -247,6 +247,31 @@ describe("coverage API runs", () => {
     expect(Array.from(slice.gap)).toEqual(Array.from(want.gap));
   });
 
+  it("a preview of the plan as it stands, computed without replying arrays, leaves the first preview of a drag only the moved radar", async () => {
+    const plan = demoPlan();
+    const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };
+    const ask = { maskMode: "fast" as const, focus, skipLowest: true };
+    const enabled = plan.posts.filter((p) => p.enabled).length;
+    // Without it, the first preview computes every radar in fast masking.
+    const cold = createCoverageApi();
+    await cold.evaluate(request(plan));
+    const first = await cold.evaluate(request(moved(plan, 1).plan, ask));
+    expect(first.computedRadarIds).toHaveLength(enabled);
+    // As the page asks once an accurate run has landed (engine.ts warmPreviews).
+    const api = createCoverageApi();
+    await api.evaluate(request(plan));
+    const warmed = await api.evaluate(request(plan, { ...ask, cacheOnly: true }));
+    expect(warmed.computedRadarIds).toHaveLength(enabled);
+    expect(warmed.slices).toEqual([]);
+    const next = await api.evaluate(request(moved(plan, 1).plan, ask));
+    expect(next.computedRadarIds).toEqual([moved(plan, 1).postId]);
+    const a = sliceOf(next, focus.classId, focus.heightM);
+    const b = sliceOf(first, focus.classId, focus.heightM);
+    expect(a.metrics).toEqual(b.metrics);
+    expect(Array.from(a.combinedPd)).toEqual(Array.from(b.combinedPd));
+    expect(Array.from(a.gap)).toEqual(Array.from(b.gap));
+  });
+
   it("a post moved again and again writes into results that left the cache, with the figures of a fresh run", async () => {
     const plan = demoPlan();
     const focus = { classId: plan.targetClasses[0].id, heightM: plan.analysis.targetHeightsM[1] };

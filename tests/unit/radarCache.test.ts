@@ -145,10 +145,15 @@ describe("radar result cache groups and spares", () => {
     // Asked for again, it is an ordinary entry.
     expect(c.get("y")).toBe(v[3]);
     // One result ahead at a time, whichever post: another post's makes the first a spare.
-    const w = [4, 5].map((n) => ({ n }));
+    const w = [4, 5, 6, 7].map((n) => ({ n }));
+    c.set("b0", w[3], "b");
     c.setAhead("p", w[0], "a");
     c.setAhead("q", w[1], "b");
     expect([c.has("p"), c.has("q")]).toEqual([false, true]);
     expect(c.takeSpare()).toBe(w[0]);
+    // A post with no kept result yet (a cold cache): its result is an entry at once, not held apart.
+    c.setAhead("r", w[2], "c");
+    c.setAhead("q2", w[0], "b");
+    expect([c.has("r"), c.has("q"), c.has("q2")]).toEqual([true, false, true]);
   });
 });
