@@ -61,11 +61,17 @@ export const MAX_RADARS_PER_RUN = 254;
 // Bytes per cell as the planner stores a run (Float32 = 4 bytes, Uint8 = 1, Int16 = 2), measured
 // against the engine in tests/unit/runMemory.test.ts.
 /**
- * Parts an accurate run is split into, one per worker (the planner's engine.ts, ACCURATE_PARTS),
- * when it has at least as many slices: each part keeps its own copy of the site and of what its
- * slices share.
+ * Parts an accurate run is split into, one per worker (the planner's engine.ts), when it has at least
+ * as many slices: each part keeps its own copy of the site and of what its slices share.
  */
 export const RUN_PARTS = 2;
+/**
+ * Results a worker keeps per post and mask mode (coverageApi.ts): the newest and two earlier states,
+ * so undo and redo of a post's last two moves cost nothing.
+ */
+export const KEPT_RESULTS_PER_POST = 3;
+/** Results that left a worker's cache, kept so that the next radar computed writes into their memory. */
+export const SPARE_RADAR_RESULTS = 2;
 /**
  * Per worker: ground, obstruction surface and obstruction top f32, protected-area and ring masks u8,
  * the horizon sweep's slope and obstacle distance f32 (reused from radar to radar), the merged lowest
@@ -91,11 +97,17 @@ export const RADAR_SLICE_BYTES_PER_CELL = 4 + 1;
  * dragged post rests (coverageApi.ts). On smaller grids a worker may keep more earlier results, within
  * its cache budget (coverageApi.ts RADAR_CACHE_BUDGET_BYTES).
  */
-export const EXTRA_RADAR_RESULTS = 2 + 2 + 1;
+export const EXTRA_RADAR_RESULTS = KEPT_RESULTS_PER_POST - 1 + SPARE_RADAR_RESULTS + 1;
+/**
+ * Per slice: the fusion memo's combined Pd f32 and overlap, best radar and gap u8; the copies a view
+ * takes to the page (combined Pd f32, overlap and gap u8) and as many made ready for the next run;
+ * the page's Pd f32 of the one radar shown.
+ */
+export const FUSED_SLICE_BYTES_PER_CELL = 4 + 3 + 2 * (4 + 2) + 4;
 /** Drag previews run on at most this many cells: a larger grid is previewed on a coarser one (same extent). */
 export const PREVIEW_MAX_CELLS = 250_000;
 /** Results the preview worker keeps beside one per radar: a moved post's two earlier places and two spares. */
-export const EXTRA_PREVIEW_RESULTS = 2 + 2;
+export const EXTRA_PREVIEW_RESULTS = KEPT_RESULTS_PER_POST - 1 + SPARE_RADAR_RESULTS;
 /**
  * Per preview cell, besides its radar results (each lowest visible height, SNR and Pd f32 and a
  * reason u8 of the one slice shown): the preview worker's own site and sweep (WORKER_BYTES_PER_CELL
@@ -104,15 +116,14 @@ export const EXTRA_PREVIEW_RESULTS = 2 + 2;
  * back to the worker for the next ones (at most eight of each kind, f32 and u8: previewMemory.ts,
  * warmBuffers.ts).
  */
-export const PREVIEW_BYTES_PER_CELL = 30 + 1 + 23 + 3 * (3 * 4 + 2) + 8 * (4 + 1);
+export const PREVIEW_BYTES_PER_CELL =
+  WORKER_BYTES_PER_CELL +
+  WORKER_HEIGHT_BYTES_PER_CELL +
+  FUSED_SLICE_BYTES_PER_CELL +
+  3 * (3 * 4 + 2) +
+  8 * (4 + 1);
 /** Per preview cell and radar result: lowest visible height, SNR and Pd f32, reason u8. */
 export const PREVIEW_RESULT_BYTES_PER_CELL = 3 * 4 + 1;
-/**
- * Per slice: the fusion memo's combined Pd f32 and overlap, best radar and gap u8; the copies a view
- * takes to the page (combined Pd f32, overlap and gap u8) and as many made ready for the next run;
- * the page's Pd f32 of the one radar shown.
- */
-export const FUSED_SLICE_BYTES_PER_CELL = 4 + 3 + 2 * (4 + 2) + 4;
 
 /** Thrown by siteGridFrame for a site the grid cannot hold; `name` is stable for the worker boundary. */
 export class SiteGridError extends Error {

@@ -9,6 +9,7 @@
 
 import * as Comlink from "comlink";
 import type { Plan } from "../io/planSchema";
+import { RUN_PARTS } from "../io/siteGrid";
 import { planToWire } from "../workers/planWire";
 import { defaultPoolSize, isStale, WorkerPool } from "../workers/pool";
 import type {
@@ -90,8 +91,8 @@ function terrainBuffers(): ArrayBufferLike[] {
 
 const EVAL_SLOT = 0;
 const PREVIEW_SLOT = 1;
-/** An accurate run is split over at most this many workers (one part each). */
-const ACCURATE_PARTS = 2;
+/** An accurate run is split over at most this many workers (one part each; the memory estimate counts them). */
+const ACCURATE_PARTS = RUN_PARTS;
 const POINT_SLOT = -1;
 
 /** The pool channel of a worker's evaluations: a newer one there supersedes an older one. */

@@ -23,7 +23,13 @@ import { RadarResultCache } from "../coverage/radarCache";
 import type { Plan } from "../io/planSchema";
 import { parsePlan } from "../io/planValidation";
 import { preparePlan } from "../io/preparePlan";
-import { PREVIEW_MAX_CELLS, type SiteGrid, siteGridFrame } from "../io/siteGrid";
+import {
+  KEPT_RESULTS_PER_POST,
+  PREVIEW_MAX_CELLS,
+  type SiteGrid,
+  SPARE_RADAR_RESULTS,
+  siteGridFrame,
+} from "../io/siteGrid";
 import { type GapShapesXY, gapShapesXY } from "./gapContours";
 import { azimuthAndDistanceXY } from "./geometry";
 import { planFromWire } from "./planWire";
@@ -47,12 +53,12 @@ import { newBuffer, WarmBuffers, writeThrough } from "./warmBuffers";
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
 const RADAR_CACHE_ENTRIES = 64;
 /**
- * Results kept per post and mask mode: the newest and two earlier states, so undo and redo of a
- * post's last two moves cost nothing; older results leave the cache and their arrays are written over
- * by the next radar computed (two kept as spares), which saves faulting in new memory on each release.
+ * Results kept per post and mask mode (siteGrid.ts, where the run's memory estimate counts them): the
+ * newest and two earlier states; older results leave the cache and their arrays are written over by
+ * the next radar computed (two kept as spares), which saves faulting in new memory on each release.
  */
-const RESULTS_PER_POST = 3;
-const SPARE_RESULTS = 2;
+const RESULTS_PER_POST = KEPT_RESULTS_PER_POST;
+const SPARE_RESULTS = SPARE_RADAR_RESULTS;
 /**
  * Memory is prepared while idle only for grids up to this many cells: on larger grids the faults are
  * a smaller share of a release. (The run's memory estimate, siteGrid.ts, counts the ready copies on
