@@ -159,13 +159,7 @@ export class RadarResultCache<T> {
    */
   setAhead(key: string, value: T, group: string): void {
     if (this.entries.has(key)) return;
-    let grouped = false;
-    for (const e of this.entries.values())
-      if (e.group === group) {
-        grouped = true;
-        break;
-      }
-    if (!grouped) {
+    if (this.inGroup(group) === 0) {
       this.set(key, value, group);
       return;
     }
@@ -185,8 +179,7 @@ export class RadarResultCache<T> {
     this.entries.set(key, { value, group });
     const perGroup = this.options.perGroup;
     if (group !== undefined && perGroup !== undefined) {
-      let inGroup = 0;
-      for (const e of this.entries.values()) if (e.group === group) inGroup++;
+      let inGroup = this.inGroup(group);
       // Oldest first: the map keeps insertion (use) order.
       for (const [k, e] of this.entries) {
         if (inGroup <= perGroup) break;
@@ -201,6 +194,13 @@ export class RadarResultCache<T> {
       this.entries.delete(oldest);
       this.retire(e.value);
     }
+  }
+
+  /** Entries of `group`. */
+  private inGroup(group: string): number {
+    let n = 0;
+    for (const e of this.entries.values()) if (e.group === group) n++;
+    return n;
   }
 
   /**

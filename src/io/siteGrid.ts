@@ -395,8 +395,10 @@ export function runSizeOf(plan: Plan, grid: Pick<SiteGrid, "cellCount">): RunSiz
   };
 }
 
-function gib(bytes: number): string {
-  return `${(bytes / 1024 ** 3).toFixed(2)} GiB`;
+/** "24 MiB" below 1 GiB, "2.73 GiB" from there (binary units, as the memory budget is stated). */
+export function formatMemory(bytes: number): string {
+  if (!Number.isFinite(bytes) || bytes < 0) return "—";
+  return bytes < 1024 ** 3 ? `${Math.round(bytes / 1024 ** 2)} MiB` : `${(bytes / 1024 ** 3).toFixed(2)} GiB`;
 }
 
 export type RunMemoryCheck = { ok: true; bytes: number } | { ok: false; bytes: number; message: string };
@@ -418,7 +420,7 @@ export function checkRunMemory(size: RunSize, budgetBytes: number = RUN_MEMORY_B
     return {
       ok: false,
       bytes,
-      message: `this run needs about ${gib(bytes)} (${size.cells.toLocaleString("en-US")} cells, ${size.radars} radars, ${size.heights} heights, ${size.slices} maps of a target class at a height), above the ${gib(budgetBytes)} budget; use a larger analysis.cellSizeM, fewer target heights or classes, or fewer enabled posts`,
+      message: `this run needs about ${formatMemory(bytes)} (${size.cells.toLocaleString("en-US")} cells, ${size.radars} radars, ${size.heights} heights, ${size.slices} maps of a target class at a height), above the ${formatMemory(budgetBytes)} budget; use a larger analysis.cellSizeM, fewer target heights or classes, or fewer enabled posts`,
     };
   }
   return { ok: true, bytes };

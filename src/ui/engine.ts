@@ -263,13 +263,19 @@ export function computeReleaseAhead(dropped: () => Plan | null): void {
     // preview too long, so there only part 0 (on worker 0, idle during a drag) goes ahead.
     const f = useCoverage.getState().view?.frame;
     const parts = f && f.width * f.height > AHEAD_ON_PREVIEW_WORKER_MAX_CELLS ? 1 : count;
-    for (let k = 0; k < parts; k++) {
-      const part: EvaluateRequest = { ...partOf(req, k, count), cacheOnly: true };
-      void withDem(p, k, (dem) =>
-        p.run(evaluateChannel(k), g, "evaluate", [{ ...part, dem }], { slot: k }),
-      ).catch(() => undefined);
-    }
+    for (let k = 0; k < parts; k++) sendCacheOnly(p, k, partOf(req, k, count));
   }, RELEASE_AHEAD_AFTER_MS);
+}
+
+/**
+ * Sends `req` as a `cacheOnly` run to the worker of `slot`: it computes and keeps (cache, fusion memo);
+ * its reply, without arrays, and any failure (a newer run superseding it) are dropped.
+ */
+function sendCacheOnly(p: WorkerPool<CoverageApi>, slot: number, req: EvaluateRequest): void {
+  const run: EvaluateRequest = { ...req, cacheOnly: true };
+  void withDem(p, slot, (dem) =>
+    p.run(evaluateChannel(slot), run.generation, "evaluate", [{ ...run, dem }], { slot }),
+  ).catch(() => undefined);
 }
 
 /**
@@ -281,11 +287,7 @@ export function computeReleaseAhead(dropped: () => Plan | null): void {
  */
 function warmPreviews(p: WorkerPool<CoverageApi>, plan: Plan): void {
   if (p.size < 2) return;
-  const g = ++generation;
-  const req: EvaluateRequest = { ...evaluateRequest(plan, g, true), cacheOnly: true };
-  void withDem(p, PREVIEW_SLOT, (dem) =>
-    p.run(evaluateChannel(PREVIEW_SLOT), g, "evaluate", [{ ...req, dem }], { slot: PREVIEW_SLOT }),
-  ).catch(() => undefined);
+  sendCacheOnly(p, PREVIEW_SLOT, evaluateRequest(plan, ++generation, true));
 }
 
 function cancelReleaseAhead(): void {

@@ -31,11 +31,5 @@ export function formatLocalMinute(at: Date): string {
   return `${at.getFullYear()}-${two(at.getMonth() + 1)}-${two(at.getDate())} ${two(at.getHours())}:${two(at.getMinutes())}`;
 }
 
-const MIB = 1024 ** 2;
-const GIB = 1024 ** 3;
-
-/** "24 MiB" below 1 GiB, "2.73 GiB" from there (binary units, as the memory budget is stated). */
-export function formatMemory(bytes: number): string {
-  if (!Number.isFinite(bytes) || bytes < 0) return "—";
-  return bytes < GIB ? `${Math.round(bytes / MIB)} MiB` : `${(bytes / GIB).toFixed(2)} GiB`;
-}
+/** Memory as the run size and its refusal state it (siteGrid.ts). */
+export { formatMemory } from "../io/siteGrid";

@@ -26,6 +26,9 @@ import { preparePlan } from "../io/preparePlan";
 import {
   KEPT_RESULTS_PER_POST,
   PREVIEW_MAX_CELLS,
+  RADAR_HEIGHT_BYTES_PER_CELL,
+  RADAR_PART_BYTES_PER_CELL,
+  RADAR_SLICE_BYTES_PER_CELL,
   type SiteGrid,
   SPARE_RADAR_RESULTS,
   siteGridFrame,
@@ -53,13 +56,6 @@ import { newBuffer, WarmBuffers, writeThrough } from "./warmBuffers";
 /** Per-radar results kept (two mask modes × a few edits of each radar). */
 const RADAR_CACHE_ENTRIES = 64;
 /**
- * Results kept per post and mask mode (siteGrid.ts, where the run's memory estimate counts them): the
- * newest and two earlier states; older results leave the cache and their arrays are written over by
- * the next radar computed (two kept as spares), which saves faulting in new memory on each release.
- */
-const RESULTS_PER_POST = KEPT_RESULTS_PER_POST;
-const SPARE_RESULTS = SPARE_RADAR_RESULTS;
-/**
  * Memory is prepared while idle only for grids up to this many cells: on larger grids the faults are
  * a smaller share of a release. (The run's memory estimate, siteGrid.ts, counts the ready copies on
  * every grid.)
@@ -69,7 +65,13 @@ const WARM_MAX_CELLS = 4_000_000;
 const IDLE_PAUSE_MS = 25;
 
 function newCache(entries: number): RadarResultCache<RadarCoverage> {
-  return new RadarResultCache<RadarCoverage>(entries, { perGroup: RESULTS_PER_POST, spares: SPARE_RESULTS });
+  // Per post and mask mode the newest and two earlier results (siteGrid.ts, where the run's memory
+  // estimate counts them); older ones leave the cache and their arrays are written over by the next
+  // radar computed (two kept as spares), which saves faulting in new memory on each release.
+  return new RadarResultCache<RadarCoverage>(entries, {
+    perGroup: KEPT_RESULTS_PER_POST,
+    spares: SPARE_RADAR_RESULTS,
+  });
 }
 
 function now(): number {
@@ -91,8 +93,6 @@ type HeldDem = DemPayload & { bytes: ArrayBuffer };
 
 /** Memory the per-radar cache may hold, bytes (entries are sized from the grid). */
 export const RADAR_CACHE_BUDGET_BYTES = 768 * 1024 * 1024;
-/** Bytes one radar's result takes per cell, per height and class (SNR 4, Pd 4, reason 1) besides 4 for the lowest visible height. */
-const RADAR_RESULT_BYTES = { perCell: 4, perHeight: 4, perHeightClass: 5 };
 
 interface PreparedSlot {
   key: string;
@@ -120,11 +120,11 @@ function cacheEntriesFor(site: PreparedSite): number {
   const h = site.heightsAglM.length;
   const perEntry =
     cells *
-    (RADAR_RESULT_BYTES.perCell +
-      h * (RADAR_RESULT_BYTES.perHeight + site.targets.length * RADAR_RESULT_BYTES.perHeightClass));
+    (RADAR_PART_BYTES_PER_CELL +
+      h * (RADAR_HEIGHT_BYTES_PER_CELL + site.targets.length * RADAR_SLICE_BYTES_PER_CELL));
   // The spares (results that left the cache, one prepared while idle) share the budget.
-  const fit = Math.floor(RADAR_CACHE_BUDGET_BYTES / Math.max(1, perEntry)) - SPARE_RESULTS;
-  return Math.max(site.radars.length + 2, Math.min(RADAR_CACHE_ENTRIES, fit));
+  const fit = Math.floor(RADAR_CACHE_BUDGET_BYTES / Math.max(1, perEntry)) - SPARE_RADAR_RESULTS;
+  return Math.max(site.radars.length + KEPT_RESULTS_PER_POST - 1, Math.min(RADAR_CACHE_ENTRIES, fit));
 }
 
 /** Gap shapes with their own ring arrays. */

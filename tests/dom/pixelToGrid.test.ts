@@ -82,12 +82,10 @@ describe("pixel to grid mapping", () => {
     const big = { x: t.x >> 1, y: t.y >> 1, z };
     const cells = tileCellIndices(f, fwd, big, 512);
     let inside = 0;
-    for (const [dx, dy] of [
-      [0, 0],
-      [1, 0],
-      [0, 1],
-      [1, 1],
-    ]) {
+    // The four quadrants of the big tile: (dx, dy) = (0, 0), (1, 0), (0, 1), (1, 1).
+    for (let q = 0; q < 4; q++) {
+      const dx = q & 1;
+      const dy = q >> 1;
       const small = tileCellIndices(f, fwd, { x: 2 * big.x + dx, y: 2 * big.y + dy, z }, 256);
       for (let py = 0; py < 256; py++)
         for (let px = 0; px < 256; px++) {
