@@ -4,7 +4,11 @@
  * machine-readable result. Bad input exits with status 2 and a message that names the flag.
  */
 import { Command } from "commander";
-import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../coverage/constants.ts";
+import {
+  DEFAULT_EFFECTIVE_EARTH_FACTOR,
+  MAX_EFFECTIVE_EARTH_FACTOR,
+  MIN_EFFECTIVE_EARTH_FACTOR,
+} from "../coverage/constants.ts";
 import type { SwerlingCase } from "../coverage/detection.ts";
 import type { RadarModel } from "../coverage/radarModel.ts";
 import { loadRadarModelFile } from "../io/radarFile.ts";
@@ -100,9 +104,8 @@ export function buildCalcProgram(): Command {
       const mastM = parseNumber("--mast-m", o.mastM, { min: 0, max: 300, unit: "m" });
       const targetM = parseNumber("--target-m", o.targetM, { min: 0, max: 30_000, unit: "m" });
       const k = parseNumber("--k", o.k ?? String(DEFAULT_EFFECTIVE_EARTH_FACTOR), {
-        min: 0,
-        minExclusive: true,
-        max: 100,
+        min: MIN_EFFECTIVE_EARTH_FACTOR,
+        max: MAX_EFFECTIVE_EARTH_FACTOR,
       });
       print(horizonCommand({ mastM, targetM, k }), o.json === true);
     });

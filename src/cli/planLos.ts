@@ -5,10 +5,14 @@
 import { basename } from "node:path";
 import { fromArrayBuffer } from "geotiff";
 import proj4 from "proj4";
-import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../coverage/constants.ts";
+import {
+  DEFAULT_EFFECTIVE_EARTH_FACTOR,
+  MAX_EFFECTIVE_EARTH_FACTOR,
+  MIN_EFFECTIVE_EARTH_FACTOR,
+} from "../coverage/constants.ts";
 import type { Grid } from "../coverage/grid.ts";
 import { computeHorizon, lowestVisibleHeightAglM, visibleMask } from "../coverage/terrainMask.ts";
-import { crsFromEpsg, readGeoTiffDem } from "../io/demGeotiff.ts";
+import { crsFromEpsg, geoKeysOf, geotransformOf, readGeoTiffDem } from "../io/demGeotiff.ts";
 import { encodeGeoTiff } from "../io/exportGeoTiff.ts";
 import { isImportError } from "../io/importErrors.ts";
 import { type Opts, parseLatLon, parseMaskMode, parseNumber, UsageError } from "./args.ts";
@@ -17,36 +21,38 @@ import { readBinaryFile, writeOutputFile } from "./cliFiles.ts";
 /** The DEM's own grid (north-up, square cells, projected CRS) and its values. */
 async function demOnOwnGrid(path: string): Promise<{ grid: Grid; epsg: number }> {
   const buffer = readBinaryFile("--dem", path);
+  const file = basename(path);
   let image: Awaited<ReturnType<Awaited<ReturnType<typeof fromArrayBuffer>>["getImage"]>>;
   try {
     image = await (await fromArrayBuffer(buffer)).getImage(0);
   } catch (e) {
     throw new UsageError("--dem", `${path} is not a readable GeoTIFF (${(e as Error).message})`);
   }
-  const keys = image.getGeoKeys() ?? {};
-  const epsg = Number(keys.ProjectedCSTypeGeoKey);
-  const crs = Number.isInteger(epsg) ? crsFromEpsg(epsg) : undefined;
-  if (crs === undefined || crs.includes("longlat")) {
-    throw new UsageError(
-      "--dem",
-      `${path} must be in a projected CRS in metres with an EPSG code (ProjectedCSTypeGeoKey); los works on the DEM's own grid`,
-    );
-  }
-  const [resX, resY] = image.getResolution();
-  if (!(Math.abs(Math.abs(resX) - Math.abs(resY)) < 1e-6 * Math.abs(resX)) || !(resY < 0)) {
-    throw new UsageError("--dem", `${path} must be north-up with square cells (has ${resX} × ${resY})`);
-  }
-  const [originX, originY] = image.getOrigin();
-  const frame = {
-    width: image.getWidth(),
-    height: image.getHeight(),
-    originX,
-    originY,
-    cellSizeM: resX,
-    crs,
-  };
   try {
-    const dem = await readGeoTiffDem(buffer, frame, { fileName: basename(path) });
+    const epsg = Number(geoKeysOf(image, file)?.ProjectedCSTypeGeoKey);
+    const crs = Number.isInteger(epsg) ? crsFromEpsg(epsg) : undefined;
+    if (crs === undefined || crs.includes("longlat")) {
+      throw new UsageError(
+        "--dem",
+        `${path} must be in a projected CRS in metres with an EPSG code (ProjectedCSTypeGeoKey); los works on the DEM's own grid`,
+      );
+    }
+    const gt = geotransformOf(image, file);
+    if (!(Math.abs(gt.pixelSizeX - gt.pixelSizeY) < 1e-6 * gt.pixelSizeX)) {
+      throw new UsageError(
+        "--dem",
+        `${path} must have square cells (has ${gt.pixelSizeX} × ${gt.pixelSizeY})`,
+      );
+    }
+    const frame = {
+      width: image.getWidth(),
+      height: image.getHeight(),
+      originX: gt.originX,
+      originY: gt.originY,
+      cellSizeM: gt.pixelSizeX,
+      crs,
+    };
+    const dem = await readGeoTiffDem(buffer, frame, { fileName: file });
     return { grid: dem.ground, epsg };
   } catch (e) {
     if (isImportError(e)) throw new UsageError("--dem", (e as Error).message);
@@ -67,9 +73,8 @@ export async function losCommand(o: Opts): Promise<void> {
       ? undefined
       : parseNumber("--target-m", o.targetM, { min: 0, max: 30_000, unit: "m" });
   const k = parseNumber("--k", o.k ?? String(DEFAULT_EFFECTIVE_EARTH_FACTOR), {
-    min: 0,
-    minExclusive: true,
-    max: 1e6,
+    min: MIN_EFFECTIVE_EARTH_FACTOR,
+    max: MAX_EFFECTIVE_EARTH_FACTOR,
   });
   const mode = parseMaskMode(o.mode, "accurate");
   const { grid, epsg } = await demOnOwnGrid(o.dem);

@@ -13,7 +13,7 @@ import { isImportError } from "../io/importErrors.ts";
 import type { Plan } from "../io/planSchema.ts";
 import { formatPlanErrors, loadPlanFile } from "../io/planValidation.ts";
 import { type LoadedDem, PrepareError, preparePlan } from "../io/preparePlan.ts";
-import type { SiteGrid } from "../io/siteGrid.ts";
+import { type SiteGrid, SiteGridError } from "../io/siteGrid.ts";
 import { type Opts, parseLatLon, parseMaskMode, parseNumber, RunError, UsageError } from "./args.ts";
 import { ensureOutputDir, readBinaryFile, readTextFile, writeOutputFile } from "./cliFiles.ts";
 
@@ -53,9 +53,9 @@ async function prepare(planPath: string): Promise<{ plan: Plan; site: PreparedSi
     const { site, grid } = await preparePlan(plan, loadDem(plan, planPath));
     return { plan, site, grid };
   } catch (e) {
-    if (e instanceof PrepareError || isImportError(e) || (e as Error).name === "SiteGridError") {
+    if (e instanceof SiteGridError) throw new RunError(`${planPath}: ${e.path}: ${e.message}`);
+    if (e instanceof PrepareError || isImportError(e))
       throw new RunError(`${planPath}: ${(e as Error).message}`);
-    }
     throw e;
   }
 }

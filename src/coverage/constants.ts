@@ -21,6 +21,22 @@ export const EARTH_RADIUS_M = 6_371_000;
 /** Default effective-Earth-radius factor k for radio paths in a standard atmosphere (ITU-R P.453; common practice 4/3). */
 export const DEFAULT_EFFECTIVE_EARTH_FACTOR = 4 / 3;
 
+/**
+ * Range of k a plan or a command accepts. Below about 0.5 (strong sub-refraction, rare) the
+ * effective Earth is too small for the model's flat-ground approximations; above 1000 the Earth is
+ * flat to within millimetres over a site, so larger values only hide typing errors.
+ */
+export const MIN_EFFECTIVE_EARTH_FACTOR = 0.5;
+export const MAX_EFFECTIVE_EARTH_FACTOR = 1000;
+
+/**
+ * Elevations a DEM sample may hold, m. Earth's surface spans about −10 935 m (Challenger Deep) to
+ * 8 849 m (Everest) (from memory); a sample outside −11 000…9 000 m, or ±∞, is a damaged file or a
+ * wrong sample format, and is read as nodata.
+ */
+export const MIN_ELEVATION_M = -11_000;
+export const MAX_ELEVATION_M = 9_000;
+
 /** Metres per building level when only `building:levels` is known (common practice, from memory: 3 m). */
 export const DEFAULT_METRES_PER_LEVEL = 3;
 

@@ -74,6 +74,9 @@ export function readAscDem(
     if (rawValue === undefined || !Number.isFinite(value)) {
       throw new ImportError(file, `"${rawValue ?? ""}" is not a number (header line ${lineNo})`, rawKey);
     }
+    if (header.has(key)) {
+      throw new ImportError(file, `given twice (header line ${lineNo}): which one holds is unclear`, rawKey);
+    }
     header.set(key, value);
     pos = end;
   }
@@ -97,7 +100,7 @@ export function readAscDem(
       file,
       `${ncols} × ${nrows} = ${ncols * nrows} cells is above the ${MAX_DEM_WINDOW_CELLS} an ASCII grid may hold ` +
         "(it is read whole); cut it to the site or convert it to a tiled GeoTIFF",
-      "ncols",
+      nrows > ncols ? "nrows" : "ncols",
     );
   }
   let dx: number;

@@ -25,7 +25,7 @@ import {
   type SurfaceKind,
 } from "./demResample.ts";
 import { readBand1Window } from "./geotiffBand.ts";
-import { ImportError } from "./importErrors.ts";
+import { ImportError, isImportError } from "./importErrors.ts";
 
 /** Options for reading a GeoTIFF DEM. */
 export interface GeoTiffDemOptions {
@@ -36,6 +36,9 @@ export interface GeoTiffDemOptions {
   /** Bare earth or surface model, if the user knows. */
   surfaceKind?: SurfaceKind;
 }
+
+/** The file name in messages when the caller gives none. */
+const DEFAULT_FILE_NAME = "DEM GeoTIFF";
 
 // GeoTIFF 1.1 (OGC 19-008r4) key values used below.
 const MODEL_TYPE_PROJECTED = 1;
@@ -76,9 +79,31 @@ function parsesInProj4(crs: string): boolean {
   }
 }
 
+/** The text of a GeoKey's value for a message ("missing" when absent or empty). */
+function keyText(value: unknown): string {
+  return value === undefined || value === null || value === "" ? "missing" : String(value);
+}
+
+/** What a thrown value says, for a message (geotiff.js sometimes throws values without a message). */
+function errorText(e: unknown): string {
+  return e instanceof Error && e.message !== "" ? e.message : String(e);
+}
+
+/**
+ * The image's GeoKeys, or null when it has none. A GeoKeyDirectory whose keys point at a params tag
+ * the file lacks (GeoAsciiParams, GeoDoubleParams) is a damaged file: ImportError naming the directory.
+ */
+export function geoKeysOf(image: GeoTIFFImage, file: string): Record<string, unknown> | null {
+  try {
+    return image.getGeoKeys() ?? null;
+  } catch (e) {
+    throw new ImportError(file, `damaged GeoKeys (${errorText(e)})`, "GeoKeyDirectory");
+  }
+}
+
 /** The CRS of an image from its GeoKeys, or an ImportError naming the key and the code. */
 function crsOfImage(image: GeoTIFFImage, file: string): string {
-  const keys = image.getGeoKeys();
+  const keys = geoKeysOf(image, file);
   if (!keys) throw new ImportError(file, "no GeoKeys: the TIFF is not georeferenced", "GeoKeyDirectory");
   const modelType = Number(keys.GTModelTypeGeoKey);
   const projected = Number(keys.ProjectedCSTypeGeoKey);
@@ -95,7 +120,7 @@ function crsOfImage(image: GeoTIFFImage, file: string): string {
   } else {
     throw new ImportError(
       file,
-      `model type ${keys.GTModelTypeGeoKey ?? "missing"} is neither projected (1) nor geographic (2)`,
+      `model type ${keyText(keys.GTModelTypeGeoKey)} is neither projected (1) nor geographic (2)`,
       "GTModelTypeGeoKey",
     );
   }
@@ -121,7 +146,7 @@ function crsOfImage(image: GeoTIFFImage, file: string): string {
 
 /** Factor from the file's vertical unit to metres (VerticalUnitsGeoKey), with a warning if unknown. */
 function verticalScale(image: GeoTIFFImage, file: string, warnings: string[]): number {
-  const unit = Number(image.getGeoKeys()?.VerticalUnitsGeoKey);
+  const unit = Number(geoKeysOf(image, file)?.VerticalUnitsGeoKey);
   if (!Number.isFinite(unit) || unit === EPSG_UNIT_METRE) return 1;
   if (unit === EPSG_UNIT_FOOT) return FOOT_M;
   if (unit === EPSG_UNIT_US_SURVEY_FOOT) return US_SURVEY_FOOT_M;
@@ -129,8 +154,11 @@ function verticalScale(image: GeoTIFFImage, file: string, warnings: string[]): n
   return 1;
 }
 
-/** Georeferencing of a north-up image: pixel-edge origin and pixel sizes in CRS units. */
-function geotransformOf(
+/**
+ * Georeferencing of a north-up image: pixel-edge origin and pixel sizes in CRS units (both sizes
+ * positive; y runs south). ImportError naming the tag for none, a rotated one, or a degenerate one.
+ */
+export function geotransformOf(
   image: GeoTIFFImage,
   file: string,
 ): { originX: number; originY: number; pixelSizeX: number; pixelSizeY: number } {
@@ -175,7 +203,7 @@ function geotransformOf(
       "ModelPixelScale",
     );
   }
-  const rasterType = Number(image.getGeoKeys()?.GTRasterTypeGeoKey);
+  const rasterType = Number(geoKeysOf(image, file)?.GTRasterTypeGeoKey);
   if (rasterType === RASTER_PIXEL_IS_POINT) {
     // The tie point names a pixel centre: shift to the pixel edge (GDAL's default reading).
     originX -= 0.5 * pixelSizeX;
@@ -241,19 +269,47 @@ export function countImageDirectories(buffer: ArrayBuffer, file: string): number
   return seen.size;
 }
 
-/** Refuse an image whose strips/tiles point past the end of the buffer (a truncated file). */
-async function checkNotTruncated(image: GeoTIFFImage, byteLength: number, file: string): Promise<void> {
+/**
+ * Refuse an image whose strips or tiles cannot all be read: an offsets or byte-counts array stored
+ * past the end of the file, fewer blocks listed than the image's size and block size need (the rest
+ * would read as zeros), or blocks that run past the end (a truncated file).
+ */
+async function checkBlocks(image: GeoTIFFImage, byteLength: number, file: string): Promise<void> {
   const dir = image.fileDirectory;
   const tiled = dir.hasTag("TileOffsets");
   const offsetsTag = tiled ? "TileOffsets" : "StripOffsets";
   const countsTag = tiled ? "TileByteCounts" : "StripByteCounts";
-  const offsets = (await dir.loadValue(offsetsTag)) as ArrayLike<number> | number | undefined;
-  const counts = (await dir.loadValue(countsTag)) as ArrayLike<number> | number | undefined;
-  if (offsets === undefined || counts === undefined) {
+  const load = async (tag: typeof offsetsTag | typeof countsTag) => {
+    try {
+      const v = (await dir.loadValue(tag)) as ArrayLike<number> | number | undefined;
+      return typeof v === "number" ? [v] : v;
+    } catch (e) {
+      throw new ImportError(
+        file,
+        `the file is truncated or damaged: this tag's values cannot be read (${errorText(e)})`,
+        tag,
+      );
+    }
+  };
+  const offsetList = await load(offsetsTag);
+  const countList = await load(countsTag);
+  if (offsetList === undefined || countList === undefined) {
     throw new ImportError(file, "missing: the TIFF has no image data", offsetsTag);
   }
-  const offsetList = typeof offsets === "number" ? [offsets] : offsets;
-  const countList = typeof counts === "number" ? [counts] : counts;
+  const across = Math.ceil(image.getWidth() / image.getTileWidth());
+  const down = Math.ceil(image.getHeight() / image.getTileHeight());
+  const planes = Number(dir.getValue("PlanarConfiguration") ?? 1) === 2 ? image.getSamplesPerPixel() : 1;
+  const needed = across * down * planes;
+  if (offsetList.length < needed || countList.length < needed) {
+    const layout = tiled
+      ? `${across} × ${down} tiles of ${image.getTileWidth()} × ${image.getTileHeight()} pixels`
+      : `${down} strips of ${image.getTileHeight()} row${image.getTileHeight() === 1 ? "" : "s"} (RowsPerStrip ${image.getTileHeight()})`;
+    throw new ImportError(
+      file,
+      `damaged TIFF: the image needs ${needed} blocks (${layout}) but ${Math.min(offsetList.length, countList.length)} are listed`,
+      offsetList.length < needed ? offsetsTag : countsTag,
+    );
+  }
   let end = 0;
   for (let i = 0; i < offsetList.length; i++) {
     const e = Number(offsetList[i]) + Number(countList[i] ?? 0);
@@ -333,13 +389,28 @@ function elevationsM(
  * (VerticalUnitsGeoKey), GDAL_NODATA and NaN become NaN. Throws ImportError (naming the file and the
  * tag or key) for a damaged or truncated file, a header above MAX_DEM_HEADER_SIDE_CELLS per side,
  * a window above MAX_DEM_WINDOW_CELLS, an unknown or missing CRS, or a DEM that covers no cell.
+ * Anything else the decoder throws on a damaged file becomes an ImportError too, never a crash.
  */
 export async function readGeoTiffDem(
   buffer: ArrayBuffer,
   frame: GridFrame,
   options: GeoTiffDemOptions = {},
 ): Promise<DemResult> {
-  const file = options.fileName ?? "DEM GeoTIFF";
+  try {
+    return await readGeoTiffDemWindow(buffer, frame, options);
+  } catch (e) {
+    if (isImportError(e)) throw e;
+    throw new ImportError(options.fileName ?? DEFAULT_FILE_NAME, `damaged TIFF (${errorText(e)})`);
+  }
+}
+
+/** readGeoTiffDem's work; its own checks throw ImportError, the decoder may throw anything. */
+async function readGeoTiffDemWindow(
+  buffer: ArrayBuffer,
+  frame: GridFrame,
+  options: GeoTiffDemOptions = {},
+): Promise<DemResult> {
+  const file = options.fileName ?? DEFAULT_FILE_NAME;
   const warnings: string[] = [];
   const imageCount = countImageDirectories(buffer, file);
   let tiff: GeoTIFF;
@@ -348,7 +419,7 @@ export async function readGeoTiffDem(
     tiff = await fromArrayBuffer(buffer);
     main = await tiff.getImage(0);
   } catch (e) {
-    throw new ImportError(file, `not a readable TIFF (${(e as Error).message})`);
+    throw new ImportError(file, `not a readable TIFF (${errorText(e)})`);
   }
   const width = main.getWidth();
   const height = main.getHeight();
@@ -408,7 +479,7 @@ export async function readGeoTiffDem(
         "read at once; use a coarser DEM, one with overviews, or a smaller site",
     );
   }
-  await checkNotTruncated(image, buffer.byteLength, file);
+  await checkBlocks(image, buffer.byteLength, file);
   // Each strip or tile is decoded whole: a hostile header could make one block alone enormous.
   const blockCells = image.getTileWidth() * image.getTileHeight();
   if (!(blockCells <= MAX_DEM_WINDOW_CELLS)) {
@@ -422,10 +493,7 @@ export async function readGeoTiffDem(
   try {
     raw = await readBand1Window(image, [w0, h0, w1, h1]);
   } catch (e) {
-    throw new ImportError(
-      file,
-      `could not decode the image data (${(e as Error).message}); the file may be damaged`,
-    );
+    throw new ImportError(file, `could not decode the image data (${errorText(e)}); the file may be damaged`);
   }
   const nodata = main.getGDALNoData();
   // A Float32 band stores the nodata value rounded to single precision.

@@ -12,6 +12,7 @@
  * whole-pixel offset; `plan los` on a DEM's own grid) is copied pixel for pixel instead.
  */
 import proj4 from "proj4";
+import { MAX_ELEVATION_M, MIN_ELEVATION_M } from "../coverage/constants.ts";
 import { createGrid, frameOf, type Grid, type GridFrame, sampleBilinear } from "../coverage/grid.ts";
 import { ImportError } from "./importErrors.ts";
 
@@ -283,6 +284,7 @@ export function demResultFromSource(
   meta: DemResult["source"],
   warnings: string[],
 ): DemResult {
+  dropImplausibleElevations(source.data, file, warnings);
   const { grid, coveredFraction } = resampleToFrame(source, frame);
   if (coveredFraction === 0) {
     throw new ImportError(
@@ -297,6 +299,36 @@ export function demResultFromSource(
     );
   }
   return { ground: grid, warnings, source: meta };
+}
+
+/**
+ * Sets samples outside MIN_ELEVATION_M…MAX_ELEVATION_M (±∞ among them) to NaN, in place, with a
+ * warning that counts them and gives one. A source with samples but none plausible is refused: its
+ * sample format or vertical unit is wrong, and "covers no cell" would mislead.
+ */
+export function dropImplausibleElevations(data: Float32Array, file: string, warnings: string[]): void {
+  let dropped = 0;
+  let kept = 0;
+  let example = 0;
+  for (let i = 0; i < data.length; i++) {
+    const v = data[i];
+    if (v >= MIN_ELEVATION_M && v <= MAX_ELEVATION_M) kept++;
+    else if (!Number.isNaN(v)) {
+      if (dropped === 0) example = v;
+      dropped++;
+      data[i] = Number.NaN;
+    }
+  }
+  if (dropped === 0) return;
+  const range = `${MIN_ELEVATION_M} to ${MAX_ELEVATION_M} m`;
+  const eg = Math.abs(example) < 1e6 ? String(Math.round(example)) : example.toExponential(1);
+  if (kept === 0) {
+    throw new ImportError(
+      file,
+      `no sample is an elevation on Earth (${range}; e.g. ${eg} m): check the sample format and the vertical unit`,
+    );
+  }
+  warnings.push(`${file}: ${dropped} samples outside ${range} (e.g. ${eg} m) are read as nodata.`);
 }
 
 /** Source description of a DEM file the user imported: the surface kind they gave, else "unknown". */

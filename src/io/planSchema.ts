@@ -7,7 +7,11 @@
  * against the analysis list) are in planValidation.ts. Older versions are migrated in planMigrations.ts.
  */
 import { z } from "zod";
-import { DEFAULT_EFFECTIVE_EARTH_FACTOR } from "../coverage/constants.ts";
+import {
+  DEFAULT_EFFECTIVE_EARTH_FACTOR,
+  MAX_EFFECTIVE_EARTH_FACTOR,
+  MIN_EFFECTIVE_EARTH_FACTOR,
+} from "../coverage/constants.ts";
 import type { RadarModel } from "../coverage/radarModel.ts";
 import { polygonProblems } from "./polygonRules.ts";
 import { radarModelSchema } from "./radarSchema.ts";
@@ -495,8 +499,8 @@ const analysisSchema = record(
       .meta({ description: 'Square cell side in m, or "auto"' }),
     effectiveEarthFactor: quantity({
       unit: "",
-      min: 0.5,
-      max: 1000,
+      min: MIN_EFFECTIVE_EARTH_FACTOR,
+      max: MAX_EFFECTIVE_EARTH_FACTOR,
       description: "Effective-Earth-radius factor k (4/3 standard; 1 geometric; large values approach flat)",
     }).default(DEFAULT_EFFECTIVE_EARTH_FACTOR),
     targetHeightsM: z

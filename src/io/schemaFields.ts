@@ -146,6 +146,14 @@ export function formatPath(path: readonly PropertyKey[]): string {
   return out === "" ? "(file)" : out;
 }
 
+/** An issue's message; a missing required field says so in our words rather than zod's default. */
+function issueMessage(iss: z.core.$ZodIssue): string {
+  if (iss.code === "invalid_type" && /received undefined$/.test(iss.message)) {
+    return `is required (${iss.expected === "array" ? "a list" : `a ${iss.expected}`})`;
+  }
+  return iss.message;
+}
+
 /** The errors of a failed parse, one per issue, with `prefix` put in front of every path. */
 export function issuesToErrors(
   issues: readonly z.core.$ZodIssue[],
@@ -167,7 +175,7 @@ export function issuesToErrors(
       out.push(...issuesToErrors(best, [...prefix, ...iss.path]));
       continue;
     }
-    out.push({ path: formatPath([...prefix, ...iss.path]), message: iss.message });
+    out.push({ path: formatPath([...prefix, ...iss.path]), message: issueMessage(iss) });
   }
   return out;
 }

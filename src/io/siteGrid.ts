@@ -297,10 +297,19 @@ export function siteGridFrame(plan: Plan): SiteGrid {
     grow(x, y, plan.approachRingDepthM);
   }
   const areasSideM = Math.max(maxX - minX, maxY - minY);
-  for (const post of plan.posts) {
+  const areasBox = { minX, maxX, minY, maxY };
+  // The post farthest outside the areas' box (with the ring), named if the grid grows too large.
+  let farPost = -1;
+  let farPostM = 0;
+  plan.posts.forEach((post, i) => {
     const [x, y] = toGrid(post.position.lonDeg, post.position.latDeg);
     grow(x, y, 0);
-  }
+    const outsideM = Math.max(areasBox.minX - x, x - areasBox.maxX, areasBox.minY - y, y - areasBox.maxY);
+    if (!(outsideM <= farPostM)) {
+      farPost = i;
+      farPostM = outsideM;
+    }
+  });
   if (!(Number.isFinite(minX) && Number.isFinite(maxX) && Number.isFinite(minY) && Number.isFinite(maxY))) {
     throw new SiteGridError("protectedAreas", "the site could not be projected to its UTM zone");
   }
@@ -311,9 +320,15 @@ export function siteGridFrame(plan: Plan): SiteGrid {
   maxY += marginM;
   const sideM = Math.max(maxX - minX, maxY - minY);
   if (sideM > MAX_GRID_SIDE_M) {
+    const across = `the site grid would be ${(sideM / 1000).toFixed(1)} km across (protected areas, approach ring, posts and margin), above the ${MAX_GRID_SIDE_M / 1000} km limit of one UTM frame`;
+    if (areasSideM + 2 * marginM > MAX_GRID_SIDE_M || farPost < 0) {
+      throw new SiteGridError("protectedAreas", `${across}; check for a vertex far from the site`);
+    }
+    const post = plan.posts[farPost];
+    const where = Number.isFinite(farPostM) ? `${(farPostM / 1000).toFixed(1)} km outside` : "far from";
     throw new SiteGridError(
-      areasSideM + 2 * marginM > MAX_GRID_SIDE_M ? "protectedAreas" : "posts",
-      `the site grid would be ${(sideM / 1000).toFixed(1)} km across (protected areas, approach ring, posts and margin), above the ${MAX_GRID_SIDE_M / 1000} km limit of one UTM frame; check for a post or vertex far from the site`,
+      `posts[${farPost}].position`,
+      `${across}: post "${post.name}"${post.enabled ? "" : " (disabled)"} at ${post.position.latDeg}, ${post.position.lonDeg} lies ${where} the protected areas and approach ring; check its coordinates (latitude first)`,
     );
   }
   const autoCellSize = plan.analysis.cellSizeM === "auto";

@@ -8,7 +8,13 @@ import { fileURLToPath } from "node:url";
 import { writeArrayBuffer } from "geotiff";
 import proj4 from "proj4";
 import { describe, expect, it } from "vitest";
-import { FOOT_M, MAX_DEM_HEADER_SIDE_CELLS, MAX_DEM_WINDOW_CELLS } from "../../src/coverage/constants.ts";
+import {
+  FOOT_M,
+  MAX_DEM_HEADER_SIDE_CELLS,
+  MAX_DEM_WINDOW_CELLS,
+  MAX_ELEVATION_M,
+  MIN_ELEVATION_M,
+} from "../../src/coverage/constants.ts";
 import type { GridFrame } from "../../src/coverage/grid.ts";
 import { flatGround } from "../../src/coverage/surfaces.ts";
 import { readAscDem } from "../../src/io/demAsc.ts";
@@ -16,6 +22,12 @@ import { crsFromEpsg, readGeoTiffDem } from "../../src/io/demGeotiff.ts";
 import { hgtTileOrigin, readHgtDem } from "../../src/io/demHgt.ts";
 import { resampleToFrame } from "../../src/io/demResample.ts";
 import { ImportError, isImportError } from "../../src/io/importErrors.ts";
+import { patchTiffEntry } from "../fixtures/dem/tiffPatch.ts";
+
+// TIFF 6.0 and GeoTIFF 1.1 tag numbers.
+const TAG_STRIP_OFFSETS = 273;
+const TAG_ROWS_PER_STRIP = 278;
+const TAG_GEO_ASCII_PARAMS = 34_737;
 
 const UTM33 = "+proj=utm +zone=33 +datum=WGS84 +units=m +no_defs";
 
@@ -266,6 +278,57 @@ describe("GeoTIFF DEM", () => {
     expect(e.field).toBe("RowsPerStrip");
   });
 
+  it("[DM25] GeoKeys pointing at a params tag the file lacks are refused, naming the GeoKeyDirectory", async () => {
+    const keys = { GTModelTypeGeoKey: 1, GTRasterTypeGeoKey: 1, ProjectedCSTypeGeoKey: 32633 };
+    const withCitation = makeTiff({
+      ...planeSpec,
+      keys: { ...keys, GTCitationGeoKey: "test grid" } as never,
+    });
+    expect((await readGeoTiffDem(withCitation, frame)).ground.width).toBe(10);
+    const lost = patchTiffEntry(withCitation, TAG_GEO_ASCII_PARAMS, { tag: 65_003 });
+    const e = await importError(readGeoTiffDem(lost, frame, { fileName: "keys.tif" }));
+    expect(e.field).toBe("GeoKeyDirectory");
+    expect(e.message).toMatch(/^keys\.tif: GeoKeyDirectory: damaged GeoKeys \(.+\)$/);
+  });
+
+  it("[DM26] a strip offsets array stored past the end of the file is refused, naming the tag", async () => {
+    const tif = makeTiff(planeSpec);
+    const bad = patchTiffEntry(tif, TAG_STRIP_OFFSETS, { count: 600, value: 0x7fff_ffff });
+    const e = await importError(readGeoTiffDem(bad, frame, { fileName: "offsets.tif" }));
+    expect(e.field).toBe("StripOffsets");
+    expect(e.message).toMatch(/the file is truncated or damaged: this tag's values cannot be read/);
+  });
+
+  it("[DM27] fewer strips listed than the rows need is refused (the rest would read as 0 m)", async () => {
+    // planeSpec is one strip of 30 rows; RowsPerStrip 1 then needs 30 strips.
+    const bad = patchTiffEntry(makeTiff(planeSpec), TAG_ROWS_PER_STRIP, { value: 1 });
+    const e = await importError(readGeoTiffDem(bad, frame, { fileName: "rows.tif" }));
+    expect(e.message).toBe(
+      "rows.tif: StripOffsets: damaged TIFF: the image needs 30 blocks (30 strips of 1 row (RowsPerStrip 1)) but 1 are listed",
+    );
+  });
+
+  it("[DM28] samples beyond Earth's elevations (±∞, 3e38) are nodata with a warning; none plausible is refused", async () => {
+    // Columns west of x = 500 010 m are +∞: the site's first cell is nodata, its last one is not.
+    const someBad = makeTiff({
+      ...planeSpec,
+      values: (c, r) => (c < 12 ? Number.POSITIVE_INFINITY : 100 + r),
+    });
+    const dem = await readGeoTiffDem(someBad, frame, { fileName: "inf.tif" });
+    expect(dem.warnings.join("\n")).toMatch(
+      new RegExp(
+        `inf\\.tif: [1-9]\\d* samples outside ${MIN_ELEVATION_M} to ${MAX_ELEVATION_M} m \\(e\\.g\\. Infinity m\\) are read as nodata\\.`,
+      ),
+    );
+    expect(Number.isNaN(dem.ground.data[0])).toBe(true);
+    expect(dem.ground.data[frame.width - 1]).toBeGreaterThan(100);
+    const allBad = makeTiff({ ...planeSpec, values: () => 3e38 });
+    const e = await importError(readGeoTiffDem(allBad, frame, { fileName: "huge.tif" }));
+    expect(e.message).toBe(
+      `huge.tif: no sample is an elevation on Earth (${MIN_ELEVATION_M} to ${MAX_ELEVATION_M} m; e.g. 3.0e+38 m): check the sample format and the vertical unit`,
+    );
+  });
+
   it("[DM12] an EPSG code that is not built in is refused, naming the code and the key", async () => {
     const spec = {
       ...planeSpec,
@@ -392,6 +455,13 @@ describe("Esri ASCII grid", () => {
     expect(short.message).toMatch(/promises 4 × 3 = 12 values but the file holds 3/);
     const word = await importError(() => readAscDem(header + values.replace("7", "x7"), frame));
     expect(word.field).toBe("row 2, column 3");
+    // A key given twice (which holds is unclear) is refused, not read as the last one.
+    const twice = await importError(() =>
+      readAscDem(header.replace("nrows 3\n", "nrows 3\nncols 5\n") + values, frame, undefined, {
+        fileName: "t.asc",
+      }),
+    );
+    expect(twice.message).toBe("t.asc: ncols: given twice (header line 3): which one holds is unclear");
   });
 
   it('[DM6] a "nan" value (as GDAL writes NaN nodata) is nodata', () => {
@@ -407,6 +477,11 @@ describe("Esri ASCII grid", () => {
       ),
     );
     expect(e.message).toContain(String(MAX_DEM_WINDOW_CELLS));
+    // The key named is the one too large: a tall grid names nrows.
+    const tall = await importError(() =>
+      readAscDem(header.replace("ncols 4", "ncols 300").replace("nrows 3", "nrows 131072") + values, frame),
+    );
+    expect(tall.field).toBe("nrows");
     expect(
       (await importError(() => readAscDem(header.replace("ncols 4", "ncols 200000") + values, frame))).field,
     ).toBe("ncols");

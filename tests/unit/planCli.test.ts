@@ -1,6 +1,6 @@
 import { mkdtempSync, readFileSync, writeFileSync } from "node:fs";
 import { tmpdir } from "node:os";
-import { join } from "node:path";
+import { join, resolve } from "node:path";
 import { fromArrayBuffer } from "geotiff";
 import proj4 from "proj4";
 import { afterEach, beforeAll, describe, expect, it, vi } from "vitest";
@@ -8,6 +8,7 @@ import { RIDGE_SITE_CRS, ridgeCentreUtm } from "../../scripts/make-demo-dem.ts";
 import { runPlan } from "../../src/cli/plan.ts";
 import { encodeGeoTiff } from "../../src/io/exportGeoTiff.ts";
 import type { MetricsDocument } from "../../src/io/exportMetrics.ts";
+import { patchTiffEntry } from "../fixtures/dem/tiffPatch.ts";
 import { sampleBand } from "../fixtures/exportGeoTiff/sample.ts";
 
 const ridgePlan = "demo-sites/ridge-waterworks/plan.json";
@@ -269,5 +270,54 @@ describe("bad input names the flag or the plan field", () => {
     const h = await run(["point", ridgePlan, "--at", "133.4,-25.9", "--height-m", "10"]);
     expect(h.code).toBe(2);
     expect(h.err).toMatch(/--at: latitude 133.4° must lie within ±90° \(the order is LAT,LON/);
+  });
+
+  it("[PC8] los refuses a damaged DEM header and an implausible k by the flag, with no stack trace", async () => {
+    const dir = mkdtempSync(join(tmpdir(), "picket-los-bad-"));
+    const demo = readFileSync("demo-sites/ridge-waterworks/terrain.tif");
+    const bytes = demo.buffer.slice(demo.byteOffset, demo.byteOffset + demo.byteLength) as ArrayBuffer;
+    const los = (dem: string, ...more: string[]) =>
+      run([
+        "los",
+        "--dem",
+        dem,
+        "--at",
+        "-25.9,133.4",
+        "--mast-m",
+        "10",
+        "--out",
+        join(dir, "o.tif"),
+        ...more,
+      ]);
+    // ModelPixelScale (33550) renamed to a private tag: no georeferencing left.
+    const noScale = join(dir, "no-scale.tif");
+    writeFileSync(noScale, new Uint8Array(patchTiffEntry(bytes, 33_550, { tag: 65_000 })));
+    const a = await los(noScale);
+    expect(a.code).toBe(2);
+    expect(a.err).toMatch(/^plan: --dem: no-scale\.tif: ModelTiepoint: no georeferencing/);
+    // GeoAsciiParams (34737) renamed: the GeoKeys point at a tag the file lacks.
+    const noAscii = join(dir, "no-ascii.tif");
+    writeFileSync(noAscii, new Uint8Array(patchTiffEntry(bytes, 34_737, { tag: 65_003 })));
+    const b = await los(noAscii);
+    expect(b.code).toBe(2);
+    expect(b.err).toMatch(/^plan: --dem: no-ascii\.tif: GeoKeyDirectory: damaged GeoKeys/);
+    // k as a plan allows it (0.5–1000), not any positive number.
+    const c = await los("demo-sites/ridge-waterworks/terrain.tif", "--k", "1e-100");
+    expect(c.code).toBe(2);
+    expect(c.err).toMatch(/--k: 1e-100 must be ≥ 0\.5/);
+  });
+
+  it("[PC9] a post far from the site is named by its index and name, disabled or not", async () => {
+    const plan = JSON.parse(readFileSync(ridgePlan, "utf8"));
+    const i = plan.posts.findIndex((p: { enabled: boolean }) => !p.enabled);
+    plan.posts[i].position = { latDeg: 0, lonDeg: 0 };
+    plan.terrain.ground.file = resolve("demo-sites/ridge-waterworks", plan.terrain.ground.file);
+    const dir = mkdtempSync(join(tmpdir(), "picket-far-"));
+    const file = join(dir, "plan.json");
+    writeFileSync(file, JSON.stringify(plan));
+    const r = await run(["evaluate", file]);
+    expect(r.code).toBe(1);
+    expect(r.err).toContain(`posts[${i}].position: the site grid would be`);
+    expect(r.err).toContain(`post "${plan.posts[i].name}" (disabled) at 0, 0 lies`);
   });
 });

@@ -109,6 +109,10 @@ describe("plan format", () => {
       "targetClasses[1].rcsDbsm": 'must be a finite number in dBsm (got "-10")',
       "requirement.pfa": "is required (a number)",
     });
+    // A missing list says so in the same words, not in the schema library's.
+    const q = v1();
+    delete q.protectedAreas;
+    expect(errorsOf(q)).toEqual({ protectedAreas: "is required (a list)" });
   });
 
   it("[PF2] a misspelt field is an error, not silently dropped", () => {

@@ -274,7 +274,9 @@ describe("site grid", () => {
     );
     expect(fine.ok ? [] : fine.errors.map((e) => e.path)).toEqual(["analysis.cellSizeM"]);
     const far = checkPlanForRun(plan((p) => (p.posts[0].position = { lonDeg: 20, latDeg: 62.3 })));
-    expect(far.ok ? [] : far.errors.map((e) => e.path)).toEqual(["posts"]);
+    // The post that stretches the grid is named by its index, and its message by its name.
+    expect(far.ok ? [] : far.errors.map((e) => e.path)).toEqual(["posts[0].position"]);
+    expect(far.ok ? "" : far.errors[0].message).toMatch(/post ".+" at 62\.3, 20 lies \d+\.\d km outside/);
   });
 
   it("[SG6] a refusal can offer the smallest cell size, to the centimetre, at which the run fits", () => {
