@@ -32,6 +32,7 @@ import {
 import type { GridFrame } from "../coverage/grid.ts";
 import type { BuildingShape, TreeStandShape } from "../coverage/surfaces.ts";
 import { ImportError } from "./importErrors.ts";
+import { polygonProblems } from "./polygonRules.ts";
 
 /** Where a footprint's height came from. */
 export type HeightSource = "height" | "levels" | "default";
@@ -204,6 +205,9 @@ function inputText(input: string | ArrayBuffer | Uint8Array, file: string): stri
     if (names.length === 0) throw new ImportError(file, "the archive holds no .kml file");
     return new TextDecoder().decode(entries[names[0]]);
   }
+  if (/\.kmz$/i.test(file)) {
+    throw new ImportError(file, "not a zip archive: a .kmz file is a zip archive holding a .kml file");
+  }
   return new TextDecoder().decode(bytes);
 }
 
@@ -296,7 +300,7 @@ function featuresOf(text: string, file: string): { features: Feature[]; osm: boo
   try {
     json = JSON.parse(start);
   } catch (e) {
-    throw new ImportError(file, `not GeoJSON, KML, KMZ or an OSM export (${(e as Error).message})`);
+    throw new ImportError(file, `not GeoJSON, KML, KMZ or an OSM export (${jsonErrorText(e, start)})`);
   }
   if (typeof json !== "object" || json === null) throw new ImportError(file, "not a GeoJSON object", "type");
   const obj = json as Record<string, unknown>;
@@ -325,6 +329,20 @@ function featuresOf(text: string, file: string): { features: Feature[]; osm: boo
   );
 }
 
+/**
+ * Why text is no JSON, without quoting it: the engine's message repeats the start of the text,
+ * which for a binary file is garbage. Text that starts with printable characters is described as
+ * text; anything else as binary data.
+ */
+function jsonErrorText(e: unknown, text: string): string {
+  const head = text.slice(0, 64);
+  // Control characters other than tab, line feed and carriage return, or U+FFFD from undecodable bytes.
+  const binary = /[\u0000-\u0008\u000e-\u001f\ufffd]/.test(head);
+  if (binary) return "the file holds binary data";
+  const at = /position (\d+)/.exec(e instanceof Error ? e.message : "");
+  return at ? `text that is not JSON, at character ${at[1]}` : "text that is not JSON";
+}
+
 /** A legacy GeoJSON `crs` member naming anything but WGS 84 lon/lat is refused. */
 function checkGeoJsonCrs(obj: Record<string, unknown>, file: string): void {
   const crs = obj.crs as { properties?: { name?: unknown } } | undefined;
@@ -339,6 +357,11 @@ function checkGeoJsonCrs(obj: Record<string, unknown>, file: string): void {
 }
 
 /** Polygons of a geometry (Polygon, MultiPolygon, or those inside a GeometryCollection). */
+/** " (id)" after a feature's path in a note, or nothing when the feature has no id of its own. */
+function idText(path: string, id: string): string {
+  return id === path ? "" : ` (${id})`;
+}
+
 function polygonsOf(g: Geometry | null | undefined): Position[][][] {
   if (!g || typeof g !== "object") return [];
   if (g.type === "Polygon" && Array.isArray(g.coordinates)) return [g.coordinates];
@@ -464,7 +487,7 @@ export function parseBuildings(
           f.geometry.type !== "MultiPoint")
       ) {
         empty++;
-        notes.add(`${path} (${id}).geometry: empty or missing; skipped.`);
+        notes.add(`${path}${idText(path, id)}.geometry: empty or missing; skipped.`);
       } else ignored++;
       return;
     }
@@ -489,7 +512,17 @@ export function parseBuildings(
     }
     if (rings.length === 0) {
       empty++;
-      notes.add(`${path} (${id}).geometry: no ring with 3 or more valid positions; skipped.`);
+      notes.add(`${path}${idText(path, id)}.geometry: no ring with 3 or more valid positions; skipped.`);
+      return;
+    }
+    // A footprint whose outline crosses itself has no inside: the plan would refuse it at every run.
+    const problem = polygons.flatMap((poly, k) =>
+      polygonProblems(poly, f.geometry?.type === "MultiPolygon" ? ["coordinates", k] : ["coordinates"]),
+    )[0];
+    if (problem) {
+      empty++;
+      const at = problem.path.map((x) => (typeof x === "number" ? `[${x}]` : `.${x}`)).join("");
+      notes.add(`${path}${idText(path, id)}.geometry${at}: ${problem.message}; skipped.`);
       return;
     }
     raws.push({ path, id, props, rings });
@@ -526,7 +559,7 @@ export function parseBuildings(
           heightSource = "height";
         } else
           notes.add(
-            `${raw.path}.properties.${found[0]} (${raw.id}): ${p.reason}; default canopy ${defaultCanopyM} m used.`,
+            `${raw.path}.properties.${found[0]}${idText(raw.path, raw.id)}: ${p.reason}; default canopy ${defaultCanopyM} m used.`,
           );
       }
       treeStands.push({ id: raw.id, rings, canopyHeightM, heightSource });
@@ -534,7 +567,10 @@ export function parseBuildings(
     }
     buildings.push({ id: raw.id, rings, ...buildingHeights(raw, metresPerLevel, defaultHeightM, notes) });
   });
-  if (empty > 0) notes.add(`${empty} features with empty or invalid geometry were skipped.`);
+  if (empty > 0)
+    notes.add(
+      `${empty} feature${empty === 1 ? "" : "s"} with empty or invalid geometry ${empty === 1 ? "was" : "were"} skipped.`,
+    );
   return { buildings, treeStands, warnings: notes.finish() };
 }
 
@@ -546,6 +582,7 @@ function buildingHeights(
 ): { heightM: number; minHeightM: number; heightSource: HeightSource } {
   let heightM = Number.NaN;
   let heightSource: HeightSource = "default";
+  let badHeight: string | undefined;
   const found = firstPresent(raw.props, ["height", "building:height", "heightM"]);
   if (found) {
     const p = parseLengthM(found[1]);
@@ -553,9 +590,7 @@ function buildingHeights(
       heightM = p.m;
       heightSource = "height";
     } else
-      notes.add(
-        `${raw.path}.properties.${found[0]} (${raw.id}): ${p.ok ? "0 is no height" : p.reason}; falling back.`,
-      );
+      badHeight = `${raw.path}.properties.${found[0]}${idText(raw.path, raw.id)}: ${p.ok ? "0 is no height" : p.reason}`;
   }
   if (heightSource === "default") {
     const levels = firstPresent(raw.props, ["building:levels"]);
@@ -563,34 +598,42 @@ function buildingHeights(
       const p = parseLevels(levels[1]);
       const roof = firstPresent(raw.props, ["roof:levels"]);
       const r = roof ? parseLevels(roof[1]) : ({ ok: true, m: 0 } as LengthParse);
-      if (!r.ok) notes.add(`${raw.path}.properties.roof:levels (${raw.id}): ${r.reason}; ignored.`);
+      if (!r.ok)
+        notes.add(`${raw.path}.properties.roof:levels${idText(raw.path, raw.id)}: ${r.reason}; ignored.`);
       const total = p.ok ? p.m + (r.ok ? r.m : 0) : Number.NaN;
       if (p.ok && total > 0 && total * metresPerLevel <= MAX_OBSTRUCTION_HEIGHT_M) {
         heightM = total * metresPerLevel;
         heightSource = "levels";
       } else {
         notes.add(
-          `${raw.path}.properties.building:levels (${raw.id}): ${p.ok ? `${total} levels is no usable height` : p.reason}; default used.`,
+          `${raw.path}.properties.building:levels${idText(raw.path, raw.id)}: ${p.ok ? `${total} levels is no usable height` : p.reason}; default used.`,
         );
       }
     }
   }
   if (heightSource === "default") heightM = defaultHeightM;
+  if (badHeight !== undefined) {
+    const used = heightSource === "levels" ? `${heightM} m from building:levels` : `the default ${heightM} m`;
+    notes.add(`${badHeight}; ${used} used.`);
+  }
   let minHeightM = 0;
   const minFound = firstPresent(raw.props, ["min_height"]);
   const minLevel = firstPresent(raw.props, ["building:min_level"]);
   if (minFound) {
     const p = parseLengthM(minFound[1]);
     if (p.ok) minHeightM = p.m;
-    else notes.add(`${raw.path}.properties.min_height (${raw.id}): ${p.reason}; taken as 0.`);
+    else notes.add(`${raw.path}.properties.min_height${idText(raw.path, raw.id)}: ${p.reason}; taken as 0.`);
   } else if (minLevel) {
     const p = parseLevels(minLevel[1]);
     if (p.ok) minHeightM = p.m * metresPerLevel;
-    else notes.add(`${raw.path}.properties.building:min_level (${raw.id}): ${p.reason}; taken as 0.`);
+    else
+      notes.add(
+        `${raw.path}.properties.building:min_level${idText(raw.path, raw.id)}: ${p.reason}; taken as 0.`,
+      );
   }
   if (minHeightM >= heightM) {
     notes.add(
-      `${raw.path} (${raw.id}): min_height ${minHeightM} m is not below the height ${heightM} m; taken as 0.`,
+      `${raw.path}${idText(raw.path, raw.id)}: min_height ${minHeightM} m is not below the height ${heightM} m; taken as 0.`,
     );
     minHeightM = 0;
   }

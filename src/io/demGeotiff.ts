@@ -189,10 +189,12 @@ export function geotransformOf(
       pixelSizeX = resolution[0];
       pixelSizeY = -resolution[1];
     } catch {
+      // Name the tag that is missing (or unreadable) of the pair.
+      const tag = dir.hasTag("ModelTiepoint") ? "ModelPixelScale" : "ModelTiepoint";
       throw new ImportError(
         file,
         "no georeferencing (ModelTiepoint with ModelPixelScale, or ModelTransformation)",
-        "ModelTiepoint",
+        tag,
       );
     }
   }

@@ -50,7 +50,7 @@ export function locateJsonError(s: string): JsonSyntaxError | null {
   const fail = (message: string): never => {
     throw new Located(i, message);
   };
-  const what = (): string => (i >= n ? "the end of the file" : `${JSON.stringify(s[i])}`);
+  const what = (): string => (i >= n ? "end of the file" : `${JSON.stringify(s[i])}`);
   const ws = () => {
     while (i < n && (s[i] === " " || s[i] === "\t" || s[i] === "\n" || s[i] === "\r")) i++;
   };

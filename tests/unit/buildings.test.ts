@@ -127,8 +127,17 @@ describe("parseBuildings: GeoJSON", () => {
     const { buildings, warnings } = parseBuildings(text, "h.geojson", toGrid);
     expect(buildings[0]).toMatchObject({ heightM: 2 * DEFAULT_METRES_PER_LEVEL, heightSource: "levels" });
     expect(buildings[1]).toMatchObject({ heightM: DEFAULT_BUILDING_HEIGHT_M, heightSource: "default" });
-    expect(warnings[0]).toMatch(/^h\.geojson: features\[0\]\.properties\.height .*"tall" is not a length/);
-    expect(warnings[1]).toMatch(/features\[1\]\.properties\.height .*negative/);
+    // The note says what is used instead; a feature without an id is named by its path once.
+    expect(warnings[0]).toMatch(
+      new RegExp(
+        `^h\\.geojson: features\\[0\\]\\.properties\\.height: "tall" is not a length.*; ${2 * DEFAULT_METRES_PER_LEVEL} m from building:levels used\\.$`,
+      ),
+    );
+    expect(warnings[1]).toMatch(
+      new RegExp(
+        `features\\[1\\]\\.properties\\.height: .*negative.*; the default ${DEFAULT_BUILDING_HEIGHT_M} m used\\.$`,
+      ),
+    );
   });
 
   it("[BL5] empty features are skipped with a note; a file whose features are all unusable is refused", () => {
@@ -277,6 +286,23 @@ describe("parseBuildings: GeoJSON", () => {
     expect(at(200, 0)).toBe(15); // wing
   });
 
+  it("[BL5] a footprint whose outline crosses itself is skipped with a note naming it (a run would refuse it)", () => {
+    const [a, b, c, d] = square(0, 0);
+    const bowTie = [a, c, b, d, a];
+    const text = fc([
+      polygonFeature({ height: 10 }, bowTie, "way/7"),
+      polygonFeature({ height: 12 }, square(100, 0)),
+    ]);
+    const { buildings, warnings } = parseBuildings(text, "bow.geojson", toGrid);
+    expect(buildings.map((x) => x.heightM)).toEqual([12]);
+    expect(warnings[0]).toMatch(
+      /^bow\.geojson: features\[0\] \(way\/7\)\.geometry\.coordinates\[0\]: the ring crosses itself near lon [\d.]+, lat [\d.]+; skipped\.$/,
+    );
+    expect(warnings[1]).toBe("bow.geojson: 1 feature with empty or invalid geometry was skipped.");
+    const only = importError(() => parseBuildings(fc([polygonFeature({}, bowTie)]), "b.geojson", toGrid));
+    expect(only.message).toMatch(/^b\.geojson: no usable building or tree polygon among 1 features/);
+  });
+
   it("[BL11] unreadable files are refused with the file named", () => {
     expect(importError(() => parseBuildings("hello", "x.txt", toGrid)).message).toMatch(
       /^x\.txt: not GeoJSON, KML, KMZ or an OSM export/,
@@ -288,6 +314,14 @@ describe("parseBuildings: GeoJSON", () => {
       /neither <kml> nor <osm>/,
     );
     expect(importError(() => parseBuildings('{"type":"Topology"}', "t.json", toGrid)).field).toBe("type");
+    // Binary bytes are described, not quoted; a .kmz that is no zip says so.
+    const noise = new Uint8Array(4096).map((_, i) => (i * 97 + 13) % 256);
+    expect(importError(() => parseBuildings(noise, "r.geojson", toGrid)).message).toBe(
+      "r.geojson: not GeoJSON, KML, KMZ or an OSM export (the file holds binary data)",
+    );
+    expect(
+      importError(() => parseBuildings(new TextEncoder().encode("plain words"), "f.kmz", toGrid)).message,
+    ).toBe("f.kmz: not a zip archive: a .kmz file is a zip archive holding a .kml file");
     const broken = new Uint8Array([0x50, 0x4b, 0x03, 0x04, 1, 2, 3]);
     expect(importError(() => parseBuildings(broken, "b.kmz", toGrid)).message).toMatch(
       /^b\.kmz: damaged KMZ/,

@@ -294,7 +294,7 @@ describe("bad input names the flag or the plan field", () => {
     writeFileSync(noScale, new Uint8Array(patchTiffEntry(bytes, 33_550, { tag: 65_000 })));
     const a = await los(noScale);
     expect(a.code).toBe(2);
-    expect(a.err).toMatch(/^plan: --dem: no-scale\.tif: ModelTiepoint: no georeferencing/);
+    expect(a.err).toMatch(/^plan: --dem: no-scale\.tif: ModelPixelScale: no georeferencing/);
     // GeoAsciiParams (34737) renamed: the GeoKeys point at a tag the file lacks.
     const noAscii = join(dir, "no-ascii.tif");
     writeFileSync(noAscii, new Uint8Array(patchTiffEntry(bytes, 34_737, { tag: 65_003 })));

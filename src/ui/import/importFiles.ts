@@ -10,7 +10,7 @@ import { readAscDem } from "../../io/demAsc";
 import { readGeoTiffDem } from "../../io/demGeotiff";
 import { readHgtDem } from "../../io/demHgt";
 import type { AreaGeometry, BuildingFeature, Plan, TreeStand } from "../../io/planSchema";
-import { siteGridFrame } from "../../io/siteGrid";
+import { MAX_RADARS_PER_RUN, siteGridFrame } from "../../io/siteGrid";
 import { useAssets } from "../assets";
 import { openPlanFile } from "../files";
 import { addBuildings, addPost } from "../planEdits";
@@ -145,6 +145,17 @@ async function importPosts(file: File): Promise<void> {
   const details = formatCsvErrors(file.name, r.errors);
   if (r.posts.length === 0) {
     say("error", `${file.name}: no post could be read; the plan is unchanged.`, details);
+    return;
+  }
+  // Imported posts are enabled: more than a run takes would block every run (and thousands of
+  // markers would hold the page for seconds). Refused whole, before the plan changes.
+  const enabled = (usePlanStore.getState().plan?.posts ?? []).filter((p) => p.enabled).length;
+  if (enabled + r.posts.length > MAX_RADARS_PER_RUN) {
+    say(
+      "error",
+      `${file.name}: ${r.posts.length} posts would make ${enabled + r.posts.length} enabled posts; at most ${MAX_RADARS_PER_RUN} can take part in one run. Import the candidates in smaller files; the plan is unchanged.`,
+      details,
+    );
     return;
   }
   usePlanStore.getState().change((p) => {
