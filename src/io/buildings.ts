@@ -329,16 +329,22 @@ function featuresOf(text: string, file: string): { features: Feature[]; osm: boo
   );
 }
 
+/** Control characters other than tab, line and page breaks, or U+FFFD (bytes that decode to no text). */
+function looksBinary(head: string): boolean {
+  for (let i = 0; i < head.length; i++) {
+    const c = head.charCodeAt(i);
+    if (c < 9 || (c > 13 && c < 32) || c === 0xfffd) return true;
+  }
+  return false;
+}
+
 /**
  * Why text is no JSON, without quoting it: the engine's message repeats the start of the text,
  * which for a binary file is garbage. Text that starts with printable characters is described as
  * text; anything else as binary data.
  */
 function jsonErrorText(e: unknown, text: string): string {
-  const head = text.slice(0, 64);
-  // Control characters other than tab, line feed and carriage return, or U+FFFD from undecodable bytes.
-  const binary = /[\u0000-\u0008\u000e-\u001f\ufffd]/.test(head);
-  if (binary) return "the file holds binary data";
+  if (looksBinary(text.slice(0, 64))) return "the file holds binary data";
   const at = /position (\d+)/.exec(e instanceof Error ? e.message : "");
   return at ? `text that is not JSON, at character ${at[1]}` : "text that is not JSON";
 }
