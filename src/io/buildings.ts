@@ -33,6 +33,7 @@ import type { GridFrame } from "../coverage/grid.ts";
 import type { BuildingShape, TreeStandShape } from "../coverage/surfaces.ts";
 import { ImportError } from "./importErrors.ts";
 import { polygonProblems } from "./polygonRules.ts";
+import { MAX_NAME_CHARS } from "./schemaFields.ts";
 
 /** Where a footprint's height came from. */
 export type HeightSource = "height" | "levels" | "default";
@@ -41,6 +42,8 @@ export type HeightSource = "height" | "levels" | "default";
 export interface BuildingFootprint extends BuildingShape {
   /** The feature's id in the file (OSM "way/123", GeoJSON id) or its index ("features[3]"). */
   id: string;
+  /** The feature's `name`, when it has one (shown as text, never as markup). */
+  name?: string;
   heightSource: HeightSource;
 }
 
@@ -571,7 +574,13 @@ export function parseBuildings(
       treeStands.push({ id: raw.id, rings, canopyHeightM, heightSource });
       return;
     }
-    buildings.push({ id: raw.id, rings, ...buildingHeights(raw, metresPerLevel, defaultHeightM, notes) });
+    const name = typeof raw.props.name === "string" ? raw.props.name.trim().slice(0, MAX_NAME_CHARS) : "";
+    buildings.push({
+      id: raw.id,
+      ...(name !== "" ? { name } : {}),
+      rings,
+      ...buildingHeights(raw, metresPerLevel, defaultHeightM, notes),
+    });
   });
   if (empty > 0)
     notes.add(

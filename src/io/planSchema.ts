@@ -444,6 +444,10 @@ const buildingPropertiesSchema = z
       max: 1000,
       description: "Underside height above ground, m",
     }).optional(),
+    heightSource: oneOf(
+      ["levels", "default"] as const,
+      "An imported height made from building:levels or the default, not given by the file",
+    ).optional(),
   })
   .meta({ description: "Building properties (OSM tag names); other properties are kept" });
 

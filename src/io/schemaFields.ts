@@ -87,7 +87,10 @@ export function identifier(description: string) {
     .meta({ description });
 }
 
-/** A display name: non-empty, at most 200 characters. */
+/** Longest display name a plan holds, characters. */
+export const MAX_NAME_CHARS = 200;
+
+/** A display name: non-empty, at most MAX_NAME_CHARS characters. */
 export function displayName(description: string) {
   return z
     .string({
@@ -97,7 +100,7 @@ export function displayName(description: string) {
           : `must be a string (got ${describeValue(iss.input)})`,
     })
     .min(1, { error: "must not be empty" })
-    .max(200, { error: "is longer than 200 characters" })
+    .max(MAX_NAME_CHARS, { error: `is longer than ${MAX_NAME_CHARS} characters` })
     .meta({ description });
 }
 

@@ -120,9 +120,11 @@ export function setAnalysisHeights(plan: Plan, heightsM: number[]): Plan {
 /** Sets a building's roof height above ground (its `height`, which takes precedence over levels). */
 export function setBuildingHeight(plan: Plan, index: number, heightM: number): Plan {
   const f = plan.terrain.buildings.features[index];
-  if (!f || f.properties.height === heightM) return plan;
+  if (!f || (f.properties.height === heightM && f.properties.heightSource === undefined)) return plan;
   const features = plan.terrain.buildings.features.slice();
-  features[index] = { ...f, properties: { ...f.properties, height: heightM } };
+  // A height the user sets is given, no longer made from levels or the default.
+  const { heightSource: _made, ...given } = f.properties;
+  features[index] = { ...f, properties: { ...given, height: heightM } };
   return withBuildings(plan, features);
 }
 

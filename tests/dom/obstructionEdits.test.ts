@@ -44,6 +44,16 @@ describe("buildings and tree stands chosen on the map", () => {
       source: "levels",
     });
     expect(roofHeightOf({})).toEqual({ heightM: DEFAULT_BUILDING_HEIGHT_M, source: "default" });
+    // An imported height keeps where it came from; a height typed in is given.
+    expect(roofHeightOf({ height: 9, heightSource: "levels" })).toEqual({ heightM: 9, source: "levels" });
+    const imported = withObstructions();
+    imported.terrain.buildings.features[0].properties = { height: 6, heightSource: "default" };
+    const typed = setBuildingHeight(imported, 0, 6);
+    expect(typed).not.toBe(imported);
+    expect(roofHeightOf(typed.terrain.buildings.features[0].properties)).toEqual({
+      heightM: 6,
+      source: "height",
+    });
   });
 
   it("changes heights and deletes, each one undo step, and the plan stays valid", () => {

@@ -109,7 +109,9 @@ async function importBuildings(file: File, plan: Plan): Promise<void> {
       id: buildingIds[k],
       geometry: ringsToGeometry(b.rings, grid.toLonLat),
       properties: {
+        ...(b.name !== undefined ? { name: b.name } : {}),
         height: b.heightM,
+        ...(b.heightSource !== "height" ? { heightSource: b.heightSource } : {}),
         ...(b.minHeightM > 0 ? { min_height: b.minHeightM } : {}),
         source: file.name,
       },

@@ -75,7 +75,7 @@ export function ObstructionEditor() {
       source === "height"
         ? "the footprint's height value"
         : source === "levels"
-          ? `${f.properties["building:levels"]} levels × ${DEFAULT_METRES_PER_LEVEL} m`
+          ? `${f.properties["building:levels"] ?? heightM / DEFAULT_METRES_PER_LEVEL} levels × ${DEFAULT_METRES_PER_LEVEL} m`
           : "the default: the file gave no height";
     return (
       <ObstructionCard

@@ -1,6 +1,8 @@
 // @vitest-environment jsdom
-/** Posts from a CSV file through the import path the picker and the map's drop share. */
+/** Files through the import path the file picker and the map's drop share: posts and buildings. */
 import { beforeEach, describe, expect, it } from "vitest";
+import { DEFAULT_BUILDING_HEIGHT_M, DEFAULT_METRES_PER_LEVEL } from "../../src/coverage/constants";
+import { roofHeightOf } from "../../src/io/buildingHeight";
 import { MAX_RADARS_PER_RUN } from "../../src/io/siteGrid";
 import { importFile } from "../../src/ui/import/importFiles";
 import { useSession } from "../../src/ui/session";
@@ -40,5 +42,46 @@ describe("posts imported from CSV", () => {
     expect(lastMessage()?.text).toBe(
       `candidates.csv: ${n} posts would make ${MAX_RADARS_PER_RUN + 1} enabled posts; at most ${MAX_RADARS_PER_RUN} can take part in one run. Import the candidates in smaller files; the plan is unchanged.`,
     );
+  });
+});
+
+/** A square footprint of about 20 m at (lon, lat) with the given properties, as GeoJSON. */
+function footprint(lon: number, lat: number, properties: Record<string, unknown>) {
+  const d = 0.0001;
+  const ring = [
+    [lon, lat],
+    [lon + d, lat],
+    [lon + d, lat + d],
+    [lon, lat + d],
+    [lon, lat],
+  ];
+  return { type: "Feature", properties, geometry: { type: "Polygon", coordinates: [ring] } };
+}
+
+describe("buildings imported from GeoJSON", () => {
+  beforeEach(() => {
+    usePlanStore.getState().load(samplePlan());
+    useSession.setState({ messages: [] });
+  });
+
+  it("keeps each footprint's name as text and where its height came from", async () => {
+    const name = '<img src=x onerror="alert(1)"> Pump hall';
+    const text = JSON.stringify({
+      type: "FeatureCollection",
+      features: [
+        footprint(15.3, 47.1, { name, height: 14 }),
+        footprint(15.301, 47.1, { "building:levels": 3 }),
+        footprint(15.302, 47.1, {}),
+      ],
+    });
+    await importFile(new File([text], "yard.geojson", { type: "application/geo+json" }));
+    const added = usePlanStore.getState().plan!.terrain.buildings.features.slice(-3);
+    expect(added.map((f) => f.properties.name)).toEqual([name, undefined, undefined]);
+    expect(added.map((f) => roofHeightOf(f.properties))).toEqual([
+      { heightM: 14, source: "height" },
+      { heightM: 3 * DEFAULT_METRES_PER_LEVEL, source: "levels" },
+      { heightM: DEFAULT_BUILDING_HEIGHT_M, source: "default" },
+    ]);
+    expect(lastMessage()?.text).toBe("Imported 3 buildings and 0 tree stands from yard.geojson.");
   });
 });
