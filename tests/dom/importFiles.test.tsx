@@ -1,13 +1,18 @@
 // @vitest-environment jsdom
 /** Files through the import path the file picker and the map's drop share: posts and buildings. */
+import { act } from "react";
+import { createRoot } from "react-dom/client";
 import { beforeEach, describe, expect, it } from "vitest";
 import { DEFAULT_BUILDING_HEIGHT_M, DEFAULT_METRES_PER_LEVEL } from "../../src/coverage/constants";
 import { roofHeightOf } from "../../src/io/buildingHeight";
 import { MAX_RADARS_PER_RUN } from "../../src/io/siteGrid";
 import { importFile } from "../../src/ui/import/importFiles";
+import { ObstructionEditor } from "../../src/ui/panels/ObstructionEditor";
 import { useSession } from "../../src/ui/session";
 import { usePlanStore } from "../../src/ui/store";
 import { samplePlan } from "./samplePlan";
+
+(globalThis as { IS_REACT_ACT_ENVIRONMENT?: boolean }).IS_REACT_ACT_ENVIRONMENT = true;
 
 /** A posts CSV of `n` rows on a grid of points 20 m apart beside the sample site. */
 function postsCsv(n: number): File {
@@ -83,5 +88,27 @@ describe("buildings imported from GeoJSON", () => {
       { heightM: DEFAULT_BUILDING_HEIGHT_M, source: "default" },
     ]);
     expect(lastMessage()?.text).toBe("Imported 3 buildings and 0 tree stands from yard.geojson.");
+  });
+});
+
+describe("the editor of an imported building", () => {
+  it("titles it by its name as text and says its height came from its levels", async () => {
+    usePlanStore.getState().load(samplePlan());
+    const text = JSON.stringify({
+      type: "FeatureCollection",
+      features: [footprint(15.3, 47.1, { name: "<b>Annex</b>", "building:levels": 4 })],
+    });
+    await importFile(new File([text], "annex.geojson"));
+    const index = usePlanStore.getState().plan!.terrain.buildings.features.length - 1;
+    useSession.getState().set({ selectedObstruction: { kind: "building", index } });
+    const host = document.createElement("div");
+    document.body.append(host);
+    const root = createRoot(host);
+    await act(async () => root.render(<ObstructionEditor />));
+    const editor = host.querySelector('[data-testid="obstruction-editor"]');
+    expect(editor?.textContent).toMatch(/^<b>Annex<\/b>Roof height/);
+    expect(editor?.textContent).toContain(`From 4 levels × ${DEFAULT_METRES_PER_LEVEL} m.`);
+    expect(editor?.querySelector("b")).toBeNull();
+    await act(async () => root.unmount());
   });
 });
