@@ -10,6 +10,7 @@ import difference from "@turf/difference";
 import type { Feature, MultiPolygon, Polygon } from "geojson";
 import { useEffect, useState } from "react";
 import type { AreaGeometry } from "../../io/planSchema";
+import { areaGeometryProblem } from "../../io/polygonRules";
 import type L from "../../map/leaflet";
 import { azimuthAndDistance } from "../../map/localGeo";
 import { addBuilding, addProtectedArea, addTreeStand, replaceAreaGeometry } from "../planEdits";
@@ -77,6 +78,19 @@ function cutHole(geometry: AreaGeometry): void {
     .change((p) => replaceAreaGeometry(p, inside.id, cut.geometry as AreaGeometry), "cut hole");
 }
 
+/**
+ * A hole, building or tree stand drawn with an outline that crosses itself has no inside: refused
+ * with a message (true), nothing added. A protected area is kept instead and marked on the map and in
+ * the Site panel (areaGeometryProblem), so that a large drawing is not lost to one wrong click.
+ */
+export function refusedOutline(tool: "hole" | "building" | "tree", geometry: AreaGeometry): boolean {
+  const problem = areaGeometryProblem(geometry);
+  if (problem === null) return false;
+  const what = tool === "hole" ? "hole" : tool === "building" ? "building" : "tree stand";
+  say("warning", `The ${what}'s outline is not valid (${problem}); nothing was added. Draw it again.`);
+  return true;
+}
+
 export function useDrawTools(map: L.Map | null): LiveMeasure | null {
   const tool = useSession((s) => s.tool);
   const [live, setLive] = useState<LiveMeasure | null>(null);
@@ -101,7 +115,9 @@ export function useDrawTools(map: L.Map | null): LiveMeasure | null {
       const s = useSession.getState();
       const change = usePlanStore.getState().change;
       if (tool === "area") change((p) => addProtectedArea(p, geometry), "draw protected area");
-      else if (tool === "hole") cutHole(geometry);
+      else if (refusedOutline(tool, geometry)) {
+        // Nothing added: the tool stays on for the shape to be drawn again.
+      } else if (tool === "hole") cutHole(geometry);
       else if (tool === "building")
         change((p) => addBuilding(p, geometry, s.newBuildingHeightM), "draw building");
       else change((p) => addTreeStand(p, geometry, s.newCanopyHeightM), "draw tree stand");
