@@ -289,7 +289,15 @@ const planAreaGeometrySchema = areaGeometrySchema.meta({
   description: "GeoJSON Polygon or MultiPolygon, WGS84 lon/lat (RFC 7946)",
 });
 
-const heightAglM = quantity({ unit: "m", min: 0, max: 10000, description: "Height above ground, m" });
+/** Highest target height a plan may judge, m above ground. */
+export const MAX_TARGET_HEIGHT_M = 10_000;
+
+const heightAglM = quantity({
+  unit: "m",
+  min: 0,
+  max: MAX_TARGET_HEIGHT_M,
+  description: "Height above ground, m",
+});
 
 const protectedAreaSchema = record(
   {

@@ -36,6 +36,17 @@ export interface PostsDisplay {
   showExposure: boolean;
 }
 
+/** A post moved by an arrow key goes this far, m (with Shift: the second figure). */
+const KEY_STEP_M = 1;
+const KEY_STEP_SHIFT_M = 10;
+/** Azimuth of each arrow key's move, degrees from true north. */
+const KEY_AZIMUTH_DEG: Record<string, number> = {
+  ArrowUp: 0,
+  ArrowRight: 90,
+  ArrowDown: 180,
+  ArrowLeft: 270,
+};
+
 /** Screen distance of the boresight handle from the post, px. */
 const HANDLE_PX = 56;
 
@@ -243,8 +254,12 @@ export class PostsLayer extends L.LayerGroup {
         const ll = kept.marker.getLatLng();
         if (ll.lat !== p.latDeg || ll.lng !== p.lonDeg) kept.marker.setLatLng([p.latDeg, p.lonDeg]);
       } else {
+        // A marker made again (chosen, renamed) keeps the keyboard focus it had.
+        const focused = kept !== undefined && kept.marker.getElement() === document.activeElement;
         if (kept) this.marks.removeLayer(kept.marker);
-        this.markers.set(p.id, { marker: this.newMarker(p, selected, labelled.has(p.id)), look });
+        const marker = this.newMarker(p, selected, labelled.has(p.id));
+        this.markers.set(p.id, { marker, look });
+        if (focused) marker.getElement()?.focus();
       }
       if (!selected) continue;
       const d = this.handleDistanceM(p);
@@ -281,16 +296,38 @@ export class PostsLayer extends L.LayerGroup {
     this.placeExposureLabels();
   }
 
+  private onMarkerKey(id: string, marker: L.Marker, e: KeyboardEvent): void {
+    // Stopped here: the map's own keyboard handler would pan the map with the same keys.
+    if (e.key === "Enter" || e.key === " ") {
+      L.DomEvent.stop(e);
+      this.cb.onSelect(id);
+      return;
+    }
+    const az = KEY_AZIMUTH_DEG[e.key];
+    if (az === undefined) return;
+    L.DomEvent.stop(e);
+    const ll = marker.getLatLng();
+    const [lat, lon] = destinationLatLng(ll.lng, ll.lat, az, e.shiftKey ? KEY_STEP_SHIFT_M : KEY_STEP_M);
+    this.cb.onSelect(id);
+    this.cb.onDragEnd(id, lon, lat);
+  }
+
   private newMarker(p: PostView, selected: boolean, withLabel: boolean): L.Marker {
     const marker = L.marker([p.latDeg, p.lonDeg], {
       icon: postIcon(p, selected, withLabel),
       draggable: true,
       keyboard: true,
-      title: `${p.name}: drag to move`,
+      title: `${p.name}: drag, or arrow keys, to move`,
       alt: p.name,
       zIndexOffset: selected ? 1000 : 0,
     });
     marker.on("click", () => this.cb.onSelect(p.id));
+    // From the keyboard: Enter or Space chooses the post; the arrow keys move it 1 m (10 m with
+    // Shift), one plan change per key, as a drag's release.
+    marker.on("add", () => {
+      const el = marker.getElement();
+      if (el) L.DomEvent.on(el, "keydown", (e) => this.onMarkerKey(p.id, marker, e as KeyboardEvent));
+    });
     marker.on("dragstart", () => {
       this.dragging = true;
       this.cb.onSelect(p.id);

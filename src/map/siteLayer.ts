@@ -9,6 +9,9 @@ import type { BuildingFeature, ProtectedArea, TreeStand } from "../io/planSchema
 import { areaGeometryProblem } from "../io/polygonRules";
 import L from "./leaflet";
 
+/** A footprint (by its index in the plan) or a tree stand (by id), as the Site panel edits them. */
+export type ObstructionChoice = { kind: "building"; index: number } | { kind: "tree"; id: string };
+
 export interface SiteView {
   protectedAreas: ProtectedArea[];
   approachRingDepthM: number;
@@ -69,7 +72,12 @@ export class SiteLayer extends L.FeatureGroup {
   /** The renderer of many footprints; it makes its canvas only when a footprint is added to it. */
   private readonly canvas = L.canvas({ padding: 0.5 });
 
-  constructor() {
+  /**
+   * `onChoose`: a footprint or tree stand chosen from the keyboard (Enter or Space on its outline, which
+   * is in the tab order with its label as its name). On the canvas of many footprints there are no
+   * elements to focus; the mouse chooses there.
+   */
+  constructor(private readonly onChoose?: (ref: ObstructionChoice) => void) {
     super();
     this.addLayer(this.obstructions);
     this.addLayer(this.ring);
@@ -133,6 +141,27 @@ export class SiteLayer extends L.FeatureGroup {
     }
   }
 
+  /** Once drawn as SVG, the outline of `layer` is a named button that Enter or Space chooses. */
+  private keyboardChoice(layer: L.GeoJSON, label: string, ref: ObstructionChoice): void {
+    if (!this.onChoose) return;
+    const choose = this.onChoose;
+    layer.on("add", () => {
+      layer.eachLayer((part) => {
+        const el = (part as L.Path).getElement?.();
+        if (!(el instanceof SVGElement)) return;
+        el.setAttribute("tabindex", "0");
+        el.setAttribute("role", "button");
+        el.setAttribute("aria-label", `${label} (press Enter to change it)`);
+        L.DomEvent.on(el as unknown as HTMLElement, "keydown", (e) => {
+          const k = (e as KeyboardEvent).key;
+          if (k !== "Enter" && k !== " ") return;
+          L.DomEvent.stop(e);
+          choose(ref);
+        });
+      });
+    });
+  }
+
   private drawObstructions(v: SiteView): void {
     this.obstructions.clearLayers();
     this.buildingLayers = [];
@@ -147,6 +176,7 @@ export class SiteLayer extends L.FeatureGroup {
       });
       // The tooltip's element is made when it first opens: ten thousand footprints, ten thousand spans.
       layer.bindTooltip(() => textTooltip(buildingLabel(b, i)), { sticky: true });
+      this.keyboardChoice(layer, buildingLabel(b, i), { kind: "building", index: i });
       this.buildingLayers.push(layer);
       this.obstructions.addLayer(layer);
     });
@@ -155,9 +185,9 @@ export class SiteLayer extends L.FeatureGroup {
         ...renderer,
         style: t.id === v.selectedTreeId ? { ...TREE_STYLE, ...SELECTED_OUTLINE } : TREE_STYLE,
       });
-      layer.bindTooltip(() => textTooltip(`${t.name ?? t.id}: canopy ${t.canopyHeightM} m`), {
-        sticky: true,
-      });
+      const label = `${t.name ?? t.id}: canopy ${t.canopyHeightM} m`;
+      layer.bindTooltip(() => textTooltip(label), { sticky: true });
+      this.keyboardChoice(layer, label, { kind: "tree", id: t.id });
       this.treeLayers.set(t.id, layer);
       this.obstructions.addLayer(layer);
     }

@@ -33,3 +33,35 @@ export function formatLocalMinute(at: Date): string {
 
 /** Memory as the run size and its refusal state it (siteGrid.ts). */
 export { formatMemory } from "../io/siteGrid";
+
+/** A number as typed into a field: its value, or why it is none. */
+export type TypedNumber = { ok: true; value: number } | { ok: false; reason: string };
+
+const PLAIN_NUMBER = /^[+-]?(?:\d+(?:[.,]\d*)?|[.,]\d+)(?:e[+-]?\d+)?$/i;
+const FRACTION = /^([+-]?\d+(?:\.\d+)?)\/(\d+(?:\.\d+)?)$/;
+/** "1,000" or "12,500": a comma before exactly three digits could be a thousands separator. */
+const THOUSANDS_LIKE = /^[+-]?\d{1,3},\d{3}$/;
+
+/**
+ * Reads a typed number: decimals with a point or a decimal comma, exponents (1e-6) and simple
+ * fractions (4/3). Refused with a reason: empty text, hexadecimal or binary literals, spaces inside,
+ * and a comma before exactly three digits, which may be a thousands separator ("1,000").
+ */
+export function parseTypedNumber(text: string): TypedNumber {
+  const t = text.trim();
+  if (t === "") return { ok: false, reason: "is empty" };
+  const fraction = FRACTION.exec(t);
+  if (fraction) {
+    const v = Number(fraction[1]) / Number(fraction[2]);
+    return Number.isFinite(v) ? { ok: true, value: v } : { ok: false, reason: `"${t}" divides by zero` };
+  }
+  if (THOUSANDS_LIKE.test(t)) {
+    return {
+      ok: false,
+      reason: `"${t}" is ambiguous: write it without a thousands separator (use a point or a comma for decimals)`,
+    };
+  }
+  if (!PLAIN_NUMBER.test(t)) return { ok: false, reason: `"${t}" is not a number` };
+  const v = Number(t.replace(",", "."));
+  return Number.isFinite(v) ? { ok: true, value: v } : { ok: false, reason: `"${t}" is not a finite number` };
+}

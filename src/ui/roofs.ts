@@ -5,6 +5,7 @@
 import booleanPointInPolygon from "@turf/boolean-point-in-polygon";
 import { roofHeightOf } from "../io/buildingHeight";
 import type { AreaGeometry, Plan } from "../io/planSchema";
+import type { ObstructionChoice } from "../map/siteLayer";
 
 function inside(lonDeg: number, latDeg: number, g: AreaGeometry): boolean {
   const pt = { type: "Point" as const, coordinates: [lonDeg, latDeg] };
@@ -24,11 +25,8 @@ export function roofUnder(
   return null;
 }
 
-/** The obstruction a click selects: a building (by index, as features may carry no id) or a tree stand. */
-export type ObstructionRef = { kind: "building"; index: number } | { kind: "tree"; id: string };
-
 /** The building under the point, else the tree stand, else null. */
-export function obstructionUnder(plan: Plan, lonDeg: number, latDeg: number): ObstructionRef | null {
+export function obstructionUnder(plan: Plan, lonDeg: number, latDeg: number): ObstructionChoice | null {
   const roof = roofUnder(plan, lonDeg, latDeg);
   if (roof) return { kind: "building", index: roof.index };
   const t = plan.terrain.treeStands.find((s) => inside(lonDeg, latDeg, s.geometry));

@@ -3,7 +3,7 @@
  * what is shown, what is selected, the active tool, messages, and the drag preview.
  */
 import { create } from "zustand";
-import type { ObstructionRef } from "./roofs";
+import type { ObstructionChoice } from "../map/siteLayer";
 
 export type LayerKind = "combined" | "single" | "overlap" | "lowest";
 export type Tool = "select" | "post" | "area" | "hole" | "building" | "tree" | "inspect";
@@ -34,7 +34,7 @@ export interface SessionState {
   singlePostId: string | null;
   selectedPostId: string | null;
   /** The building or tree stand chosen on the map for editing (Site panel). */
-  selectedObstruction: ObstructionRef | null;
+  selectedObstruction: ObstructionChoice | null;
   /** A plan tab to bring forward (e.g. after a click on the map chose something it edits); seq repeats a request. */
   planTabRequest: { id: string; seq: number } | null;
   tool: Tool;

@@ -27,7 +27,7 @@ const display = { showSectors: true, showExposure: false };
 function markerElements(map: L.Map): Map<string, Element> {
   const out = new Map<string, Element>();
   for (const el of map.getContainer().querySelectorAll(".post-icon"))
-    out.set((el.getAttribute("title") ?? "").replace(/: drag to move$/, ""), el);
+    out.set((el.getAttribute("title") ?? "").replace(/: drag, or arrow keys, to move$/, ""), el);
   return out;
 }
 
@@ -88,5 +88,45 @@ describe("posts layer", () => {
     layer.setPosts([post("a", 8.0, 47.0), post("b", 8.003, 47.001)], null, display);
     expect(sectorPaths().length).toBe(2);
     map.remove();
+  });
+
+  it("chooses a post with Enter or Space and moves it with the arrow keys, keeping the focus", () => {
+    const map = mapOnPage();
+    const chosen: string[] = [];
+    const moves: [string, number, number][] = [];
+    const layer = new PostsLayer({
+      ...callbacks,
+      onSelect: (id) => chosen.push(id),
+      onDragEnd: (id, lon, lat) => moves.push([id, lon, lat]),
+    });
+    layer.addTo(map);
+    const posts = [post("a", 8.0, 47.0), post("b", 8.002, 47.001)];
+    layer.setPosts(posts, null, display);
+    const el = markerElements(map).get("b") as HTMLElement;
+    const key = (target: HTMLElement, k: string, shiftKey = false) => {
+      const e = new KeyboardEvent("keydown", { key: k, shiftKey, bubbles: true, cancelable: true });
+      target.dispatchEvent(e);
+      return e.defaultPrevented;
+    };
+    expect(key(el, "Enter")).toBe(true);
+    expect(key(el, " ")).toBe(true);
+    expect(chosen).toEqual(["b", "b"]);
+    // Chosen, the marker is made again (its look changed) and keeps the focus.
+    el.focus();
+    layer.setPosts(posts, "b", display);
+    const again = markerElements(map).get("b") as HTMLElement;
+    expect(again).not.toBe(el);
+    expect(document.activeElement).toBe(again);
+    // North 1 m, then east 10 m with Shift: 1 m of latitude is 1/111 km of a degree (from memory,
+    // about 111.2 km per degree), 10 m of longitude at 47° N is 10 / (111.2 km · cos 47°).
+    expect(key(again, "ArrowUp")).toBe(true);
+    expect(key(again, "ArrowRight", true)).toBe(true);
+    expect(moves[0][0]).toBe("b");
+    expect((moves[0][2] - 47.001) * 111_200).toBeCloseTo(1, 1);
+    expect(moves[0][1]).toBeCloseTo(8.002, 9);
+    expect((moves[1][1] - 8.002) * 111_200 * Math.cos((47.001 * Math.PI) / 180)).toBeCloseTo(10, 1);
+    // Other keys are left to the page (Tab moves on, the map pans with its own keys elsewhere).
+    expect(key(again, "Tab")).toBe(false);
+    expect(moves).toHaveLength(2);
   });
 });

@@ -52,6 +52,31 @@ describe("site layer", () => {
     map.remove();
   });
 
+  it("puts each outline in the tab order, named by its label, and Enter or Space chooses it", () => {
+    const map = mapOnPage();
+    const chosen: unknown[] = [];
+    const layer = new SiteLayer((ref) => chosen.push(ref)).addTo(map);
+    layer.setSite(base);
+    const outlines = footprints(layer).map((p) => p.getElement() as SVGElement | undefined);
+    expect(outlines.map((el) => el?.getAttribute("aria-label"))).toEqual([
+      "Building 1: 10 m (press Enter to change it)",
+      "Building 2: 11 m (press Enter to change it)",
+      "Building 3: 12 m (press Enter to change it)",
+      "t1: canopy 15 m (press Enter to change it)",
+    ]);
+    expect(
+      outlines.every((el) => el?.getAttribute("tabindex") === "0" && el.getAttribute("role") === "button"),
+    ).toBe(true);
+    outlines[1]?.dispatchEvent(new KeyboardEvent("keydown", { key: "Enter", bubbles: true }));
+    outlines[3]?.dispatchEvent(new KeyboardEvent("keydown", { key: " ", bubbles: true }));
+    outlines[0]?.dispatchEvent(new KeyboardEvent("keydown", { key: "a", bubbles: true }));
+    expect(chosen).toEqual([
+      { kind: "building", index: 1 },
+      { kind: "tree", id: "t1" },
+    ]);
+    map.remove();
+  });
+
   it("shows a footprint's tooltip, made when it opens, with the imported name as text, never as HTML", () => {
     const map = mapOnPage();
     const layer = new SiteLayer().addTo(map);

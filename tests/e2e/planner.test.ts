@@ -208,7 +208,7 @@ describe.skipIf(!RUN)("planner in the browser", { timeout: 60_000 }, () => {
             .textContent()
             .catch(() => "")) ?? "",
       )
-      .toMatch(/Required Pd: 2 .* is above 0\.999/);
+      .toMatch(/^Required Pd: 2 is above 0\.999$/);
     const g1 = await gen(page);
     await page.getByTestId("undo").click();
     await waitNewRun(page, g1);

@@ -1,5 +1,11 @@
 import { describe, expect, it } from "vitest";
-import { formatDb, formatLatLon, formatLocalMinute, formatMemory } from "../../src/ui/numberText";
+import {
+  formatDb,
+  formatLatLon,
+  formatLocalMinute,
+  formatMemory,
+  parseTypedNumber,
+} from "../../src/ui/numberText";
 
 describe("shown numbers", () => {
   it("writes hemispheres as letters, never a minus sign before N or E", () => {
@@ -26,5 +32,25 @@ describe("shown numbers", () => {
   it("writes a time to the minute in the local zone", () => {
     // Built from local fields, so the test holds in every time zone.
     expect(formatLocalMinute(new Date(2026, 11, 3, 7, 5, 59))).toBe("2026-12-03 07:05");
+  });
+  it("reads typed numbers with a decimal point or comma and fractions, and refuses what could mislead", () => {
+    const value = (t: string) => {
+      const r = parseTypedNumber(t);
+      return r.ok ? r.value : r.reason;
+    };
+    expect(value(" 12.5 ")).toBe(12.5);
+    expect(value("12,5")).toBe(12.5);
+    expect(value("1e3")).toBe(1000);
+    expect(value("4/3")).toBeCloseTo(4 / 3, 15);
+    expect(value("-0.25")).toBe(-0.25);
+    expect(value("0x10")).toBe('"0x10" is not a number');
+    expect(value("0b101")).toBe('"0b101" is not a number');
+    expect(value("20 000")).toBe('"20 000" is not a number');
+    expect(value("1,000")).toBe(
+      '"1,000" is ambiguous: write it without a thousands separator (use a point or a comma for decimals)',
+    );
+    expect(value("1/0")).toBe('"1/0" divides by zero');
+    expect(value("")).toBe("is empty");
+    expect(value("1e999")).toBe('"1e999" is not a finite number');
   });
 });

@@ -4,6 +4,7 @@
  * plan keeps its value.
  */
 import { useEffect, useId, useState } from "react";
+import { parseTypedNumber } from "../numberText";
 
 export interface NumberFieldProps {
   label: string;
@@ -32,12 +33,13 @@ export function NumberField(p: NumberFieldProps) {
   const commit = () => {
     // Untouched (e.g. focus passing through): no change, even where the shown value is rounded.
     if (text === shown(p.value)) return setError(null);
-    const v = Number(text.trim().replace(",", "."));
-    if (text.trim() === "" || !Number.isFinite(v)) return setError(`${p.label}: "${text}" is not a number`);
-    if (p.min !== undefined && v < p.min)
-      return setError(`${p.label}: ${v} ${p.unit} is below ${p.min} ${p.unit}`);
-    if (p.max !== undefined && v > p.max)
-      return setError(`${p.label}: ${v} ${p.unit} is above ${p.max} ${p.unit}`);
+    const typed = parseTypedNumber(text);
+    if (!typed.ok) return setError(`${p.label}: ${typed.reason}`);
+    const v = typed.value;
+    // A hint in parentheses beside the field, "(0–1)", is no unit to repeat in a message.
+    const u = p.unit.startsWith("(") ? "" : ` ${p.unit}`;
+    if (p.min !== undefined && v < p.min) return setError(`${p.label}: ${v}${u} is below ${p.min}${u}`);
+    if (p.max !== undefined && v > p.max) return setError(`${p.label}: ${v}${u} is above ${p.max}${u}`);
     setError(null);
     if (v !== p.value) p.onCommit(v);
   };

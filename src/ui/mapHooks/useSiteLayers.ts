@@ -3,11 +3,18 @@ import { useEffect, useMemo } from "react";
 import type L from "../../map/leaflet";
 import { SiteLayer } from "../../map/siteLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
-import { useSession } from "../session";
+import { planTabPatch, useSession } from "../session";
 import { usePlanStore } from "../store";
 
 export function useSiteLayers(map: L.Map | null): void {
-  const layer = useMemo(() => new SiteLayer(), []);
+  // Chosen from the keyboard as a click chooses it (useMapClicks): its editor under Site.
+  const layer = useMemo(
+    () =>
+      new SiteLayer((ref) =>
+        useSession.getState().set({ selectedObstruction: ref, ...planTabPatch("site") }),
+      ),
+    [],
+  );
   useMapLayer(map, layer);
   // The parts of the plan this layer draws, each kept by reference across edits of other parts: a
   // post moved leaves them as they are, and the layer (with its ring buffered by turf) is not rebuilt.

@@ -2,7 +2,8 @@
  * Analysis settings: cell size, effective-Earth factor, target heights, masking mode; the grid size and
  * the memory a run needs are shown before the run, and a run that would not fit is refused.
  */
-import { useId, useMemo, useState } from "react";
+import { useEffect, useId, useMemo, useState } from "react";
+import { MAX_TARGET_HEIGHT_M } from "../../io/planSchema";
 import {
   cellSizeToFitM,
   checkRunMemory,
@@ -16,20 +17,48 @@ import { formatMemory } from "../numberText";
 import { setAnalysisHeights } from "../planEdits";
 import { usePlanStore } from "../store";
 
+/**
+ * Heights typed as a list, m: separated by commas or semicolons (a space inside one is an error, so
+ * "20 000" is not read as 20 and 0), each 0–MAX_TARGET_HEIGHT_M; sorted, without repeats.
+ */
+export function parseHeightsList(
+  text: string,
+): { ok: true; heights: number[] } | { ok: false; reason: string } {
+  const parts = text
+    .split(/[,;]/)
+    .map((t) => t.trim())
+    .filter((t) => t !== "");
+  if (parts.length === 0) return { ok: false, reason: "give at least one height, m, separated by commas" };
+  const heights: number[] = [];
+  for (const part of parts) {
+    const v = /^[+-]?(\d+(\.\d*)?|\.\d+)$/.test(part) ? Number(part) : Number.NaN;
+    if (!(v >= 0 && v <= MAX_TARGET_HEIGHT_M)) {
+      return {
+        ok: false,
+        reason: `"${part}" must be a number from 0 to ${MAX_TARGET_HEIGHT_M} m (separate heights with commas)`,
+      };
+    }
+    heights.push(v);
+  }
+  return { ok: true, heights: [...new Set(heights)].sort((a, b) => a - b) };
+}
+
 function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: number[]) => void }) {
   const id = useId();
-  const [text, setText] = useState(heights.join(", "));
+  const shown = heights.join(", ");
+  const [text, setText] = useState(shown);
   const [error, setError] = useState<string | null>(null);
-  const commit = () => {
-    const parts = text
-      .split(/[,;\s]+/)
-      .filter(Boolean)
-      .map(Number);
-    const bad = parts.find((h) => !(Number.isFinite(h) && h >= 0 && h <= 10000));
-    if (parts.length === 0 || bad !== undefined)
-      return setError(`Target heights: "${text}" must be numbers 0–10000 m, comma separated`);
+  // After an undo, a redo or another change of the plan, the field shows the plan's heights.
+  useEffect(() => {
+    setText(shown);
     setError(null);
-    onCommit(parts);
+  }, [shown]);
+  const commit = () => {
+    const r = parseHeightsList(text);
+    if (!r.ok) return setError(`Target heights: ${r.reason}`);
+    setError(null);
+    // The same heights again (a blur after Enter, focus passing through) are no change, no undo step.
+    if (r.heights.join(",") !== [...new Set(heights)].sort((a, b) => a - b).join(",")) onCommit(r.heights);
   };
   return (
     <div className="field">

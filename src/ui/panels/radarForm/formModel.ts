@@ -7,6 +7,7 @@
  */
 import type { PatternCut, RadarModel } from "../../../coverage/radarModel";
 import type { FieldError } from "../../../io/schemaFields";
+import { parseTypedNumber } from "../../numberText";
 
 /** A display unit: its symbol, the SI unit the model stores, and how many of those one of it is (GHz: 1e9 Hz). */
 export interface DisplayUnit {
@@ -48,14 +49,13 @@ export function siToText(si: number | undefined, unit: DisplayUnit): string {
 
 /**
  * Typed text in a display unit to the SI value: undefined for empty text, NaN for text that is not a
- * number. A decimal comma is accepted.
+ * number (as parseTypedNumber reads it: a decimal comma and 4/3 are accepted, 0x10 and 1,000 are not).
  */
 export function textToSi(text: string, unit: DisplayUnit): number | undefined {
-  const t = text.trim().replace(",", ".");
-  if (t === "") return undefined;
-  const v = Number(t);
-  if (!Number.isFinite(v)) return Number.NaN;
-  return Number((v * unit.siPerUnit).toPrecision(SIGNIFICANT_DIGITS));
+  if (text.trim() === "") return undefined;
+  const typed = parseTypedNumber(text);
+  if (!typed.ok) return Number.NaN;
+  return Number((typed.value * unit.siPerUnit).toPrecision(SIGNIFICANT_DIGITS));
 }
 
 const NUMBER = String.raw`-?(?:\d+\.?\d*|\.\d+)(?:e[+-]?\d+)?`;
