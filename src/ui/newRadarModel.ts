@@ -5,6 +5,7 @@
  * user's own. Not an example product: it carries no `invented` flag, and its name says what it is.
  */
 import type { RadarModel } from "../coverage/radarModel";
+import { MAX_NAME_CHARS } from "../io/schemaFields";
 import { freshId } from "./store";
 
 export const NEW_RADAR_MODEL_NAME = "New radar model";
@@ -31,3 +32,20 @@ export function newRadarModel(existing: ReadonlyArray<{ id: string }>): RadarMod
     maxInstrumentedRangeM: 3000,
   };
 }
+
+/**
+ * A model read from a file as the library takes it: as it is, or, when its id is taken, under a new
+ * id, and then with " (imported)" after a name already in the library, so that the list and the
+ * posts' model choice never show two entries alike.
+ */
+export function importedRadarModel(existing: ReadonlyArray<RadarModel>, model: RadarModel): RadarModel {
+  if (!existing.some((m) => m.id === model.id)) return model;
+  const id = freshId(model.id, existing);
+  const taken = existing.some((m) => m.name === model.name);
+  const name = taken
+    ? `${model.name.slice(0, MAX_NAME_CHARS - IMPORTED_SUFFIX.length)}${IMPORTED_SUFFIX}`
+    : model.name;
+  return { ...model, id, name };
+}
+
+const IMPORTED_SUFFIX = " (imported)";

@@ -65,3 +65,9 @@ export function parseTypedNumber(text: string): TypedNumber {
   const v = Number(t.replace(",", "."));
   return Number.isFinite(v) ? { ok: true, value: v } : { ok: false, reason: `"${t}" is not a finite number` };
 }
+
+/** An azimuth rounded to the 0.1° the panels show, in [0, 360): 359.96° is 0.0°, never 360.0°. */
+export function tenthOfDegree(azDeg: number): number {
+  const r = Math.round(azDeg * 10) / 10;
+  return r >= 360 ? 0 : r;
+}

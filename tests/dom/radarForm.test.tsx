@@ -8,7 +8,7 @@ import patchFmcw from "../../demo-sites/radars/mossbee-58-patch-fmcw.json";
 import staringFmcw from "../../demo-sites/radars/zorvane-s24-staring-fmcw.json";
 import type { RadarModel } from "../../src/coverage/radarModel";
 import { parseRadarModel } from "../../src/io/radarSchema";
-import { NEW_RADAR_MODEL_NAME } from "../../src/ui/newRadarModel";
+import { importedRadarModel, NEW_RADAR_MODEL_NAME, newRadarModel } from "../../src/ui/newRadarModel";
 import { RadarsPanel } from "../../src/ui/panels/RadarsPanel";
 import { derivedFigures } from "../../src/ui/panels/radarForm/derivedFigures";
 import {
@@ -338,5 +338,19 @@ describe("radar form in the DOM", () => {
     await act(async () => buttons()[1].click());
     expect(applied.at(-1)?.txAntenna.elCut?.relativeGainDb).toEqual([-2, 0, -2.5]);
     expect(host.textContent).toMatch(/el\.csv: gains were normalised/);
+  });
+});
+
+describe("a radar model file imported into the library", () => {
+  it("keeps a new model as it is; one whose id is taken gets a new id, and a name apart if that is taken too", () => {
+    const existing = [newRadarModel([])];
+    const other = { ...existing[0], id: "other-model", name: "Other" };
+    expect(importedRadarModel(existing, other)).toBe(other);
+    const again = importedRadarModel(existing, structuredClone(existing[0]));
+    expect(again.id).not.toBe(existing[0].id);
+    expect(again.name).toBe(`${NEW_RADAR_MODEL_NAME} (imported)`);
+    const renamed = importedRadarModel(existing, { ...existing[0], name: "Bench copy" });
+    expect(renamed.name).toBe("Bench copy");
+    expect(renamed.id).not.toBe(existing[0].id);
   });
 });

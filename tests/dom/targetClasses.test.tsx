@@ -44,4 +44,27 @@ describe("target classes", () => {
     expect(removeTargetClass(one, one.targetClasses[0].id)).toBe(one);
     await act(async () => root.unmount());
   });
+
+  it("locks a class's last height with the reason, and frees it when another is ticked", async () => {
+    const plan = samplePlan();
+    const h = plan.analysis.targetHeightsM;
+    plan.targetClasses = [{ ...plan.targetClasses[0], heightsAglM: [h[0]] }];
+    usePlanStore.getState().load(plan);
+    const host = document.createElement("div");
+    document.body.append(host);
+    const root = createRoot(host);
+    await act(async () => root.render(<TargetsPanel />));
+    const box = (m: number) =>
+      Array.from(host.querySelectorAll(".field-check")).find(
+        (f) => f.textContent === `${m} m AGL`,
+      ) as HTMLElement;
+    const input = (m: number) => box(m).querySelector("input") as HTMLInputElement;
+    expect(input(h[0]).disabled).toBe(true);
+    expect(box(h[0]).title).toBe("A class is judged at one height at least: tick another first");
+    await act(async () => input(h[1]).click());
+    expect((usePlanStore.getState().plan as Plan).targetClasses[0].heightsAglM).toEqual([h[0], h[1]]);
+    expect(input(h[0]).disabled).toBe(false);
+    expect(box(h[0]).title).toBe("");
+    await act(async () => root.unmount());
+  });
 });

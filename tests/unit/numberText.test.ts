@@ -5,6 +5,7 @@ import {
   formatLocalMinute,
   formatMemory,
   parseTypedNumber,
+  tenthOfDegree,
 } from "../../src/ui/numberText";
 
 describe("shown numbers", () => {
@@ -52,5 +53,11 @@ describe("shown numbers", () => {
     expect(value("1/0")).toBe('"1/0" divides by zero');
     expect(value("")).toBe("is empty");
     expect(value("1e999")).toBe('"1e999" is not a finite number');
+  });
+  it("keeps azimuths to the shown tenth of a degree in [0, 360)", () => {
+    expect(tenthOfDegree(359.96)).toBe(0);
+    expect(tenthOfDegree(359.94)).toBe(359.9);
+    expect(tenthOfDegree(90.04)).toBe(90);
+    expect(tenthOfDegree(0)).toBe(0);
   });
 });

@@ -142,14 +142,17 @@ export function CheckField(p: {
   checked: boolean;
   onChange: (v: boolean) => void;
   testId?: string;
+  /** Shown as the reason the box cannot be changed; the box is disabled while it is set. */
+  lockedBecause?: string;
 }) {
   const id = useId();
   return (
-    <div className="field field-check">
+    <div className="field field-check" title={p.lockedBecause}>
       <input
         id={id}
         type="checkbox"
         checked={p.checked}
+        disabled={p.lockedBecause !== undefined}
         data-testid={p.testId}
         onChange={(e) => p.onChange(e.target.checked)}
       />

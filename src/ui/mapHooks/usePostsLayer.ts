@@ -11,6 +11,7 @@ import type L from "../../map/leaflet";
 import { PostsLayer, type PostView } from "../../map/postsLayer";
 import { useMapLayer } from "../../map/useLeafletMap";
 import { computeReleaseAhead, evaluateScheduledNow, runEvaluation } from "../engine";
+import { tenthOfDegree } from "../numberText";
 import { updatePost } from "../planEdits";
 import { movedPost, movePostTo } from "../postMoves";
 import { planTabPatch, useSession } from "../session";
@@ -100,7 +101,7 @@ export function usePostsLayer(map: L.Map | null): void {
         onBoresight: (id, azDeg, done) => {
           const plan = usePlanStore.getState().plan;
           if (!plan) return;
-          const az = Math.round(azDeg * 10) / 10 === 360 ? 0 : Math.round(azDeg * 10) / 10;
+          const az = tenthOfDegree(azDeg);
           if (done) {
             previewRef.current = null;
             usePlanStore.getState().change((p) => updatePost(p, id, { boresightAzDeg: az }), "turn post");

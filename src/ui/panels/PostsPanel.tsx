@@ -3,7 +3,7 @@ import type { Post } from "../../io/planSchema";
 import { radarModelOfPost } from "../../io/planValidation";
 import { UTM_MAX_LAT_DEG, UTM_MIN_LAT_DEG } from "../../io/siteGrid";
 import { CheckField, NumberField, SelectField, TextField } from "../components/NumberField";
-import { formatLatLon } from "../numberText";
+import { formatLatLon, tenthOfDegree } from "../numberText";
 import { removePost, updatePost } from "../planEdits";
 import { movePostTo } from "../postMoves";
 import { useSession } from "../session";
@@ -68,7 +68,8 @@ function PostEditor({ post }: { post: Post }) {
         max={359.99}
         digits={1}
         value={post.boresightAzDeg}
-        onCommit={(v) => edit({ boresightAzDeg: v }, "boresight")}
+        // Kept to the 0.1° shown (as the map's handle turns it): 359.96° is 0.0°, not a hidden 360.0°.
+        onCommit={(v) => edit({ boresightAzDeg: tenthOfDegree(v) }, "boresight")}
         testId="post-boresight"
       />
       <NumberField

@@ -8,7 +8,7 @@ import { useCallback, useRef, useState } from "react";
 import { radarRangeWindowM } from "../../coverage/coverage";
 import type { RadarModel } from "../../coverage/radarModel";
 import { loadRadarModelFile } from "../../io/radarFile";
-import { newRadarModel } from "../newRadarModel";
+import { importedRadarModel, newRadarModel } from "../newRadarModel";
 import { say } from "../session";
 import { freshId, usePlanStore } from "../store";
 import { RadarModelForm } from "./radarForm/RadarModelForm";
@@ -99,9 +99,7 @@ export function RadarsPanel() {
         `${file.name} is not a valid radar model; nothing was added.`,
         r.errors.map((e) => `${e.path}: ${e.message}`),
       );
-    const m = plan.radarModels.some((x) => x.id === r.model.id)
-      ? { ...r.model, id: freshId(r.model.id, plan.radarModels) }
-      : r.model;
+    const m = importedRadarModel(plan.radarModels, r.model);
     change((p) => ({ ...p, radarModels: [...p.radarModels, m] }), "import radar model");
     setSelected(m.id);
   };

@@ -48,6 +48,11 @@ function ClassEditor({ t, heights, only }: { t: TargetClass; heights: number[]; 
               key={h}
               label={`${h} m AGL`}
               checked={t.heightsAglM.includes(h)}
+              lockedBecause={
+                t.heightsAglM.length === 1 && t.heightsAglM[0] === h
+                  ? "A class is judged at one height at least: tick another first"
+                  : undefined
+              }
               onChange={(on) => {
                 const next = on
                   ? [...t.heightsAglM, h].sort((a, b) => a - b)
