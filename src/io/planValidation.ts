@@ -158,12 +158,44 @@ export function parsePlan(json: unknown): ParsePlanResult {
   }
 }
 
-/** Parse and validate the text of a plan file; JSON syntax errors are named by line and column. */
+/** The lists whose items carry a display name, and what an item is called in a message. */
+const NAMED_LISTS: Record<string, string> = {
+  posts: "post",
+  protectedAreas: "protected area",
+  targetClasses: "target class",
+  radarModels: "radar model",
+};
+
+/**
+ * Errors of a plan document with the named item each lies in said after the message
+ * (`posts[3].mastHeightM: 5200 is above the 300 m limit (post "South gate")`), read from the
+ * document as it stands, so that a long list need not be counted by hand.
+ */
+export function withItemNames(errors: readonly PlanError[], doc: unknown): PlanError[] {
+  return errors.map((e) => {
+    const m = /^([A-Za-z]+)\[(\d+)\]/.exec(e.path);
+    const what = m ? NAMED_LISTS[m[1]] : undefined;
+    if (!m || what === undefined) return e;
+    const list = (doc as Record<string, unknown> | null)?.[m[1]];
+    const name = Array.isArray(list)
+      ? (list[Number(m[2])] as { name?: unknown } | undefined)?.name
+      : undefined;
+    return typeof name === "string" && name !== "" && e.path !== `${m[0]}.name`
+      ? { ...e, message: `${e.message} (${what} ${JSON.stringify(name)})` }
+      : e;
+  });
+}
+
+/**
+ * Parse and validate the text of a plan file; JSON syntax errors are named by line and column, and
+ * field errors by the named item they lie in (withItemNames).
+ */
 export function loadPlanFile(text: string): ParsePlanResult {
   const json = parseJsonText(text);
   if (!json.ok)
     return { ok: false, errors: [{ path: "(file)", message: formatJsonSyntaxError(json.error) }] };
-  return parsePlan(json.value);
+  const r = parsePlan(json.value);
+  return r.ok ? r : { ok: false, errors: withItemNames(r.errors, json.value) };
 }
 
 /** The radar model a post of a validated plan uses (inline, or by id from plan.radarModels). */

@@ -6,7 +6,7 @@
 import { formatJsonSyntaxError, parseJsonText } from "../io/jsonText";
 import type { Plan } from "../io/planSchema";
 import { PLAN_VERSION } from "../io/planSchema";
-import { parsePlan } from "../io/planValidation";
+import { parsePlan, withItemNames } from "../io/planValidation";
 
 export type PlanTextResult = { ok: true; plan: Plan } | { ok: false; message: string; details: string[] };
 
@@ -32,7 +32,9 @@ export function readPlanText(text: string, fileName: string): PlanTextResult {
     return {
       ok: false,
       message: `${fileName} has ${parsed.errors.length} problem${parsed.errors.length === 1 ? "" : "s"}; the plan on screen was kept`,
-      details: parsed.errors.map((e) => (e.path ? `${e.path}: ${e.message}` : e.message)),
+      details: withItemNames(parsed.errors, json.value).map((e) =>
+        e.path ? `${e.path}: ${e.message}` : e.message,
+      ),
     };
   }
   return { ok: true, plan: parsed.plan };

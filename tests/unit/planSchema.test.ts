@@ -346,6 +346,17 @@ describe("plan format", () => {
     expect(migratePlan([]).ok).toBe(false);
   });
 
+  it("[PF9] plan file text: a field error names the item it lies in, read from the file", () => {
+    const p = v1();
+    p.posts[1].mastHeightM = 5200;
+    p.posts[0].name = "";
+    const r = loadPlanFile(JSON.stringify(p));
+    expect(r.ok ? [] : r.errors.map((e) => `${e.path}: ${e.message}`)).toEqual([
+      "posts[0].name: must not be empty",
+      `posts[1].mastHeightM: 5200 is above the 300 m limit (post ${JSON.stringify(p.posts[1].name)})`,
+    ]);
+  });
+
   it("[PF9] plan file text: syntax errors by line and column", () => {
     const broken = v1Text.replace('"approachRingDepthM": 1500,', '"approachRingDepthM": 1500');
     const r = loadPlanFile(broken);
