@@ -301,7 +301,7 @@ export const radarModelSchema = record(
     ctx.addIssue({
       code: "custom",
       path: ["maxInstrumentedRangeM"],
-      message: `${m.maxInstrumentedRangeM} m is not beyond blindZoneM (${m.blindZoneM} m)`,
+      message: `${m.maxInstrumentedRangeM} m is not beyond the blind zone, blindZoneM (${m.blindZoneM} m)`,
     });
   }
 });

@@ -102,8 +102,8 @@ describe("radar form errors go beside the field their path names", () => {
     expect(messageInUnit("0.00002 s at 100000 Hz is a duty cycle of 2.00 (must be ≤ 1)", UNITS.us)).toBe(
       "20 µs at 100000 Hz is a duty cycle of 2.00 (must be ≤ 1)",
     );
-    expect(messageInUnit("100 m is not beyond blindZoneM (150 m)", UNITS.km)).toBe(
-      "0.1 km is not beyond blindZoneM (0.15 km)",
+    expect(messageInUnit("100 m is not beyond the blind zone, blindZoneM (150 m)", UNITS.km)).toBe(
+      "0.1 km is not beyond the blind zone, blindZoneM (0.15 km)",
     );
     expect(messageInUnit("must be > 0 W (got -5)", UNITS.w)).toBe("must be > 0 W (got -5)");
     // Beside the field, through the error routing.

@@ -82,7 +82,7 @@ describe("radar model files", () => {
     m2.maxInstrumentedRangeM = 3;
     const r2 = parseRadarModel(m2);
     expect(r2.ok ? [] : r2.errors).toEqual([
-      { path: "maxInstrumentedRangeM", message: "3 m is not beyond blindZoneM (5 m)" },
+      { path: "maxInstrumentedRangeM", message: "3 m is not beyond the blind zone, blindZoneM (5 m)" },
     ]);
 
     const m3 = example();
