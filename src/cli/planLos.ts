@@ -14,7 +14,7 @@ import type { Grid } from "../coverage/grid.ts";
 import { computeHorizon, lowestVisibleHeightAglM, visibleMask } from "../coverage/terrainMask.ts";
 import { crsFromEpsg, geoKeysOf, geotransformOf, readGeoTiffDem } from "../io/demGeotiff.ts";
 import { encodeGeoTiff } from "../io/exportGeoTiff.ts";
-import { isImportError } from "../io/importErrors.ts";
+import { errorText, isImportError } from "../io/importErrors.ts";
 import { type Opts, parseLatLon, parseMaskMode, parseNumber, UsageError } from "./args.ts";
 import { readBinaryFile, writeOutputFile } from "./cliFiles.ts";
 
@@ -26,7 +26,7 @@ async function demOnOwnGrid(path: string): Promise<{ grid: Grid; epsg: number }>
   try {
     image = await (await fromArrayBuffer(buffer)).getImage(0);
   } catch (e) {
-    throw new UsageError("--dem", `${path} is not a readable GeoTIFF (${(e as Error).message})`);
+    throw new UsageError("--dem", `${path} is not a readable GeoTIFF (${errorText(e)})`);
   }
   try {
     const epsg = Number(geoKeysOf(image, file)?.ProjectedCSTypeGeoKey);

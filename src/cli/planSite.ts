@@ -10,7 +10,7 @@ import { ObserverOutsideGridError } from "../coverage/terrainMask.ts";
 import { encodeGeoTiff } from "../io/exportGeoTiff.ts";
 import { coverageTableLines, metricsDocument } from "../io/exportMetrics.ts";
 import { isImportError } from "../io/importErrors.ts";
-import type { Plan } from "../io/planSchema.ts";
+import { MAX_TARGET_HEIGHT_M, type Plan } from "../io/planSchema.ts";
 import { formatPlanErrors, loadPlanFile } from "../io/planValidation.ts";
 import { type LoadedDem, PrepareError, preparePlan } from "../io/preparePlan.ts";
 import { type SiteGrid, SiteGridError } from "../io/siteGrid.ts";
@@ -165,7 +165,7 @@ export async function evaluateCommand(planPath: string, o: Opts): Promise<void> 
 
 export async function pointCommand(planPath: string, o: Opts): Promise<void> {
   const at = parseLatLon("--at", o.at);
-  const heightAglM = parseNumber("--height-m", o.heightM, { min: 0, max: 10_000, unit: "m" });
+  const heightAglM = parseNumber("--height-m", o.heightM, { min: 0, max: MAX_TARGET_HEIGHT_M, unit: "m" });
   const { site, grid } = await prepare(planPath);
   const [x, y] = grid.toGrid(at.lon, at.lat);
   let res: ReturnType<typeof evaluatePoint>;

@@ -365,12 +365,12 @@ function checkGeoJsonCrs(obj: Record<string, unknown>, file: string): void {
   );
 }
 
-/** Polygons of a geometry (Polygon, MultiPolygon, or those inside a GeometryCollection). */
 /** " (id)" after a feature's path in a note, or nothing when the feature has no id of its own. */
 function idText(path: string, id: string): string {
   return id === path ? "" : ` (${id})`;
 }
 
+/** Polygons of a geometry (Polygon, MultiPolygon, or those inside a GeometryCollection). */
 function polygonsOf(g: Geometry | null | undefined): Position[][][] {
   if (!g || typeof g !== "object") return [];
   if (g.type === "Polygon" && Array.isArray(g.coordinates)) return [g.coordinates];

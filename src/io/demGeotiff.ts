@@ -25,7 +25,7 @@ import {
   type SurfaceKind,
 } from "./demResample.ts";
 import { readBand1Window } from "./geotiffBand.ts";
-import { ImportError, isImportError } from "./importErrors.ts";
+import { errorText, ImportError, isImportError } from "./importErrors.ts";
 
 /** Options for reading a GeoTIFF DEM. */
 export interface GeoTiffDemOptions {
@@ -82,11 +82,6 @@ function parsesInProj4(crs: string): boolean {
 /** The text of a GeoKey's value for a message ("missing" when absent or empty). */
 function keyText(value: unknown): string {
   return value === undefined || value === null || value === "" ? "missing" : String(value);
-}
-
-/** What a thrown value says, for a message (geotiff.js sometimes throws values without a message). */
-function errorText(e: unknown): string {
-  return e instanceof Error && e.message !== "" ? e.message : String(e);
 }
 
 /**
@@ -298,14 +293,16 @@ async function checkBlocks(image: GeoTIFFImage, byteLength: number, file: string
   if (offsetList === undefined || countList === undefined) {
     throw new ImportError(file, "missing: the TIFF has no image data", offsetsTag);
   }
-  const across = Math.ceil(image.getWidth() / image.getTileWidth());
-  const down = Math.ceil(image.getHeight() / image.getTileHeight());
+  const cols = image.getTileWidth();
+  const rows = image.getTileHeight();
+  const across = Math.ceil(image.getWidth() / cols);
+  const down = Math.ceil(image.getHeight() / rows);
   const planes = Number(dir.getValue("PlanarConfiguration") ?? 1) === 2 ? image.getSamplesPerPixel() : 1;
   const needed = across * down * planes;
   if (offsetList.length < needed || countList.length < needed) {
     const layout = tiled
-      ? `${across} × ${down} tiles of ${image.getTileWidth()} × ${image.getTileHeight()} pixels`
-      : `${down} strips of ${image.getTileHeight()} row${image.getTileHeight() === 1 ? "" : "s"} (RowsPerStrip ${image.getTileHeight()})`;
+      ? `${across} × ${down} tiles of ${cols} × ${rows} pixels`
+      : `${down} strips of ${rows} row${rows === 1 ? "" : "s"} (RowsPerStrip ${rows})`;
     throw new ImportError(
       file,
       `damaged TIFF: the image needs ${needed} blocks (${layout}) but ${Math.min(offsetList.length, countList.length)} are listed`,

@@ -306,20 +306,24 @@ export function demResultFromSource(
  * warning that counts them and gives one. A source with samples but none plausible is refused: its
  * sample format or vertical unit is wrong, and "covers no cell" would mislead.
  */
-export function dropImplausibleElevations(data: Float32Array, file: string, warnings: string[]): void {
+function dropImplausibleElevations(data: Float32Array, file: string, warnings: string[]): void {
+  // One test per sample on the common path (every DEM import, `plan los` included): counts only
+  // what falls outside, the plausible ones follow from them.
   let dropped = 0;
-  let kept = 0;
+  let nodata = 0;
   let example = 0;
   for (let i = 0; i < data.length; i++) {
     const v = data[i];
-    if (v >= MIN_ELEVATION_M && v <= MAX_ELEVATION_M) kept++;
-    else if (!Number.isNaN(v)) {
+    if (v >= MIN_ELEVATION_M && v <= MAX_ELEVATION_M) continue;
+    if (Number.isNaN(v)) nodata++;
+    else {
       if (dropped === 0) example = v;
       dropped++;
       data[i] = Number.NaN;
     }
   }
   if (dropped === 0) return;
+  const kept = data.length - dropped - nodata;
   const range = `${MIN_ELEVATION_M} to ${MAX_ELEVATION_M} m`;
   const eg = Math.abs(example) < 1e6 ? String(Math.round(example)) : example.toExponential(1);
   if (kept === 0) {

@@ -17,6 +17,11 @@ export class ImportError extends Error {
   }
 }
 
+/** What a thrown value says, for a message (some libraries throw values, or errors without a message). */
+export function errorText(e: unknown): string {
+  return e instanceof Error && e.message !== "" ? e.message : String(e);
+}
+
 /** True for an ImportError, also one that crossed a worker boundary as a plain { name, message }. */
 export function isImportError(e: unknown): e is { name: "ImportError"; message: string } {
   return typeof e === "object" && e !== null && (e as { name?: unknown }).name === "ImportError";

@@ -8,6 +8,7 @@
  */
 
 import * as Comlink from "comlink";
+import { errorText } from "../io/importErrors";
 import type { Plan } from "../io/planSchema";
 import { RUN_PARTS } from "../io/siteGrid";
 import { planToWire } from "../workers/planWire";
@@ -145,10 +146,6 @@ export async function withDem<T>(
     demHeld.delete(index);
     return attempt(full);
   }
-}
-
-function errorText(e: unknown): string {
-  return e instanceof Error ? e.message : String(e);
 }
 
 /**

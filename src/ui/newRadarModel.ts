@@ -33,6 +33,9 @@ export function newRadarModel(existing: ReadonlyArray<{ id: string }>): RadarMod
   };
 }
 
+/** Put after the name of an imported model whose id and name are both taken. */
+const IMPORTED_SUFFIX = " (imported)";
+
 /**
  * A model read from a file as the library takes it: as it is, or, when its id is taken, under a new
  * id, and then with " (imported)" after a name already in the library, so that the list and the
@@ -47,5 +50,3 @@ export function importedRadarModel(existing: ReadonlyArray<RadarModel>, model: R
     : model.name;
   return { ...model, id, name };
 }
-
-const IMPORTED_SUFFIX = " (imported)";

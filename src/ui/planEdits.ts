@@ -107,9 +107,14 @@ export function updateTargetClass(plan: Plan, id: string, patch: Partial<TargetC
   return { ...plan, targetClasses: plan.targetClasses.map((t) => (t.id === id ? { ...t, ...patch } : t)) };
 }
 
+/** Heights as a plan keeps them: ascending, without repeats. */
+export function heightSet(heightsM: readonly number[]): number[] {
+  return [...new Set(heightsM)].sort((a, b) => a - b);
+}
+
 /** Sets the analysis heights and keeps every class's heights inside them. */
 export function setAnalysisHeights(plan: Plan, heightsM: number[]): Plan {
-  const hs = [...new Set(heightsM)].sort((a, b) => a - b);
+  const hs = heightSet(heightsM);
   const targetClasses = plan.targetClasses.map((t) => {
     const kept = t.heightsAglM.filter((h) => hs.includes(h));
     return { ...t, heightsAglM: kept.length > 0 ? kept : hs };

@@ -8,7 +8,10 @@ import { parseTypedNumber } from "../numberText";
 
 export interface NumberFieldProps {
   label: string;
+  /** The unit beside the field and in its messages ("" for a pure number). */
   unit: string;
+  /** Shown beside the field instead of the unit, never in messages: "(0–1)". */
+  hint?: string;
   value: number;
   min?: number;
   max?: number;
@@ -36,8 +39,7 @@ export function NumberField(p: NumberFieldProps) {
     const typed = parseTypedNumber(text);
     if (!typed.ok) return setError(`${p.label}: ${typed.reason}`);
     const v = typed.value;
-    // A hint in parentheses beside the field, "(0–1)", is no unit to repeat in a message.
-    const u = p.unit.startsWith("(") ? "" : ` ${p.unit}`;
+    const u = p.unit === "" ? "" : ` ${p.unit}`;
     if (p.min !== undefined && v < p.min) return setError(`${p.label}: ${v}${u} is below ${p.min}${u}`);
     if (p.max !== undefined && v > p.max) return setError(`${p.label}: ${v}${u} is above ${p.max}${u}`);
     setError(null);
@@ -63,7 +65,7 @@ export function NumberField(p: NumberFieldProps) {
             if (e.key === "Escape") setText(shown(p.value));
           }}
         />
-        <span className="unit">{p.unit}</span>
+        <span className="unit">{p.hint ?? p.unit}</span>
       </span>
       {error && (
         <span className="field-error" id={`${id}-err`} role="alert">

@@ -9,6 +9,7 @@ import { parseBuildings } from "../../io/buildings";
 import { readAscDem } from "../../io/demAsc";
 import { readGeoTiffDem } from "../../io/demGeotiff";
 import { readHgtDem } from "../../io/demHgt";
+import { errorText } from "../../io/importErrors";
 import type { AreaGeometry, BuildingFeature, Plan, TreeStand } from "../../io/planSchema";
 import { MAX_RADARS_PER_RUN, siteGridFrame } from "../../io/siteGrid";
 import { useAssets } from "../assets";
@@ -41,10 +42,6 @@ export function importKindOf(fileName: string, head = ""): ImportKind {
   if (n.endsWith(".json"))
     return /"version"\s*:/.test(head) && /"posts"\s*:/.test(head) ? "plan" : "buildings";
   return "unknown";
-}
-
-function errorText(e: unknown): string {
-  return e instanceof Error ? e.message : String(e);
 }
 
 /** Rings in grid metres back to a GeoJSON polygon in lon/lat. */

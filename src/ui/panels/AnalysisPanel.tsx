@@ -3,6 +3,7 @@
  * the memory a run needs are shown before the run, and a run that would not fit is refused.
  */
 import { useEffect, useId, useMemo, useState } from "react";
+import { errorText } from "../../io/importErrors";
 import { MAX_TARGET_HEIGHT_M } from "../../io/planSchema";
 import {
   cellSizeToFitM,
@@ -13,17 +14,15 @@ import {
   siteGridFrame,
 } from "../../io/siteGrid";
 import { NumberField, SelectField } from "../components/NumberField";
-import { formatMemory } from "../numberText";
-import { setAnalysisHeights } from "../planEdits";
+import { formatMemory, parseTypedNumber } from "../numberText";
+import { heightSet, setAnalysisHeights } from "../planEdits";
 import { usePlanStore } from "../store";
 
 /**
  * Heights typed as a list, m: separated by commas or semicolons (a space inside one is an error, so
- * "20 000" is not read as 20 and 0), each 0–MAX_TARGET_HEIGHT_M; sorted, without repeats.
+ * "20 000" is not read as 20 and 0), each a number (parseTypedNumber) from 0 to MAX_TARGET_HEIGHT_M.
  */
-export function parseHeightsList(
-  text: string,
-): { ok: true; heights: number[] } | { ok: false; reason: string } {
+function parseHeightsList(text: string): { ok: true; heights: number[] } | { ok: false; reason: string } {
   const parts = text
     .split(/[,;]/)
     .map((t) => t.trim())
@@ -31,7 +30,8 @@ export function parseHeightsList(
   if (parts.length === 0) return { ok: false, reason: "give at least one height, m, separated by commas" };
   const heights: number[] = [];
   for (const part of parts) {
-    const v = /^[+-]?(\d+(\.\d*)?|\.\d+)$/.test(part) ? Number(part) : Number.NaN;
+    const typed = parseTypedNumber(part);
+    const v = typed.ok ? typed.value : Number.NaN;
     if (!(v >= 0 && v <= MAX_TARGET_HEIGHT_M)) {
       return {
         ok: false,
@@ -40,7 +40,7 @@ export function parseHeightsList(
     }
     heights.push(v);
   }
-  return { ok: true, heights: [...new Set(heights)].sort((a, b) => a - b) };
+  return { ok: true, heights };
 }
 
 function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: number[]) => void }) {
@@ -58,7 +58,7 @@ function HeightsField({ heights, onCommit }: { heights: number[]; onCommit: (h: 
     if (!r.ok) return setError(`Target heights: ${r.reason}`);
     setError(null);
     // The same heights again (a blur after Enter, focus passing through) are no change, no undo step.
-    if (r.heights.join(",") !== [...new Set(heights)].sort((a, b) => a - b).join(",")) onCommit(r.heights);
+    if (heightSet(r.heights).join(",") !== heightSet(heights).join(",")) onCommit(r.heights);
   };
   return (
     <div className="field">
@@ -102,7 +102,7 @@ export function AnalysisPanel() {
         bytes: 0,
         check: null,
         fit: null,
-        error: e instanceof Error ? e.message : String(e),
+        error: errorText(e),
       };
     }
   }, [plan]);
@@ -144,7 +144,8 @@ export function AnalysisPanel() {
       )}
       <NumberField
         label="Effective Earth factor k"
-        unit="(4/3 standard, 1 geometric)"
+        unit=""
+        hint="(4/3 standard, 1 geometric)"
         min={0.5}
         max={1000}
         digits={3}

@@ -87,7 +87,8 @@ export function TargetsPanel() {
       <h3>Requirement</h3>
       <NumberField
         label="Required Pd"
-        unit="(0–1)"
+        unit=""
+        hint="(0–1)"
         min={0.01}
         max={0.999}
         value={r.requiredPd}
